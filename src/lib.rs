@@ -1,0 +1,8 @@
+//! fluxsheet: plain-text calculation sheets with units for the linear transport laws of porous
+//! media (Darcy, Fick, Fourier, Ohm).
+//!
+//! Layers, each using only those before it: `syntax` and `units` → `eval` → `library` →
+//! `render`. The front ends (`cli`, `repl`) are the only code that touches files or the terminal.
+
+pub mod syntax;
+pub mod units;

@@ -1,0 +1,156 @@
+//! The syntax tree of a sheet. Every node carries the span of the text it came from; nothing
+//! here knows about units' meaning or values, only what was written.
+
+use super::span::Span;
+
+/// A whole sheet: its lines in file order.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Sheet {
+    pub lines: Vec<Line>,
+}
+
+/// One line of source.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Line {
+    /// 1-based line number in the file.
+    pub number: usize,
+    /// The line's text without its line ending.
+    pub span: Span,
+    pub kind: LineKind,
+    /// A trailing `# comment`, without the `#`.
+    pub comment: Option<String>,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum LineKind {
+    Blank,
+    /// A line that holds only a comment (the text is in `Line::comment`).
+    Comment,
+    Heading(String),
+    Definition(Definition),
+    Display(Display),
+    Check(Check),
+    /// A line that failed to parse; its error is in the parse result.
+    Invalid,
+}
+
+/// `name [unit] = expression`
+#[derive(Debug, Clone, PartialEq)]
+pub struct Definition {
+    pub name: Name,
+    pub display_unit: Option<UnitExpression>,
+    pub expression: Expression,
+}
+
+/// A bare `expression [unit]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Display {
+    pub expression: Expression,
+    pub display_unit: Option<UnitExpression>,
+}
+
+/// `check left <op> right [within tolerance] ["message"]`
+#[derive(Debug, Clone, PartialEq)]
+pub struct Check {
+    pub left: Expression,
+    pub comparison: Comparison,
+    pub comparison_span: Span,
+    pub right: Expression,
+    pub tolerance: Option<Expression>,
+    pub message: Option<String>,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Comparison {
+    Less,
+    LessOrEqual,
+    Greater,
+    GreaterOrEqual,
+    Equal,
+    NotEqual,
+}
+
+impl Comparison {
+    pub fn symbol(self) -> &'static str {
+        match self {
+            Comparison::Less => "<",
+            Comparison::LessOrEqual => "<=",
+            Comparison::Greater => ">",
+            Comparison::GreaterOrEqual => ">=",
+            Comparison::Equal => "==",
+            Comparison::NotEqual => "!=",
+        }
+    }
+}
+
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Name {
+    pub text: String,
+    pub span: Span,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct Expression {
+    pub kind: ExpressionKind,
+    pub span: Span,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum ExpressionKind {
+    /// A number literal with an optional unit; the digits are kept as written so that exact
+    /// unit factors can be applied in decimal.
+    Quantity { digits: String, unit: Option<UnitExpression> },
+    Name(String),
+    Call { function: Name, arguments: Vec<Expression> },
+    Negate(Box<Expression>),
+    Binary { operator: BinaryOperator, left: Box<Expression>, right: Box<Expression> },
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum BinaryOperator {
+    Add,
+    Subtract,
+    Multiply,
+    Divide,
+    Power,
+}
+
+/// A unit as written: symbols, products, quotients and powers.
+#[derive(Debug, Clone, PartialEq)]
+pub struct UnitExpression {
+    pub kind: UnitExpressionKind,
+    pub span: Span,
+    /// The unit's text as written, e.g. `gal/(d*ft^2)`.
+    pub text: String,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum UnitExpressionKind {
+    Symbol(String),
+    /// The `1` of `1/d`.
+    One,
+    Product(Box<UnitExpression>, Box<UnitExpression>),
+    Quotient(Box<UnitExpression>, Box<UnitExpression>),
+    /// A power with a rational exponent `numerator/denominator` (denominator > 0).
+    Power { base: Box<UnitExpression>, numerator: i32, denominator: i32 },
+}
+
+impl Expression {
+    /// Calls `visit` on every sheet name this expression refers to (not function names).
+    pub fn for_each_name<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
+        match &self.kind {
+            ExpressionKind::Quantity { .. } => {}
+            ExpressionKind::Name(name) => visit(name, self.span),
+            ExpressionKind::Call { arguments, .. } => {
+                for argument in arguments {
+                    argument.for_each_name(visit);
+                }
+            }
+            ExpressionKind::Negate(inner) => inner.for_each_name(visit),
+            ExpressionKind::Binary { left, right, .. } => {
+                left.for_each_name(visit);
+                right.for_each_name(visit);
+            }
+        }
+    }
+}

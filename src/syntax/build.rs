@@ -1,0 +1,517 @@
+//! Builds the syntax tree from pest pairs. Operator precedence and associativity live in one
+//! Pratt table here, not in the grammar. `expect_*` helpers would be user errors; a pair shape
+//! the grammar rules out is reported as `internal`, never a panic.
+
+use super::ast::*;
+use super::error::{SyntaxError, SyntaxErrorKind};
+use super::parser::{Rule, WorksheetParser};
+use super::span::Span;
+use pest::iterators::{Pair, Pairs};
+use pest::pratt_parser::{Assoc, Op, PrattParser};
+use pest::Parser;
+use std::sync::OnceLock;
+
+/// Deepest nesting of `(`/`[` accepted on one line; keeps parsing and evaluation off the stack's
+/// edge for hostile input.
+pub const NESTING_LIMIT: usize = 64;
+/// Most operators accepted on one line, for the same reason.
+pub const OPERATOR_LIMIT: usize = 2_000;
+
+/// A parsed sheet: every line (bad ones as `LineKind::Invalid`) and every syntax error.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ParsedSheet {
+    pub sheet: Sheet,
+    pub errors: Vec<SyntaxError>,
+}
+
+/// Parses a whole sheet, one line at a time.
+pub fn parse_sheet(source: &str) -> ParsedSheet {
+    let mut lines = Vec::new();
+    let mut errors = Vec::new();
+    let mut offset = 0;
+    for (index, raw_line) in source.split('\n').enumerate() {
+        let text = raw_line.strip_suffix('\r').unwrap_or(raw_line);
+        match parse_line(text, index + 1, offset) {
+            Ok(line) => lines.push(line),
+            Err(error) => {
+                lines.push(Line {
+                    number: index + 1,
+                    span: Span::new(offset, offset + text.len()),
+                    kind: LineKind::Invalid,
+                    comment: None,
+                });
+                errors.push(error);
+            }
+        }
+        offset += raw_line.len() + 1;
+    }
+    // A final newline does not make a line of its own.
+    if source.ends_with('\n') {
+        lines.pop();
+    }
+    ParsedSheet { sheet: Sheet { lines }, errors }
+}
+
+/// Parses one line whose text starts at byte `offset` of its file.
+pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, SyntaxError> {
+    guard_against_deep_input(text, offset)?;
+    let mut pairs = WorksheetParser::parse(Rule::line, text).map_err(|error| convert(error, text, offset))?;
+    let line_pair = pairs.next().ok_or_else(|| internal(offset))?;
+    let builder = Builder { offset };
+    let mut kind = LineKind::Blank;
+    let mut comment = None;
+    for pair in line_pair.into_inner() {
+        match pair.as_rule() {
+            Rule::heading => {
+                let text = pair.into_inner().next().map(|inner| inner.as_str().trim().to_string());
+                kind = LineKind::Heading(text.unwrap_or_default());
+            }
+            Rule::comment => {
+                comment = pair.into_inner().next().map(|inner| inner.as_str().trim().to_string());
+            }
+            Rule::definition => kind = LineKind::Definition(builder.definition(pair)?),
+            Rule::display => kind = LineKind::Display(builder.display(pair)?),
+            Rule::check_line => {
+                let (check, check_comment) = builder.check(pair)?;
+                kind = LineKind::Check(check);
+                comment = check_comment;
+            }
+            _ => {}
+        }
+    }
+    if kind == LineKind::Blank && comment.is_some() {
+        kind = LineKind::Comment;
+    }
+    Ok(Line { number, span: Span::new(offset, offset + text.len()), kind, comment })
+}
+
+/// Parses a unit written alone, e.g. a command-line `--unit viscosity=cP`.
+pub fn parse_unit(text: &str) -> Result<UnitExpression, SyntaxError> {
+    guard_against_deep_input(text, 0)?;
+    let mut pairs = WorksheetParser::parse(Rule::unit_alone, text).map_err(|error| convert(error, text, 0))?;
+    let unit = pairs.next().and_then(|pair| pair.into_inner().next()).ok_or_else(|| internal(0))?;
+    Builder { offset: 0 }.unit(unit)
+}
+
+/// Parses an expression written alone, e.g. a command-line `--from 0degC`.
+pub fn parse_expression(text: &str) -> Result<Expression, SyntaxError> {
+    guard_against_deep_input(text, 0)?;
+    let mut pairs =
+        WorksheetParser::parse(Rule::expression_alone, text).map_err(|error| convert(error, text, 0))?;
+    let expression = pairs.next().and_then(|pair| pair.into_inner().next()).ok_or_else(|| internal(0))?;
+    Builder { offset: 0 }.expression(expression)
+}
+
+/// Rejects nesting and operator counts that would exhaust the stack in a recursive parser.
+fn guard_against_deep_input(text: &str, offset: usize) -> Result<(), SyntaxError> {
+    let mut depth = 0usize;
+    let mut operators = 0usize;
+    for (position, character) in text.char_indices() {
+        match character {
+            '(' | '[' => {
+                depth += 1;
+                if depth > NESTING_LIMIT {
+                    return Err(SyntaxError {
+                        kind: SyntaxErrorKind::NestingTooDeep { limit: NESTING_LIMIT },
+                        span: Span::new(offset + position, offset + position + 1),
+                    });
+                }
+            }
+            ')' | ']' => depth = depth.saturating_sub(1),
+            '+' | '-' | '*' | '/' | '^' => {
+                operators += 1;
+                if operators > OPERATOR_LIMIT {
+                    return Err(SyntaxError {
+                        kind: SyntaxErrorKind::ExpressionTooLong { limit: OPERATOR_LIMIT },
+                        span: Span::new(offset, offset + text.len()),
+                    });
+                }
+            }
+            '#' => break,
+            _ => {}
+        }
+    }
+    Ok(())
+}
+
+fn pratt() -> &'static PrattParser<Rule> {
+    static PRATT: OnceLock<PrattParser<Rule>> = OnceLock::new();
+    PRATT.get_or_init(|| {
+        PrattParser::new()
+            .op(Op::infix(Rule::add, Assoc::Left) | Op::infix(Rule::subtract, Assoc::Left))
+            .op(Op::infix(Rule::multiply, Assoc::Left) | Op::infix(Rule::divide, Assoc::Left))
+            .op(Op::prefix(Rule::negate) | Op::prefix(Rule::plus_sign))
+            .op(Op::infix(Rule::power, Assoc::Right))
+    })
+}
+
+struct Builder {
+    offset: usize,
+}
+
+impl Builder {
+    fn span(&self, pair: &Pair<Rule>) -> Span {
+        let span = pair.as_span();
+        Span::new(span.start() + self.offset, span.end() + self.offset)
+    }
+
+    fn definition(&self, pair: Pair<Rule>) -> Result<Definition, SyntaxError> {
+        let fallback = self.span(&pair);
+        let mut name = None;
+        let mut display_unit = None;
+        let mut expression = None;
+        for inner in pair.into_inner() {
+            match inner.as_rule() {
+                Rule::name => name = Some(Name { text: inner.as_str().to_string(), span: self.span(&inner) }),
+                Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
+                Rule::expression => expression = Some(self.expression(inner)?),
+                _ => {}
+            }
+        }
+        match (name, expression) {
+            (Some(name), Some(expression)) => Ok(Definition { name, display_unit, expression }),
+            _ => Err(internal(fallback.start)),
+        }
+    }
+
+    fn display(&self, pair: Pair<Rule>) -> Result<Display, SyntaxError> {
+        let fallback = self.span(&pair);
+        let mut display_unit = None;
+        let mut expression = None;
+        for inner in pair.into_inner() {
+            match inner.as_rule() {
+                Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
+                Rule::expression => expression = Some(self.expression(inner)?),
+                _ => {}
+            }
+        }
+        let expression = expression.ok_or_else(|| internal(fallback.start))?;
+        Ok(Display { expression, display_unit })
+    }
+
+    fn check(&self, pair: Pair<Rule>) -> Result<(Check, Option<String>), SyntaxError> {
+        let fallback = self.span(&pair);
+        let mut expressions = Vec::new();
+        let mut comparison = None;
+        let mut tolerance = None;
+        let mut message = None;
+        let mut comment = None;
+        for inner in pair.into_inner() {
+            match inner.as_rule() {
+                Rule::expression => expressions.push(self.expression(inner)?),
+                Rule::comparison => {
+                    let operator = match inner.as_str() {
+                        "<" => Comparison::Less,
+                        "<=" => Comparison::LessOrEqual,
+                        ">" => Comparison::Greater,
+                        ">=" => Comparison::GreaterOrEqual,
+                        "==" => Comparison::Equal,
+                        _ => Comparison::NotEqual,
+                    };
+                    comparison = Some((operator, self.span(&inner)));
+                }
+                Rule::tolerance => {
+                    let expression = inner.into_inner().next().ok_or_else(|| internal(fallback.start))?;
+                    tolerance = Some(self.expression(expression)?);
+                }
+                Rule::message => message = inner.into_inner().next().map(|text| text.as_str().to_string()),
+                Rule::comment => comment = inner.into_inner().next().map(|text| text.as_str().trim().to_string()),
+                _ => {}
+            }
+        }
+        let mut expressions = expressions.into_iter();
+        match (expressions.next(), comparison, expressions.next()) {
+            (Some(left), Some((comparison, comparison_span)), Some(right)) => Ok((
+                Check { left, comparison, comparison_span, right, tolerance, message },
+                comment,
+            )),
+            _ => Err(internal(fallback.start)),
+        }
+    }
+
+    fn display_unit(&self, pair: Pair<Rule>) -> Result<UnitExpression, SyntaxError> {
+        let fallback = self.span(&pair);
+        let unit = pair.into_inner().next().ok_or_else(|| internal(fallback.start))?;
+        self.unit(unit)
+    }
+
+    fn expression(&self, pair: Pair<Rule>) -> Result<Expression, SyntaxError> {
+        self.operations(pair.into_inner())
+    }
+
+    fn operations(&self, pairs: Pairs<Rule>) -> Result<Expression, SyntaxError> {
+        pratt()
+            .map_primary(|primary| self.primary(primary))
+            .map_prefix(|operator, operand| {
+                let operand = operand?;
+                let span = self.span(&operator).to(operand.span);
+                Ok(match operator.as_rule() {
+                    Rule::negate => Expression { kind: ExpressionKind::Negate(Box::new(operand)), span },
+                    _ => Expression { kind: operand.kind, span },
+                })
+            })
+            .map_infix(|left, operator, right| {
+                let (left, right) = (left?, right?);
+                let operator = match operator.as_rule() {
+                    Rule::add => BinaryOperator::Add,
+                    Rule::subtract => BinaryOperator::Subtract,
+                    Rule::multiply => BinaryOperator::Multiply,
+                    Rule::divide => BinaryOperator::Divide,
+                    _ => BinaryOperator::Power,
+                };
+                let span = left.span.to(right.span);
+                Ok(Expression {
+                    kind: ExpressionKind::Binary { operator, left: Box::new(left), right: Box::new(right) },
+                    span,
+                })
+            })
+            .parse(pairs)
+    }
+
+    fn primary(&self, pair: Pair<Rule>) -> Result<Expression, SyntaxError> {
+        let span = self.span(&pair);
+        match pair.as_rule() {
+            Rule::quantity => {
+                let mut inner = pair.into_inner();
+                let digits = inner.next().map(|number| number.as_str().to_string()).unwrap_or_default();
+                let unit = match inner.next() {
+                    Some(unit) => Some(self.unit(unit)?),
+                    None => None,
+                };
+                Ok(Expression { kind: ExpressionKind::Quantity { digits, unit }, span })
+            }
+            Rule::name => Ok(Expression { kind: ExpressionKind::Name(pair.as_str().to_string()), span }),
+            Rule::call => {
+                let mut inner = pair.into_inner();
+                let function = inner.next().ok_or_else(|| internal(span.start))?;
+                let function = Name { text: function.as_str().to_string(), span: self.span(&function) };
+                let arguments = inner.map(|argument| self.expression(argument)).collect::<Result<_, _>>()?;
+                Ok(Expression { kind: ExpressionKind::Call { function, arguments }, span })
+            }
+            Rule::expression => {
+                // Parentheses: the span widens to include them.
+                let inner = self.expression(pair)?;
+                Ok(Expression { kind: inner.kind, span: Span::new(inner.span.start - 1, inner.span.end + 1) })
+            }
+            _ => Err(internal(span.start)),
+        }
+    }
+
+    fn unit(&self, pair: Pair<Rule>) -> Result<UnitExpression, SyntaxError> {
+        let span = self.span(&pair);
+        let text = pair.as_str().to_string();
+        match pair.as_rule() {
+            Rule::unit_expression => {
+                let mut inner = pair.into_inner();
+                let first = inner.next().ok_or_else(|| internal(span.start))?;
+                let mut result = self.unit(first)?;
+                while let (Some(operator), Some(factor)) = (inner.next(), inner.next()) {
+                    let right = self.unit(factor)?;
+                    let combined_span = result.span.to(right.span);
+                    let kind = if operator.as_rule() == Rule::unit_per {
+                        UnitExpressionKind::Quotient(Box::new(result), Box::new(right))
+                    } else {
+                        UnitExpressionKind::Product(Box::new(result), Box::new(right))
+                    };
+                    let combined_text = text[..combined_span.end - span.start].to_string();
+                    result = UnitExpression { kind, span: combined_span, text: combined_text };
+                }
+                Ok(UnitExpression { text, ..result })
+            }
+            Rule::unit_factor => {
+                let mut inner = pair.into_inner();
+                let base = inner.next().ok_or_else(|| internal(span.start))?;
+                let base = self.unit(base)?;
+                match inner.next() {
+                    None => Ok(base),
+                    Some(exponent) => {
+                        let (numerator, denominator) = exponent_value(exponent.as_str())
+                            .ok_or_else(|| SyntaxError {
+                                kind: SyntaxErrorKind::BadExponent { text: exponent.as_str().to_string() },
+                                span: self.span(&exponent),
+                            })?;
+                        Ok(UnitExpression {
+                            kind: UnitExpressionKind::Power { base: Box::new(base), numerator, denominator },
+                            span,
+                            text,
+                        })
+                    }
+                }
+            }
+            Rule::unit_symbol => Ok(UnitExpression { kind: UnitExpressionKind::Symbol(text.clone()), span, text }),
+            Rule::unit_one => Ok(UnitExpression { kind: UnitExpressionKind::One, span, text }),
+            _ => Err(internal(span.start)),
+        }
+    }
+}
+
+/// Reads `2`, `-1`, `(1/2)`, `(-3/2)`; `None` for a zero denominator or a huge number.
+fn exponent_value(text: &str) -> Option<(i32, i32)> {
+    let inside = text.trim_start_matches('(').trim_end_matches(')');
+    let (numerator, denominator) = match inside.split_once('/') {
+        Some((numerator, denominator)) => (numerator.parse::<i32>().ok()?, denominator.parse::<i32>().ok()?),
+        None => (inside.parse::<i32>().ok()?, 1),
+    };
+    let limit = 1_000;
+    (denominator > 0 && numerator.abs() <= limit && denominator <= limit).then_some((numerator, denominator))
+}
+
+fn internal(position: usize) -> SyntaxError {
+    SyntaxError {
+        kind: SyntaxErrorKind::Unexpected { expected: vec!["valid syntax (internal parser error)"], found: None },
+        span: Span::new(position, position),
+    }
+}
+
+/// Turns a pest error into ours, naming what was expected in user words.
+fn convert(error: pest::error::Error<Rule>, text: &str, offset: usize) -> SyntaxError {
+    let position = match error.location {
+        pest::error::InputLocation::Pos(position) => position,
+        pest::error::InputLocation::Span((start, _)) => start,
+    };
+    let mut expected: Vec<&'static str> = Vec::new();
+    if let pest::error::ErrorVariant::ParsingError { positives, .. } = &error.variant {
+        for rule in positives {
+            if let Some(words) = describe(*rule) {
+                if !expected.contains(&words) {
+                    expected.push(words);
+                }
+            }
+        }
+    }
+    let rest = &text[position.min(text.len())..];
+    let found: String = rest.chars().take_while(|character| !character.is_whitespace()).take(12).collect();
+    let found_width = found.len().max(1);
+    SyntaxError {
+        kind: SyntaxErrorKind::Unexpected {
+            expected,
+            found: if rest.is_empty() { None } else { Some(found) },
+        },
+        span: Span::new(offset + position, offset + (position + found_width).min(text.len().max(position))),
+    }
+}
+
+fn describe(rule: Rule) -> Option<&'static str> {
+    Some(match rule {
+        Rule::expression | Rule::quantity | Rule::number | Rule::call | Rule::name => "an expression",
+        Rule::add | Rule::subtract | Rule::multiply | Rule::divide | Rule::power => "an operator",
+        Rule::display_unit => "`[unit]`",
+        Rule::unit_expression | Rule::unit_factor | Rule::unit_symbol | Rule::unit_one => "a unit",
+        Rule::unit_exponent => "a unit exponent such as 2 or (1/2)",
+        Rule::comparison => "a comparison (`<`, `<=`, `>`, `>=`, `==`, `!=`)",
+        Rule::tolerance => "`within`",
+        Rule::message => "a quoted message",
+        Rule::comment => "a `#` comment",
+        Rule::EOI => "the end of the line",
+        Rule::definition | Rule::display | Rule::check_line => "a line",
+        _ => return None,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn expression(text: &str) -> Expression {
+        parse_expression(text).unwrap_or_else(|error| panic!("{text}: {error}"))
+    }
+
+    /// Renders a tree compactly to compare structure in one line.
+    fn shape(expression: &Expression) -> String {
+        match &expression.kind {
+            ExpressionKind::Quantity { digits, unit: Some(unit) } => format!("{digits}[{}]", unit.text),
+            ExpressionKind::Quantity { digits, unit: None } => digits.clone(),
+            ExpressionKind::Name(name) => name.clone(),
+            ExpressionKind::Call { function, arguments } => {
+                format!("{}({})", function.text, arguments.iter().map(shape).collect::<Vec<_>>().join(","))
+            }
+            ExpressionKind::Negate(inner) => format!("(-{})", shape(inner)),
+            ExpressionKind::Binary { operator, left, right } => {
+                let symbol = match operator {
+                    BinaryOperator::Add => "+",
+                    BinaryOperator::Subtract => "-",
+                    BinaryOperator::Multiply => "*",
+                    BinaryOperator::Divide => "/",
+                    BinaryOperator::Power => "^",
+                };
+                format!("({}{symbol}{})", shape(left), shape(right))
+            }
+        }
+    }
+
+    fn check(text: &str, expected: &str) {
+        assert_eq!(shape(&expression(text)), expected, "{text}");
+    }
+
+    #[test]
+    fn precedence_and_associativity() {
+        check("1 + 2 * 3", "(1+(2*3))");
+        check("2 ^ 3 ^ 2", "(2^(3^2))");
+        check("-2 ^ 2", "(-(2^2))");
+        check("a - b - c", "((a-b)-c)");
+        check("2^-1", "(2^(-1))");
+        check("(a + b) * c", "((a+b)*c)");
+    }
+
+    #[test]
+    fn units_attach_to_numbers_only() {
+        check("2 m/d * A", "(2[m/d]*A)");
+        check("10 gal/(d*ft^2)", "10[gal/(d*ft^2)]");
+        check("1.2e-3 Pa*s", "1.2e-3[Pa*s]");
+        check("30 %", "30[%]");
+        check("f(1 mD, ρ, 2)", "f(1[mD],ρ,2)");
+        check("250mD", "250[mD]");
+    }
+
+    #[test]
+    fn spans_point_into_the_line() {
+        let line = parse_line("K [m/s] = 2 * k", 3, 100).unwrap();
+        let LineKind::Definition(definition) = line.kind else { panic!() };
+        assert_eq!(definition.name.span, Span::new(100, 101));
+        assert_eq!(definition.expression.span, Span::new(110, 115));
+        assert_eq!(definition.display_unit.unwrap().span, Span::new(103, 106));
+    }
+
+    #[test]
+    fn headings_comments_and_checks() {
+        assert_eq!(parse_line("## Site", 1, 0).unwrap().kind, LineKind::Heading("Site".into()));
+        assert_eq!(parse_line("  # note", 1, 0).unwrap().kind, LineKind::Comment);
+        let line = parse_line("x = 2 m # why", 1, 0).unwrap();
+        assert_eq!(line.comment.as_deref(), Some("why"));
+        let check = parse_line("check K <= 1e-9 m/s within 1 % \"liner limit\"", 1, 0).unwrap();
+        let LineKind::Check(check) = check.kind else { panic!() };
+        assert_eq!(check.comparison, Comparison::LessOrEqual);
+        assert_eq!(check.message.as_deref(), Some("liner limit"));
+        assert!(check.tolerance.is_some());
+    }
+
+    #[test]
+    fn syntax_errors_say_what_was_expected() {
+        let error = parse_line("x = 2 +", 1, 0).unwrap_err();
+        assert_eq!(error.to_string(), "expected an expression, found the end of the line");
+        let error = parse_line("x = )", 1, 0).unwrap_err();
+        assert_eq!(error.span, Span::new(4, 5));
+    }
+
+    #[test]
+    fn deep_nesting_is_refused_not_overflowed() {
+        let deep = format!("x = {}1{}", "(".repeat(100_000), ")".repeat(100_000));
+        let error = parse_line(&deep, 1, 0).unwrap_err();
+        assert!(matches!(error.kind, SyntaxErrorKind::NestingTooDeep { .. }));
+    }
+
+    #[test]
+    fn sheet_keeps_going_after_a_bad_line() {
+        let parsed = parse_sheet("a = 1 m\nb = = 2\nc = a * 2\n");
+        assert_eq!(parsed.sheet.lines.len(), 3);
+        assert_eq!(parsed.errors.len(), 1);
+        assert_eq!(parsed.sheet.lines[1].kind, LineKind::Invalid);
+    }
+
+    #[test]
+    fn unit_exponents_are_rational() {
+        let unit = parse_unit("m^(1/2)").unwrap();
+        assert!(matches!(unit.kind, UnitExpressionKind::Power { numerator: 1, denominator: 2, .. }));
+        assert!(parse_unit("m^(1/0)").is_err());
+    }
+}

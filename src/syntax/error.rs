@@ -1,0 +1,51 @@
+//! Syntax errors: where the text stopped making sense and what would have been accepted there.
+
+use super::span::Span;
+use std::fmt;
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct SyntaxError {
+    pub kind: SyntaxErrorKind,
+    pub span: Span,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum SyntaxErrorKind {
+    /// The parser expected one of these (already in user words) and found something else.
+    Unexpected { expected: Vec<&'static str>, found: Option<String> },
+    /// Parentheses or brackets nested deeper than the parser's limit.
+    NestingTooDeep { limit: usize },
+    /// More operators on one line than the evaluator takes.
+    ExpressionTooLong { limit: usize },
+    /// A unit exponent that is not a small rational, e.g. `m^(1/0)`.
+    BadExponent { text: String },
+}
+
+impl fmt::Display for SyntaxError {
+    fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match &self.kind {
+            SyntaxErrorKind::Unexpected { expected, found } => {
+                let found = match found {
+                    Some(text) => format!("`{text}`"),
+                    None => "the end of the line".to_string(),
+                };
+                match expected.as_slice() {
+                    [] => write!(formatter, "unexpected {found}"),
+                    [only] => write!(formatter, "expected {only}, found {found}"),
+                    [first @ .., last] => {
+                        write!(formatter, "expected {} or {last}, found {found}", first.join(", "))
+                    }
+                }
+            }
+            SyntaxErrorKind::NestingTooDeep { limit } => {
+                write!(formatter, "nesting too deep: more than {limit} levels of parentheses")
+            }
+            SyntaxErrorKind::ExpressionTooLong { limit } => {
+                write!(formatter, "expression too long: more than {limit} operators on one line")
+            }
+            SyntaxErrorKind::BadExponent { text } => {
+                write!(formatter, "unit exponent `{text}` is not a whole number or a fraction like (1/2)")
+            }
+        }
+    }
+}

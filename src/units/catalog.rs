@@ -1,0 +1,256 @@
+//! The unit catalog: every unit the language knows, in one table, with its dimension, its
+//! factor to SI written as exact decimals, and where the definition comes from.
+//!
+//! To add a unit, add one row here (see DEVELOPERS.md). Factors are text so that the exact
+//! definition is what is stored and reviewed; `Factor::from_definition` reads them.
+
+/// How a unit relates to temperature, which decides whether it carries an offset.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum TemperatureRole {
+    /// Not a temperature unit, or kelvin: a plain multiplicative unit.
+    None,
+    /// An absolute temperature scale (`degC`, `degF`, `degR`): value_K = (x + offset) × factor.
+    Absolute,
+    /// A temperature difference (`delta_degC`, `delta_degF`): multiplicative, never offset.
+    Difference,
+}
+
+/// One catalog row.
+#[derive(Debug)]
+pub struct UnitDefinition {
+    /// Accepted spellings; the first is the one shown.
+    pub symbols: &'static [&'static str],
+    pub name: &'static str,
+    /// Exponents of L M T I Θ N J.
+    pub dimension: [i32; 7],
+    /// Factor to the SI coherent unit, as exact decimals joined by `*` and `/`.
+    pub factor: &'static str,
+    /// For absolute temperature scales: the offset in the unit's own degrees.
+    pub offset: Option<&'static str>,
+    pub temperature: TemperatureRole,
+    /// Whether SI prefixes (`k`, `m`, `µ`, …) may be put in front of it.
+    pub prefixable: bool,
+    pub source: &'static str,
+    /// A short remark shown in `fluxsheet units` (conventions, exactness).
+    pub note: &'static str,
+}
+
+/// An SI prefix (SI Brochure, 9th ed., Table 7).
+#[derive(Debug)]
+pub struct Prefix {
+    pub symbols: &'static [&'static str],
+    pub factor: &'static str,
+}
+
+const SI_BROCHURE_BASE: &str = "SI Brochure 9th ed. (2019), Table 2";
+const SI_BROCHURE_DERIVED: &str = "SI Brochure 9th ed. (2019), Table 4";
+const SI_BROCHURE_ACCEPTED: &str = "SI Brochure 9th ed. (2019), Table 8";
+const NIST_811: &str = "NIST SP 811 (2008), Appendix B.8";
+const NIST_811_CONVENTIONAL: &str = "NIST SP 811 (2008), Appendix B.8 (conventional)";
+const COMMON_PRACTICE: &str = "common practice";
+
+const L: [i32; 7] = [1, 0, 0, 0, 0, 0, 0];
+const AREA: [i32; 7] = [2, 0, 0, 0, 0, 0, 0];
+const VOLUME: [i32; 7] = [3, 0, 0, 0, 0, 0, 0];
+const MASS: [i32; 7] = [0, 1, 0, 0, 0, 0, 0];
+const TIME: [i32; 7] = [0, 0, 1, 0, 0, 0, 0];
+const FREQUENCY: [i32; 7] = [0, 0, -1, 0, 0, 0, 0];
+const CURRENT: [i32; 7] = [0, 0, 0, 1, 0, 0, 0];
+const TEMPERATURE: [i32; 7] = [0, 0, 0, 0, 1, 0, 0];
+const AMOUNT: [i32; 7] = [0, 0, 0, 0, 0, 1, 0];
+const FORCE: [i32; 7] = [1, 1, -2, 0, 0, 0, 0];
+const PRESSURE: [i32; 7] = [-1, 1, -2, 0, 0, 0, 0];
+const ENERGY: [i32; 7] = [2, 1, -2, 0, 0, 0, 0];
+const POWER: [i32; 7] = [2, 1, -3, 0, 0, 0, 0];
+const DYNAMIC_VISCOSITY: [i32; 7] = [-1, 1, -1, 0, 0, 0, 0];
+const KINEMATIC_VISCOSITY: [i32; 7] = [2, 0, -1, 0, 0, 0, 0];
+const CHARGE: [i32; 7] = [0, 0, 1, 1, 0, 0, 0];
+const VOLTAGE: [i32; 7] = [2, 1, -3, -1, 0, 0, 0];
+const RESISTANCE: [i32; 7] = [2, 1, -3, -2, 0, 0, 0];
+const CONDUCTANCE: [i32; 7] = [-2, -1, 3, 2, 0, 0, 0];
+const NONE: [i32; 7] = [0, 0, 0, 0, 0, 0, 0];
+const VOLUME_FLOW: [i32; 7] = [3, 0, -1, 0, 0, 0, 0];
+
+/// Builds a plain row; the few rows with offsets or temperature roles set those fields.
+const fn unit(
+    symbols: &'static [&'static str],
+    name: &'static str,
+    dimension: [i32; 7],
+    factor: &'static str,
+    prefixable: bool,
+    source: &'static str,
+    note: &'static str,
+) -> UnitDefinition {
+    UnitDefinition {
+        symbols,
+        name,
+        dimension,
+        factor,
+        offset: None,
+        temperature: TemperatureRole::None,
+        prefixable,
+        source,
+        note,
+    }
+}
+
+/// Every unit the language knows.
+pub const UNITS: &[UnitDefinition] = &[
+    // Length
+    unit(&["m"], "metre", L, "1", true, SI_BROCHURE_BASE, ""),
+    unit(&["ft"], "foot (international)", L, "0.3048", false, NIST_811, "exact"),
+    unit(&["in"], "inch", L, "0.0254", false, NIST_811, "exact"),
+    unit(&["yd"], "yard", L, "0.9144", false, NIST_811, "exact"),
+    unit(&["mi"], "mile (international)", L, "1609.344", false, NIST_811, "exact"),
+    // Area
+    unit(&["ha"], "hectare", AREA, "10000", false, SI_BROCHURE_ACCEPTED, "exact"),
+    unit(&["acre"], "acre (international)", AREA, "43560*0.3048*0.3048", false, NIST_811, "43 560 ft^2, exact"),
+    // Volume
+    unit(&["L", "l"], "litre", VOLUME, "0.001", true, SI_BROCHURE_ACCEPTED, "exact"),
+    unit(&["gal"], "gallon (US liquid)", VOLUME, "0.003785411784", false, NIST_811, "231 in^3, exact"),
+    unit(&["bbl"], "barrel (oil, 42 US gal)", VOLUME, "42*0.003785411784", false, NIST_811, "exact"),
+    unit(&["gpm"], "US gallon per minute", VOLUME_FLOW, "0.003785411784/60", false, NIST_811, "exact"),
+    // Time
+    unit(&["s"], "second", TIME, "1", true, SI_BROCHURE_BASE, ""),
+    unit(&["min"], "minute", TIME, "60", false, SI_BROCHURE_ACCEPTED, "exact"),
+    unit(&["h"], "hour", TIME, "3600", false, SI_BROCHURE_ACCEPTED, "exact"),
+    unit(&["d"], "day", TIME, "86400", false, SI_BROCHURE_ACCEPTED, "exact"),
+    unit(&["wk"], "week", TIME, "604800", false, NIST_811, "7 d, exact"),
+    unit(&["yr"], "year (Julian)", TIME, "31557600", false, NIST_811, "365.25 d, exact"),
+    unit(&["Hz"], "hertz", FREQUENCY, "1", true, SI_BROCHURE_DERIVED, ""),
+    // Mass
+    unit(&["g"], "gram", MASS, "0.001", true, SI_BROCHURE_BASE, "kg is k + g"),
+    unit(&["t"], "tonne", MASS, "1000", false, SI_BROCHURE_ACCEPTED, "exact"),
+    unit(&["lb"], "pound (avoirdupois)", MASS, "0.45359237", false, NIST_811, "exact"),
+    // Force
+    unit(&["N"], "newton", FORCE, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(&["lbf"], "pound-force", FORCE, "0.45359237*9.80665", false, NIST_811, "exact"),
+    unit(&["kgf"], "kilogram-force", FORCE, "9.80665", false, NIST_811, "exact"),
+    // Pressure
+    unit(&["Pa"], "pascal", PRESSURE, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(&["bar"], "bar", PRESSURE, "100000", true, NIST_811, "exact"),
+    unit(&["atm"], "standard atmosphere", PRESSURE, "101325", false, NIST_811, "exact"),
+    unit(&["psi"], "pound-force per square inch", PRESSURE, "0.45359237*9.80665/0.0254/0.0254", false, NIST_811, "lbf/in^2, exact"),
+    unit(&["mmHg"], "millimetre of mercury (conventional)", PRESSURE, "133.322387415", false, NIST_811_CONVENTIONAL, "13.5951 kg/L x 1 mm x g0"),
+    unit(&["mH2O"], "metre of water (conventional)", PRESSURE, "9806.65", false, NIST_811_CONVENTIONAL, "1000 kg/m^3 x 1 m x g0, exact"),
+    unit(&["cmH2O"], "centimetre of water (conventional)", PRESSURE, "98.0665", false, NIST_811_CONVENTIONAL, "exact"),
+    unit(&["ftH2O"], "foot of water (conventional)", PRESSURE, "0.3048*9806.65", false, NIST_811_CONVENTIONAL, "exact"),
+    unit(&["inH2O"], "inch of water (conventional)", PRESSURE, "0.0254*9806.65", false, NIST_811_CONVENTIONAL, "exact"),
+    // Energy and power
+    unit(&["J"], "joule", ENERGY, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(&["cal"], "calorie (thermochemical)", ENERGY, "4.184", true, NIST_811, "exact"),
+    unit(&["BTU", "Btu"], "British thermal unit (IT)", ENERGY, "1055.05585262", false, NIST_811, "exact"),
+    unit(&["Wh"], "watt hour", ENERGY, "3600", true, NIST_811, "exact; kWh is k + Wh"),
+    unit(&["eV"], "electronvolt", ENERGY, "1.602176634e-19", true, SI_BROCHURE_ACCEPTED, "exact (2019 SI)"),
+    unit(&["W"], "watt", POWER, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(&["hp"], "horsepower (mechanical, 550 ft lbf/s)", POWER, "550*0.3048*0.45359237*9.80665", false, NIST_811, "exact"),
+    // Temperature
+    unit(&["K"], "kelvin", TEMPERATURE, "1", true, SI_BROCHURE_BASE, ""),
+    UnitDefinition {
+        symbols: &["degC", "°C"],
+        name: "degree Celsius",
+        dimension: TEMPERATURE,
+        factor: "1",
+        offset: Some("273.15"),
+        temperature: TemperatureRole::Absolute,
+        prefixable: false,
+        source: SI_BROCHURE_DERIVED,
+        note: "absolute; a difference inside a compound unit",
+    },
+    UnitDefinition {
+        symbols: &["degF", "°F"],
+        name: "degree Fahrenheit",
+        dimension: TEMPERATURE,
+        factor: "5/9",
+        offset: Some("459.67"),
+        temperature: TemperatureRole::Absolute,
+        prefixable: false,
+        source: NIST_811,
+        note: "absolute; a difference inside a compound unit",
+    },
+    UnitDefinition {
+        symbols: &["degR", "°R"],
+        name: "degree Rankine",
+        dimension: TEMPERATURE,
+        factor: "5/9",
+        offset: Some("0"),
+        temperature: TemperatureRole::Absolute,
+        prefixable: false,
+        source: NIST_811,
+        note: "absolute",
+    },
+    UnitDefinition {
+        symbols: &["delta_degC"],
+        name: "degree Celsius (difference)",
+        dimension: TEMPERATURE,
+        factor: "1",
+        offset: None,
+        temperature: TemperatureRole::Difference,
+        prefixable: false,
+        source: SI_BROCHURE_DERIVED,
+        note: "temperature difference",
+    },
+    UnitDefinition {
+        symbols: &["delta_degF"],
+        name: "degree Fahrenheit (difference)",
+        dimension: TEMPERATURE,
+        factor: "5/9",
+        offset: None,
+        temperature: TemperatureRole::Difference,
+        prefixable: false,
+        source: NIST_811,
+        note: "temperature difference",
+    },
+    // Viscosity
+    unit(&["P"], "poise", DYNAMIC_VISCOSITY, "0.1", true, NIST_811, "exact; cP = mPa s"),
+    unit(&["St"], "stokes", KINEMATIC_VISCOSITY, "0.0001", true, NIST_811, "exact"),
+    // Permeability
+    unit(
+        &["darcy", "D"],
+        "darcy",
+        AREA,
+        "1e-12/1.01325",
+        true,
+        NIST_811,
+        "1 cP x (1 cm/s) / (1 atm/cm), exact; SP 811 prints 9.869233E-13 m^2",
+    ),
+    // Amount, electricity
+    unit(&["mol"], "mole", AMOUNT, "1", true, SI_BROCHURE_BASE, ""),
+    unit(&["A"], "ampere", CURRENT, "1", true, SI_BROCHURE_BASE, ""),
+    unit(&["C"], "coulomb", CHARGE, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(&["V"], "volt", VOLTAGE, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(&["ohm", "Ω"], "ohm", RESISTANCE, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(&["S"], "siemens", CONDUCTANCE, "1", true, SI_BROCHURE_DERIVED, ""),
+    // Ratios and angles
+    unit(&["%"], "percent", NONE, "0.01", false, COMMON_PRACTICE, "exact"),
+    unit(&["ppm"], "part per million", NONE, "0.000001", false, COMMON_PRACTICE, "by mass or volume as the data say"),
+    unit(&["ppb"], "part per billion", NONE, "0.000000001", false, COMMON_PRACTICE, ""),
+    unit(&["rad"], "radian", NONE, "1", false, SI_BROCHURE_DERIVED, ""),
+    unit(&["deg", "°"], "degree (angle)", NONE, "pi/180", false, SI_BROCHURE_ACCEPTED, "pi/180, not a decimal"),
+];
+
+/// SI prefixes, longest symbols first where two share a first letter (`da` before `d`).
+pub const PREFIXES: &[Prefix] = &[
+    Prefix { symbols: &["Q"], factor: "1e30" },
+    Prefix { symbols: &["R"], factor: "1e27" },
+    Prefix { symbols: &["Y"], factor: "1e24" },
+    Prefix { symbols: &["Z"], factor: "1e21" },
+    Prefix { symbols: &["E"], factor: "1e18" },
+    Prefix { symbols: &["P"], factor: "1e15" },
+    Prefix { symbols: &["T"], factor: "1e12" },
+    Prefix { symbols: &["G"], factor: "1e9" },
+    Prefix { symbols: &["M"], factor: "1e6" },
+    Prefix { symbols: &["k"], factor: "1e3" },
+    Prefix { symbols: &["h"], factor: "1e2" },
+    Prefix { symbols: &["da"], factor: "1e1" },
+    Prefix { symbols: &["d"], factor: "1e-1" },
+    Prefix { symbols: &["c"], factor: "1e-2" },
+    Prefix { symbols: &["m"], factor: "1e-3" },
+    Prefix { symbols: &["u", "µ", "μ"], factor: "1e-6" },
+    Prefix { symbols: &["n"], factor: "1e-9" },
+    Prefix { symbols: &["p"], factor: "1e-12" },
+    Prefix { symbols: &["f"], factor: "1e-15" },
+    Prefix { symbols: &["a"], factor: "1e-18" },
+    Prefix { symbols: &["z"], factor: "1e-21" },
+    Prefix { symbols: &["y"], factor: "1e-24" },
+];

@@ -1,0 +1,227 @@
+//! Physical dimensions as rational powers of the seven SI base quantities.
+//!
+//! Exponents are rationals so that `sqrt` of an area is a length and `sqrt` of a length is
+//! L^(1/2) instead of an error or a silent truncation. All arithmetic on exponents is checked:
+//! an overflow is an error value, never a panic.
+
+use num_rational::Ratio;
+use num_traits::{CheckedAdd, CheckedMul, CheckedSub};
+use std::fmt;
+
+/// A rational exponent of a base dimension.
+pub type Exponent = Ratio<i32>;
+
+/// The seven SI base quantities, in the SI Brochure's order.
+pub const BASE_SYMBOLS: [&str; 7] = ["L", "M", "T", "I", "Θ", "N", "J"];
+/// The SI base unit of each base quantity, used to spell SI units (`m s^-1`).
+pub const BASE_UNITS: [&str; 7] = ["m", "kg", "s", "A", "K", "mol", "cd"];
+
+/// Largest numerator or denominator an exponent may reach; keeps arithmetic far from overflow.
+const EXPONENT_LIMIT: i32 = 1_000;
+
+/// A dimension: the exponent of each base quantity.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub struct Dimension {
+    exponents: [Exponent; 7],
+}
+
+/// An exponent left the supported range (numerator or denominator above 1000).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct ExponentOverflow;
+
+impl Dimension {
+    pub const fn dimensionless() -> Self {
+        Dimension { exponents: [Ratio::new_raw(0, 1); 7] }
+    }
+
+    /// A dimension from integer exponents in base order L M T I Θ N J.
+    pub const fn from_integers(powers: [i32; 7]) -> Self {
+        let mut exponents = [Ratio::new_raw(0, 1); 7];
+        let mut index = 0;
+        while index < 7 {
+            exponents[index] = Ratio::new_raw(powers[index], 1);
+            index += 1;
+        }
+        Dimension { exponents }
+    }
+
+    pub const LENGTH: Dimension = Dimension::from_integers([1, 0, 0, 0, 0, 0, 0]);
+    pub const MASS: Dimension = Dimension::from_integers([0, 1, 0, 0, 0, 0, 0]);
+    pub const TIME: Dimension = Dimension::from_integers([0, 0, 1, 0, 0, 0, 0]);
+    pub const TEMPERATURE: Dimension = Dimension::from_integers([0, 0, 0, 0, 1, 0, 0]);
+
+    pub fn exponents(&self) -> &[Exponent; 7] {
+        &self.exponents
+    }
+
+    pub fn is_dimensionless(&self) -> bool {
+        self.exponents.iter().all(|exponent| *exponent == Ratio::from_integer(0))
+    }
+
+    pub fn is_temperature(&self) -> bool {
+        *self == Dimension::TEMPERATURE
+    }
+
+    pub fn multiply(&self, other: &Dimension) -> Result<Dimension, ExponentOverflow> {
+        self.combine(other, |left, right| left.checked_add(&right))
+    }
+
+    pub fn divide(&self, other: &Dimension) -> Result<Dimension, ExponentOverflow> {
+        self.combine(other, |left, right| left.checked_sub(&right))
+    }
+
+    pub fn power(&self, exponent: Exponent) -> Result<Dimension, ExponentOverflow> {
+        let mut exponents = self.exponents;
+        for slot in exponents.iter_mut() {
+            *slot = checked(slot.checked_mul(&exponent))?;
+        }
+        Ok(Dimension { exponents })
+    }
+
+    fn combine(
+        &self,
+        other: &Dimension,
+        operation: impl Fn(Exponent, Exponent) -> Option<Exponent>,
+    ) -> Result<Dimension, ExponentOverflow> {
+        let mut exponents = self.exponents;
+        for (slot, right) in exponents.iter_mut().zip(other.exponents.iter()) {
+            *slot = checked(operation(*slot, *right))?;
+        }
+        Ok(Dimension { exponents })
+    }
+
+    /// The SI coherent unit of this dimension spelled with base units, e.g. `kg m^-1 s^-2`.
+    pub fn si_unit_text(&self) -> String {
+        self.spell(&BASE_UNITS, "1")
+    }
+
+    fn spell(&self, symbols: &[&str; 7], empty: &str) -> String {
+        let mut parts = Vec::new();
+        for (symbol, exponent) in symbols.iter().zip(self.exponents.iter()) {
+            if *exponent == Ratio::from_integer(0) {
+                continue;
+            }
+            if *exponent == Ratio::from_integer(1) {
+                parts.push(symbol.to_string());
+            } else if exponent.is_integer() {
+                parts.push(format!("{symbol}^{}", exponent.numer()));
+            } else {
+                parts.push(format!("{symbol}^({}/{})", exponent.numer(), exponent.denom()));
+            }
+        }
+        if parts.is_empty() {
+            empty.to_string()
+        } else {
+            parts.join(" ")
+        }
+    }
+
+    /// A trade name for common dimensions (`velocity`, `pressure`), used in error messages.
+    pub fn quantity_name(&self) -> Option<&'static str> {
+        NAMED_DIMENSIONS
+            .iter()
+            .find(|(powers, _)| Dimension::from_integers(*powers) == *self)
+            .map(|(_, name)| *name)
+    }
+
+    /// Parses a dimension written as a trade name (`length`) or base symbols (`L T^-1`).
+    pub fn from_name(text: &str) -> Option<Dimension> {
+        let wanted = text.trim().to_lowercase().replace(['_', '-'], " ");
+        NAMED_DIMENSIONS
+            .iter()
+            .find(|(_, name)| *name == wanted)
+            .map(|(powers, _)| Dimension::from_integers(*powers))
+    }
+}
+
+fn checked(exponent: Option<Exponent>) -> Result<Exponent, ExponentOverflow> {
+    match exponent {
+        Some(value) if value.numer().abs() <= EXPONENT_LIMIT && *value.denom() <= EXPONENT_LIMIT => {
+            Ok(value)
+        }
+        _ => Err(ExponentOverflow),
+    }
+}
+
+/// Names engineers use for dimensions, base order L M T I Θ N J. Where two quantities share a
+/// dimension (kinematic viscosity, diffusivity and transmissivity are all L^2 T^-1), the name
+/// says so rather than guessing which one is meant.
+const NAMED_DIMENSIONS: &[([i32; 7], &str)] = &[
+    ([0, 0, 0, 0, 0, 0, 0], "dimensionless"),
+    ([1, 0, 0, 0, 0, 0, 0], "length"),
+    ([2, 0, 0, 0, 0, 0, 0], "area"),
+    ([3, 0, 0, 0, 0, 0, 0], "volume"),
+    ([0, 1, 0, 0, 0, 0, 0], "mass"),
+    ([0, 0, 1, 0, 0, 0, 0], "time"),
+    ([0, 0, -1, 0, 0, 0, 0], "frequency"),
+    ([0, 0, 0, 1, 0, 0, 0], "electric current"),
+    ([0, 0, 0, 0, 1, 0, 0], "temperature"),
+    ([0, 0, 0, 0, 0, 1, 0], "amount of substance"),
+    ([0, 0, 0, 0, 0, 0, 1], "luminous intensity"),
+    ([1, 0, -1, 0, 0, 0, 0], "velocity"),
+    ([1, 0, -2, 0, 0, 0, 0], "acceleration"),
+    ([3, 0, -1, 0, 0, 0, 0], "volume flow rate"),
+    ([2, 0, -1, 0, 0, 0, 0], "area per time"),
+    ([-3, 1, 0, 0, 0, 0, 0], "density"),
+    ([1, 1, -2, 0, 0, 0, 0], "force"),
+    ([-1, 1, -2, 0, 0, 0, 0], "pressure"),
+    ([-2, 1, -2, 0, 0, 0, 0], "pressure gradient"),
+    ([2, 1, -2, 0, 0, 0, 0], "energy"),
+    ([2, 1, -3, 0, 0, 0, 0], "power"),
+    ([0, 1, -3, 0, 0, 0, 0], "heat flux"),
+    ([-1, 1, -1, 0, 0, 0, 0], "dynamic viscosity"),
+    ([1, 1, -3, 0, -1, 0, 0], "thermal conductivity"),
+    ([2, 0, -2, 0, -1, 0, 0], "specific heat capacity"),
+    ([0, 0, 1, 1, 0, 0, 0], "electric charge"),
+    ([2, 1, -3, -1, 0, 0, 0], "voltage"),
+    ([2, 1, -3, -2, 0, 0, 0], "electrical resistance"),
+    ([-2, -1, 3, 2, 0, 0, 0], "electrical conductance"),
+    ([3, 1, -3, -2, 0, 0, 0], "electrical resistivity"),
+    ([-3, -1, 3, 2, 0, 0, 0], "electrical conductivity"),
+    ([-2, 0, 0, 1, 0, 0, 0], "current density"),
+    ([-3, 0, 0, 0, 0, 1, 0], "concentration"),
+    ([-2, 0, -1, 0, 0, 1, 0], "molar flux"),
+    ([-2, 1, -1, 0, 0, 0, 0], "mass flux"),
+    ([0, 1, -1, 0, 0, 0, 0], "mass flow rate"),
+    ([-1, 0, 0, 0, 1, 0, 0], "temperature gradient"),
+];
+
+impl fmt::Display for Dimension {
+    /// Base symbols with exponents, e.g. `L T^-1`; `1` for a dimensionless quantity.
+    fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
+        formatter.write_str(&self.spell(&BASE_SYMBOLS, "1"))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn square_root_of_length_has_half_exponent() {
+        let root = Dimension::LENGTH.power(Ratio::new(1, 2)).unwrap();
+        assert_eq!(root.to_string(), "L^(1/2)");
+        assert_eq!(root.multiply(&root).unwrap(), Dimension::LENGTH);
+    }
+
+    #[test]
+    fn velocity_spells_with_base_symbols_and_units() {
+        let velocity = Dimension::LENGTH.divide(&Dimension::TIME).unwrap();
+        assert_eq!(velocity.to_string(), "L T^-1");
+        assert_eq!(velocity.si_unit_text(), "m s^-1");
+        assert_eq!(velocity.quantity_name(), Some("velocity"));
+    }
+
+    #[test]
+    fn exponent_overflow_is_an_error() {
+        let big = Dimension::LENGTH.power(Ratio::from_integer(999)).unwrap();
+        assert_eq!(big.power(Ratio::from_integer(999)), Err(ExponentOverflow));
+    }
+
+    #[test]
+    fn dimension_names_parse() {
+        assert_eq!(Dimension::from_name("Length"), Some(Dimension::LENGTH));
+        assert_eq!(Dimension::from_name("dynamic_viscosity").map(|d| d.to_string()).as_deref(), Some("L^-1 M T^-1"));
+        assert_eq!(Dimension::from_name("nonsense"), None);
+    }
+}

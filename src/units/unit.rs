@@ -1,0 +1,227 @@
+//! A resolved unit: dimension, exact factor, and, for a lone absolute temperature scale, its
+//! offset. Units are built from catalog symbols with `lookup` and combined with `multiply`,
+//! `divide` and `power`; any combination drops the offset, so inside a compound unit a degree
+//! is a temperature difference (`W/(m*degC)`), as the trade writes it.
+
+use super::catalog::{TemperatureRole, UnitDefinition, PREFIXES, UNITS};
+use super::dimension::{Dimension, Exponent, ExponentOverflow};
+use super::factor::Factor;
+use std::collections::HashMap;
+use std::sync::OnceLock;
+
+/// A unit ready for conversion.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Unit {
+    pub dimension: Dimension,
+    pub factor: Factor,
+    /// Only for a lone absolute temperature scale: value_SI = (x + offset) × factor.
+    pub offset: Option<Factor>,
+    /// Set for lone temperature units to tell absolute scales from differences.
+    pub temperature: TemperatureRole,
+}
+
+/// Why a unit could not be built.
+#[derive(Debug, Clone, PartialEq)]
+pub enum UnitError {
+    Unknown { symbol: String, suggestions: Vec<String> },
+    ExponentOverflow,
+}
+
+impl From<ExponentOverflow> for UnitError {
+    fn from(_: ExponentOverflow) -> Self {
+        UnitError::ExponentOverflow
+    }
+}
+
+/// A catalog row with its factor read once.
+#[derive(Debug)]
+pub struct CatalogEntry {
+    pub definition: &'static UnitDefinition,
+    pub unit: Unit,
+}
+
+struct Catalog {
+    by_symbol: HashMap<&'static str, usize>,
+    entries: Vec<CatalogEntry>,
+    prefixes: Vec<(&'static str, Factor)>,
+}
+
+/// The catalog, read from the `UNITS` table on first use.
+fn catalog() -> &'static Catalog {
+    static CATALOG: OnceLock<Catalog> = OnceLock::new();
+    CATALOG.get_or_init(|| {
+        let mut entries = Vec::with_capacity(UNITS.len());
+        let mut by_symbol = HashMap::new();
+        for definition in UNITS {
+            // The table is ours; a factor it cannot read is a bug caught by the catalog test.
+            let factor = Factor::from_definition(definition.factor).unwrap_or(Factor::from_f64(f64::NAN));
+            let offset = definition
+                .offset
+                .map(|text| Factor::from_definition(text).unwrap_or(Factor::from_f64(0.0)));
+            let unit = Unit {
+                dimension: Dimension::from_integers(definition.dimension),
+                factor,
+                offset: offset.filter(|_| definition.offset != Some("0")),
+                temperature: definition.temperature,
+            };
+            for symbol in definition.symbols {
+                by_symbol.insert(*symbol, entries.len());
+            }
+            entries.push(CatalogEntry { definition, unit });
+        }
+        let prefixes = PREFIXES
+            .iter()
+            .flat_map(|prefix| {
+                let factor = Factor::from_definition(prefix.factor).unwrap_or(Factor::ONE);
+                prefix.symbols.iter().map(move |symbol| (*symbol, factor))
+            })
+            .collect();
+        Catalog { by_symbol, entries, prefixes }
+    })
+}
+
+/// All catalog rows, in table order.
+pub fn catalog_entries() -> &'static [CatalogEntry] {
+    &catalog().entries
+}
+
+/// The SI prefixes with their factors.
+pub fn prefixes() -> &'static [(&'static str, Factor)] {
+    &catalog().prefixes
+}
+
+impl Unit {
+    pub fn dimensionless() -> Unit {
+        Unit {
+            dimension: Dimension::dimensionless(),
+            factor: Factor::ONE,
+            offset: None,
+            temperature: TemperatureRole::None,
+        }
+    }
+
+    /// A symbol from the catalog, optionally behind an SI prefix (`kPa`, `µS`, `mD`).
+    pub fn lookup(symbol: &str) -> Result<Unit, UnitError> {
+        let catalog = catalog();
+        if let Some(index) = catalog.by_symbol.get(symbol) {
+            return Ok(catalog.entries[*index].unit.clone());
+        }
+        for (prefix, prefix_factor) in &catalog.prefixes {
+            let Some(rest) = symbol.strip_prefix(prefix) else { continue };
+            let Some(index) = catalog.by_symbol.get(rest) else { continue };
+            let entry = &catalog.entries[*index];
+            if entry.definition.prefixable {
+                return Ok(Unit {
+                    dimension: entry.unit.dimension,
+                    factor: prefix_factor.multiply(&entry.unit.factor),
+                    offset: None,
+                    temperature: entry.unit.temperature,
+                });
+            }
+        }
+        Err(UnitError::Unknown { symbol: symbol.to_string(), suggestions: suggest_symbols(symbol) })
+    }
+
+    pub fn multiply(&self, other: &Unit) -> Result<Unit, UnitError> {
+        Ok(Unit::compound(self.dimension.multiply(&other.dimension)?, self.factor.multiply(&other.factor)))
+    }
+
+    pub fn divide(&self, other: &Unit) -> Result<Unit, UnitError> {
+        Ok(Unit::compound(self.dimension.divide(&other.dimension)?, self.factor.divide(&other.factor)))
+    }
+
+    pub fn power(&self, exponent: Exponent) -> Result<Unit, UnitError> {
+        Ok(Unit::compound(
+            self.dimension.power(exponent)?,
+            self.factor.power(*exponent.numer(), *exponent.denom()),
+        ))
+    }
+
+    /// A product, quotient or power: no offset, and a degree in it means a difference.
+    fn compound(dimension: Dimension, factor: Factor) -> Unit {
+        Unit { dimension, factor, offset: None, temperature: TemperatureRole::None }
+    }
+
+    pub fn is_absolute_temperature(&self) -> bool {
+        self.temperature == TemperatureRole::Absolute
+    }
+
+    /// Converts a value in this unit to SI. The literal text, when given, is used for an exact
+    /// decimal product.
+    pub fn to_si(&self, value: f64, literal: Option<&str>) -> f64 {
+        match &self.offset {
+            Some(offset) => (value + offset.value()) * self.factor.value(),
+            None => literal
+                .and_then(|text| self.factor.apply_exact(text))
+                .unwrap_or(value * self.factor.value()),
+        }
+    }
+
+    /// Converts an SI value to this unit.
+    pub fn from_si(&self, si_value: f64) -> f64 {
+        let scaled = si_value / self.factor.value();
+        match &self.offset {
+            Some(offset) => scaled - offset.value(),
+            None => scaled,
+        }
+    }
+}
+
+/// Up to three catalog spellings closest to an unknown symbol.
+pub fn suggest_symbols(symbol: &str) -> Vec<String> {
+    let mut scored: Vec<(f64, &str)> = catalog()
+        .by_symbol
+        .keys()
+        .map(|candidate| (strsim::jaro_winkler(symbol, candidate), *candidate))
+        .filter(|(score, _)| *score > 0.7)
+        .collect();
+    scored.sort_by(|left, right| right.0.total_cmp(&left.0).then(left.1.cmp(right.1)));
+    scored.into_iter().take(3).map(|(_, candidate)| candidate.to_string()).collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn si(symbol: &str) -> f64 {
+        Unit::lookup(symbol).expect(symbol).factor.value()
+    }
+
+    #[test]
+    fn every_catalog_factor_reads() {
+        for entry in catalog_entries() {
+            assert!(entry.unit.factor.value().is_finite(), "{:?}", entry.definition.symbols);
+            assert!(Factor::from_definition(entry.definition.factor).is_ok());
+        }
+    }
+
+    #[test]
+    fn prefixes_apply_only_to_metric_units() {
+        assert_eq!(si("kPa"), 1000.0);
+        // 1/1.01325 = 0.986923266716012830002467… (long division); the exact decimal rounds once.
+        assert_eq!(si("mD"), "9.8692326671601283e-16".parse::<f64>().unwrap());
+        assert_eq!(si("µS"), 1e-6);
+        assert_eq!(si("uS"), 1e-6);
+        assert_eq!(si("kg"), 1.0);
+        assert_eq!(si("cP"), 0.001);
+        assert!(Unit::lookup("kft").is_err());
+    }
+
+    #[test]
+    fn unknown_unit_suggests_close_symbols() {
+        match Unit::lookup("psia") {
+            Err(UnitError::Unknown { suggestions, .. }) => assert!(suggestions.contains(&"psi".to_string())),
+            other => panic!("{other:?}"),
+        }
+    }
+
+    #[test]
+    fn degree_celsius_alone_is_affine() {
+        let celsius = Unit::lookup("degC").unwrap();
+        assert_eq!(celsius.to_si(20.0, None), 293.15);
+        assert!((celsius.from_si(300.0) - 26.85).abs() < 1e-12);
+        let per_degree = Unit::lookup("W").unwrap().divide(&celsius).unwrap();
+        assert_eq!(per_degree.offset, None);
+        assert_eq!(per_degree.factor.value(), 1.0);
+    }
+}
