@@ -6,3 +6,7 @@
 
 pub mod syntax;
 pub mod units;
+pub mod eval;
+pub mod library;
+pub mod render;
+pub mod cli;

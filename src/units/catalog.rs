@@ -48,6 +48,7 @@ const SI_BROCHURE_ACCEPTED: &str = "SI Brochure 9th ed. (2019), Table 8";
 const NIST_811: &str = "NIST SP 811 (2008), Appendix B.8";
 const NIST_811_CONVENTIONAL: &str = "NIST SP 811 (2008), Appendix B.8 (conventional)";
 const COMMON_PRACTICE: &str = "common practice";
+const JULIAN_YEAR: &str = "IAU Julian year (365.25 d); SI Brochure 9th ed. (2019), Table 8 note";
 
 const L: [i32; 7] = [1, 0, 0, 0, 0, 0, 0];
 const AREA: [i32; 7] = [2, 0, 0, 0, 0, 0, 0];
@@ -116,7 +117,7 @@ pub const UNITS: &[UnitDefinition] = &[
     unit(&["h"], "hour", TIME, "3600", false, SI_BROCHURE_ACCEPTED, "exact"),
     unit(&["d"], "day", TIME, "86400", false, SI_BROCHURE_ACCEPTED, "exact"),
     unit(&["wk"], "week", TIME, "604800", false, NIST_811, "7 d, exact"),
-    unit(&["yr"], "year (Julian)", TIME, "31557600", false, NIST_811, "365.25 d, exact"),
+    unit(&["yr"], "year (Julian, 365.25 d)", TIME, "31557600", false, JULIAN_YEAR, "365.25 d = 31 557 600 s, exact"),
     unit(&["Hz"], "hertz", FREQUENCY, "1", true, SI_BROCHURE_DERIVED, ""),
     // Mass
     unit(&["g"], "gram", MASS, "0.001", true, SI_BROCHURE_BASE, "kg is k + g"),

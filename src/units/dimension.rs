@@ -116,6 +116,18 @@ impl Dimension {
         }
     }
 
+    /// The SI unit engineers would write for this dimension (`Pa`, `m/s`, `W/(m*K)`), falling back
+    /// to base units joined by `*` (`kg*m^-1*s^-3`) when no usual spelling exists.
+    pub fn preferred_si_unit(&self) -> String {
+        if let Some((_, unit)) = PREFERRED_SI_UNITS
+            .iter()
+            .find(|(powers, _)| Dimension::from_integers(*powers) == *self)
+        {
+            return unit.to_string();
+        }
+        self.spell(&BASE_UNITS, "1").replace(' ', "*")
+    }
+
     /// A trade name for common dimensions (`velocity`, `pressure`), used in error messages.
     pub fn quantity_name(&self) -> Option<&'static str> {
         NAMED_DIMENSIONS
@@ -184,6 +196,51 @@ const NAMED_DIMENSIONS: &[([i32; 7], &str)] = &[
     ([-2, 1, -1, 0, 0, 0, 0], "mass flux"),
     ([0, 1, -1, 0, 0, 0, 0], "mass flow rate"),
     ([-1, 0, 0, 0, 1, 0, 0], "temperature gradient"),
+];
+
+/// Usual SI spellings, base order L M T I Θ N J.
+const PREFERRED_SI_UNITS: &[([i32; 7], &str)] = &[
+    ([0, 0, 0, 0, 0, 0, 0], "1"),
+    ([1, 0, 0, 0, 0, 0, 0], "m"),
+    ([2, 0, 0, 0, 0, 0, 0], "m^2"),
+    ([3, 0, 0, 0, 0, 0, 0], "m^3"),
+    ([0, 1, 0, 0, 0, 0, 0], "kg"),
+    ([0, 0, 1, 0, 0, 0, 0], "s"),
+    ([0, 0, -1, 0, 0, 0, 0], "1/s"),
+    ([0, 0, 0, 1, 0, 0, 0], "A"),
+    ([0, 0, 0, 0, 1, 0, 0], "K"),
+    ([0, 0, 0, 0, 0, 1, 0], "mol"),
+    ([1, 0, -1, 0, 0, 0, 0], "m/s"),
+    ([1, 0, -2, 0, 0, 0, 0], "m/s^2"),
+    ([3, 0, -1, 0, 0, 0, 0], "m^3/s"),
+    ([2, 0, -1, 0, 0, 0, 0], "m^2/s"),
+    ([-3, 1, 0, 0, 0, 0, 0], "kg/m^3"),
+    ([1, 1, -2, 0, 0, 0, 0], "N"),
+    ([-1, 1, -2, 0, 0, 0, 0], "Pa"),
+    ([-2, 1, -2, 0, 0, 0, 0], "Pa/m"),
+    ([2, 1, -2, 0, 0, 0, 0], "J"),
+    ([2, 1, -3, 0, 0, 0, 0], "W"),
+    ([0, 1, -3, 0, 0, 0, 0], "W/m^2"),
+    ([-1, 1, -1, 0, 0, 0, 0], "Pa*s"),
+    ([1, 1, -3, 0, -1, 0, 0], "W/(m*K)"),
+    ([2, 0, -2, 0, -1, 0, 0], "J/(kg*K)"),
+    ([0, 0, 1, 1, 0, 0, 0], "C"),
+    ([2, 1, -3, -1, 0, 0, 0], "V"),
+    ([2, 1, -3, -2, 0, 0, 0], "ohm"),
+    ([-2, -1, 3, 2, 0, 0, 0], "S"),
+    ([3, 1, -3, -2, 0, 0, 0], "ohm*m"),
+    ([-3, -1, 3, 2, 0, 0, 0], "S/m"),
+    ([-2, 0, 0, 1, 0, 0, 0], "A/m^2"),
+    ([-3, 0, 0, 0, 0, 1, 0], "mol/m^3"),
+    ([-2, 0, -1, 0, 0, 1, 0], "mol/(m^2*s)"),
+    ([-2, 1, -1, 0, 0, 0, 0], "kg/(m^2*s)"),
+    ([0, 1, -1, 0, 0, 0, 0], "kg/s"),
+    ([-1, 0, 0, 0, 1, 0, 0], "K/m"),
+    ([-1, 0, 0, 0, 0, 0, 0], "1/m"),
+    ([1, 0, 0, -1, 0, 0, 0], "m/A"),
+    ([2, 1, -2, 0, -1, 0, 0], "J/K"),
+    ([2, 1, -2, 0, -1, -1, 0], "J/(mol*K)"),
+    ([0, 0, 1, 1, 0, -1, 0], "C/mol"),
 ];
 
 impl fmt::Display for Dimension {

@@ -1,0 +1,378 @@
+//! The command-line front door: argument definitions (clap), and the commands `run`, `eval`,
+//! `units` and `functions`. This and `main.rs` are the only code that reads files or writes to
+//! the terminal; everything else is handed writers.
+
+use crate::eval::{evaluate_sheet, Evaluation, LineResult};
+use crate::library::Builtins;
+use crate::render::json::{diagnostics_json, sheet_json, value_json, DiagnosticJson};
+use crate::render::{self, Format, RenderOptions};
+use crate::units::unit::{catalog_entries, prefixes};
+use crate::units::Dimension;
+use clap::{Args, Parser, Subcommand, ValueEnum};
+use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
+use std::io::{self, IsTerminal, Read, Write};
+use std::path::Path;
+
+/// Exit codes, as documented in the README.
+pub mod exit {
+    pub const OK: u8 = 0;
+    pub const CHECK_FAILED: u8 = 1;
+    pub const USAGE: u8 = 2;
+    pub const SHEET_ERROR: u8 = 3;
+}
+
+#[derive(Parser, Debug)]
+#[command(
+    name = "fluxsheet",
+    version,
+    about = "Calculation sheets with units for Darcy, Fick, Fourier and Ohm transport in porous media",
+    long_about = "Evaluates plain-text calculation sheets (.fxs): named lines with units, full dimensional \
+analysis and exact unit conversion, printed as a table.\n\nExit codes: 0 all good, 1 a check line failed, \
+2 bad command line, 3 the sheet has errors or a file cannot be read.",
+    after_help = "Examples:\n  fluxsheet run worksheets/core_permeability.fxs\n  fluxsheet eval '250 mD * 1000 kg/m^3 * g0 / 1 cP [m/s]'\n  fluxsheet units pressure"
+)]
+pub struct CommandLine {
+    #[command(flatten)]
+    pub output: OutputArgs,
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+#[derive(Args, Debug, Clone, Copy)]
+pub struct OutputArgs {
+    /// Output format
+    #[arg(long, value_enum, default_value_t = FormatArg::Table, global = true)]
+    pub format: FormatArg,
+    /// Significant figures of displayed values (1 to 17)
+    #[arg(long, default_value_t = 4, global = true, value_parser = clap::value_parser!(u32).range(1..=17))]
+    pub digits: u32,
+}
+
+#[derive(ValueEnum, Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FormatArg {
+    Table,
+    Markdown,
+    Csv,
+    Json,
+}
+
+#[derive(Subcommand, Debug)]
+pub enum Command {
+    /// Evaluate sheets and print the table of their lines
+    #[command(after_help = "Examples:\n  fluxsheet run worksheets/core_permeability.fxs\n  fluxsheet run --format json a.fxs b.fxs\n  cat site.fxs | fluxsheet run -")]
+    Run {
+        /// Sheet files (`-` reads standard input)
+        #[arg(required = true)]
+        files: Vec<String>,
+    },
+    /// Evaluate one expression or line and print its value and unit
+    #[command(after_help = "Examples:\n  fluxsheet eval '1 acre*ft [m^3]' --digits 15\n  fluxsheet eval 'sqrt(4 m^2)'\n  fluxsheet eval '300 K [degC]'")]
+    Eval {
+        /// The expression, optionally followed by `[unit]`, or a line `name = expression`
+        expression: String,
+    },
+    /// List the unit catalog: symbols, dimensions, exact factors and sources
+    #[command(after_help = "Examples:\n  fluxsheet units\n  fluxsheet units pressure\n  fluxsheet units darcy")]
+    Units {
+        /// Show only units whose symbol or name contains this text, or of this dimension (`length`)
+        filter: Option<String>,
+    },
+    /// List built-in functions and constants
+    #[command(after_help = "Examples:\n  fluxsheet functions\n  fluxsheet functions sqrt")]
+    Functions {
+        /// Show only entries whose name contains this text
+        filter: Option<String>,
+    },
+}
+
+impl OutputArgs {
+    fn options(&self) -> RenderOptions {
+        let format = match self.format {
+            FormatArg::Table => Format::Table,
+            FormatArg::Markdown => Format::Markdown,
+            FormatArg::Csv => Format::Csv,
+            FormatArg::Json => Format::Json,
+        };
+        RenderOptions { format, digits: self.digits }
+    }
+}
+
+/// Runs a parsed command line and returns the process exit code.
+pub fn run(command_line: CommandLine) -> u8 {
+    let options = command_line.output.options();
+    let stdout = io::stdout();
+    let mut out = stdout.lock();
+    let result = match &command_line.command {
+        Command::Run { files } => run_files(&mut out, files, options),
+        Command::Eval { expression } => eval_expression(&mut out, expression, options),
+        Command::Units { filter } => list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK),
+        Command::Functions { filter } => list_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK),
+    };
+    match result.and_then(|code| out.flush().map(|_| code)) {
+        Ok(code) => code,
+        // A closed pipe (`| head`) is not a failure of ours.
+        Err(error) if error.kind() == io::ErrorKind::BrokenPipe => exit::OK,
+        Err(error) => {
+            eprintln!("error: cannot write output: {error}");
+            exit::SHEET_ERROR
+        }
+    }
+}
+
+fn stderr_stream() -> StandardStream {
+    let color = if io::stderr().is_terminal() && std::env::var_os("NO_COLOR").is_none() {
+        ColorChoice::Auto
+    } else {
+        ColorChoice::Never
+    };
+    StandardStream::stderr(color)
+}
+
+/// A sheet's text and the name to show for it.
+struct SheetSource {
+    label: String,
+    text: String,
+}
+
+fn read_sheet(file: &str) -> Result<SheetSource, String> {
+    if file == "-" {
+        let mut text = String::new();
+        io::stdin().read_to_string(&mut text).map_err(|error| format!("cannot read standard input: {error}"))?;
+        return Ok(SheetSource { label: "<stdin>".to_string(), text });
+    }
+    let bytes = std::fs::read(Path::new(file)).map_err(|error| format!("cannot read `{file}`: {error}"))?;
+    let text = String::from_utf8(bytes).map_err(|_| format!("cannot read `{file}`: it is not UTF-8 text"))?;
+    Ok(SheetSource { label: file.to_string(), text })
+}
+
+fn exit_code_for(evaluation: &Evaluation) -> u8 {
+    if evaluation.has_errors() {
+        exit::SHEET_ERROR
+    } else if evaluation.failed_checks() > 0 {
+        exit::CHECK_FAILED
+    } else {
+        exit::OK
+    }
+}
+
+fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> io::Result<u8> {
+    let library = Builtins::standard();
+    let mut worst = exit::OK;
+    let mut json_sheets = Vec::new();
+    for (index, file) in files.iter().enumerate() {
+        let source = match read_sheet(file) {
+            Ok(source) => source,
+            Err(message) => {
+                worst = exit::SHEET_ERROR;
+                if options.format == Format::Json {
+                    json_sheets.push(serde_json::json!({ "file": file, "diagnostics": [unreadable_json(file, &message)] }));
+                } else {
+                    eprintln!("error: {message}");
+                }
+                continue;
+            }
+        };
+        let evaluation = evaluate_sheet(&source.text, library);
+        worst = worst.max(exit_code_for(&evaluation));
+        if options.format == Format::Json {
+            let sheet = sheet_json(Some(&source.label), &source.text, &evaluation);
+            json_sheets.push(serde_json::to_value(sheet).map_err(io::Error::other)?);
+            continue;
+        }
+        if files.len() > 1 {
+            if index > 0 {
+                writeln!(out)?;
+            }
+            writeln!(out, "{}", source.label)?;
+        }
+        render::table::write_sheet(out, &evaluation, options)?;
+        if !evaluation.diagnostics.is_empty() {
+            out.flush()?;
+            render::write_diagnostics(&mut stderr_stream(), &source.label, &source.text, &evaluation.diagnostics)?;
+        }
+    }
+    if options.format == Format::Json {
+        let document = if json_sheets.len() == 1 {
+            json_sheets.remove(0)
+        } else {
+            serde_json::Value::Array(json_sheets)
+        };
+        writeln!(out, "{}", serde_json::to_string_pretty(&document).map_err(io::Error::other)?)?;
+    }
+    Ok(worst)
+}
+
+fn unreadable_json(file: &str, message: &str) -> DiagnosticJson {
+    DiagnosticJson {
+        severity: "error",
+        file: Some(file.to_string()),
+        line: 0,
+        column: 0,
+        end_line: 0,
+        end_column: 0,
+        message: message.to_string(),
+        help: None,
+    }
+}
+
+fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> io::Result<u8> {
+    let evaluation = evaluate_sheet(text, Builtins::standard());
+    let json = options.format == Format::Json;
+    if evaluation.has_errors() {
+        if json {
+            let diagnostics = diagnostics_json(None, text, &evaluation.diagnostics);
+            writeln!(out, "{}", serde_json::to_string_pretty(&serde_json::json!({ "diagnostics": diagnostics })).map_err(io::Error::other)?)?;
+        } else {
+            render::write_diagnostics(&mut stderr_stream(), "<expression>", text, &evaluation.diagnostics)?;
+        }
+        return Ok(exit::SHEET_ERROR);
+    }
+    let results: Vec<&LineResult> = evaluation
+        .lines
+        .iter()
+        .map(|line| &line.result)
+        .filter(|result| matches!(result, LineResult::Value(_) | LineResult::Check(_)))
+        .collect();
+    match results.last() {
+        Some(LineResult::Value(shown)) => {
+            if json {
+                writeln!(out, "{}", serde_json::to_string_pretty(&value_json(shown)).map_err(io::Error::other)?)?;
+            } else {
+                let value = render::format_significant(shown.value, options.digits);
+                match shown.unit.as_str() {
+                    "1" => writeln!(out, "{value}")?,
+                    unit => writeln!(out, "{value} {unit}")?,
+                }
+            }
+            Ok(exit::OK)
+        }
+        Some(LineResult::Check(_)) => {
+            render::table::write_sheet(out, &evaluation, options)?;
+            Ok(exit_code_for(&evaluation))
+        }
+        _ => {
+            eprintln!("error: nothing to evaluate: give an expression such as `2 ft [m]`");
+            Ok(exit::USAGE)
+        }
+    }
+}
+
+fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions) -> io::Result<()> {
+    let dimension_filter = filter.and_then(Dimension::from_name);
+    let text_filter = filter.map(str::to_lowercase);
+    let rows: Vec<[String; 6]> = catalog_entries()
+        .iter()
+        .filter(|entry| match (dimension_filter, &text_filter) {
+            (Some(dimension), _) => entry.unit.dimension == dimension,
+            (None, Some(text)) => {
+                entry.definition.name.to_lowercase().contains(text)
+                    || entry.definition.symbols.iter().any(|symbol| symbol.to_lowercase().contains(text))
+            }
+            (None, None) => true,
+        })
+        .map(|entry| {
+            let dimension = entry.unit.dimension;
+            let dimension_text = match dimension.quantity_name() {
+                Some(name) => format!("{name} ({dimension})"),
+                None => dimension.to_string(),
+            };
+            let mut factor = entry.unit.factor.describe();
+            if let Some(offset) = entry.definition.offset.filter(|offset| *offset != "0") {
+                factor = format!("(x + {offset}) * {factor}");
+            }
+            [
+                entry.definition.symbols.join(" "),
+                entry.definition.name.to_string(),
+                dimension_text,
+                format!("{factor} {}", dimension.si_unit_text()),
+                entry.definition.source.to_string(),
+                entry.definition.note.to_string(),
+            ]
+        })
+        .collect();
+    let header = ["symbol", "name", "dimension", "factor to SI", "source", "note"];
+    write_listing(out, &header, &rows, options)?;
+    if options.format == Format::Table && filter.is_none() {
+        let symbols: Vec<&str> = prefixes().iter().map(|(symbol, _)| *symbol).collect();
+        writeln!(out, "\nSI prefixes (on units marked in DEVELOPERS.md as prefixable): {}", symbols.join(" "))?;
+        writeln!(out, "A degree inside a compound unit (W/(m*degC)) is a temperature difference.")?;
+    }
+    Ok(())
+}
+
+fn list_functions(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions) -> io::Result<()> {
+    let library = Builtins::standard();
+    let keep = |name: &str| filter.is_none_or(|text| name.contains(text));
+    let mut rows: Vec<[String; 4]> = Vec::new();
+    for (name, builtin) in library.functions_sorted() {
+        if keep(name) {
+            let sources: Vec<String> = builtin
+                .formulations
+                .iter()
+                .map(|formulation| format!("{} [valid: {}]", formulation.citation, formulation.validity))
+                .collect();
+            rows.push([builtin.signature.to_string(), "function".to_string(), builtin.summary.to_string(), sources.join("; ")]);
+        }
+    }
+    for constant in library.constants_sorted() {
+        if keep(constant.name) {
+            let value = render::format_significant(constant.quantity.value, 12);
+            rows.push([
+                constant.name.to_string(),
+                format!("constant = {value} {}", constant.unit),
+                constant.summary.to_string(),
+                constant.source.to_string(),
+            ]);
+        }
+    }
+    write_listing(out, &["name", "kind", "summary", "source"], &rows, options)
+}
+
+/// A plain listing in any format.
+fn write_listing<const N: usize>(
+    out: &mut dyn Write,
+    header: &[&str; N],
+    rows: &[[String; N]],
+    options: RenderOptions,
+) -> io::Result<()> {
+    match options.format {
+        Format::Json => {
+            let objects: Vec<serde_json::Map<String, serde_json::Value>> = rows
+                .iter()
+                .map(|row| {
+                    header
+                        .iter()
+                        .zip(row.iter())
+                        .map(|(key, value)| (key.replace(' ', "_"), serde_json::Value::String(value.clone())))
+                        .collect()
+                })
+                .collect();
+            writeln!(out, "{}", serde_json::to_string_pretty(&objects).map_err(io::Error::other)?)
+        }
+        Format::Csv => {
+            let mut writer = csv::Writer::from_writer(out);
+            writer.write_record(header).map_err(io::Error::other)?;
+            for row in rows {
+                writer.write_record(row).map_err(io::Error::other)?;
+            }
+            writer.flush()
+        }
+        Format::Markdown => {
+            writeln!(out, "| {} |", header.join(" | "))?;
+            writeln!(out, "|{}", "---|".repeat(N))?;
+            for row in rows {
+                writeln!(out, "| {} |", row.iter().map(|cell| cell.replace('|', "\\|")).collect::<Vec<_>>().join(" | "))?;
+            }
+            Ok(())
+        }
+        Format::Table => {
+            let mut table = comfy_table::Table::new();
+            table.load_preset(comfy_table::presets::UTF8_FULL_CONDENSED);
+            table.set_header(header.to_vec());
+            for row in rows {
+                table.add_row(row.to_vec());
+            }
+            writeln!(out, "{table}")
+        }
+    }
+}

@@ -1,0 +1,732 @@
+//! Evaluation of a sheet: definitions in dependency order, then shown expressions and checks.
+//!
+//! Every independent error is collected; a line whose inputs failed is skipped quietly (its
+//! cause is already reported), and every other line still evaluates. Nothing here panics on
+//! user input or prints: the result is a value the front ends render.
+
+use super::diagnostic::Diagnostic;
+use super::error::{EvalError, EvalErrorKind, Operation};
+use super::function::{CallError, Library, Provenance};
+use super::order::dependency_order;
+use super::value::{Quantity, TemperatureKind};
+use crate::syntax::{
+    parse_sheet, BinaryOperator, Check, Comparison, Expression, ExpressionKind, Line, LineKind, Span,
+    UnitExpression, UnitExpressionKind,
+};
+use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
+use std::collections::HashMap;
+
+/// Relative tolerance of `==` and `!=` checks written without `within`.
+pub const DEFAULT_EQUALITY_TOLERANCE: f64 = 1e-9;
+
+/// Everything a run of a sheet produced.
+#[derive(Debug, Clone)]
+pub struct Evaluation {
+    pub lines: Vec<LineOutcome>,
+    pub diagnostics: Vec<Diagnostic>,
+    pub provenance: Provenance,
+}
+
+impl Evaluation {
+    pub fn has_errors(&self) -> bool {
+        self.diagnostics.iter().any(|diagnostic| diagnostic.severity == super::Severity::Error)
+    }
+
+    pub fn failed_checks(&self) -> usize {
+        self.lines
+            .iter()
+            .filter(|line| matches!(&line.result, LineResult::Check(check) if !check.passed))
+            .count()
+    }
+
+    /// The value of a named line, if it evaluated.
+    pub fn value_of(&self, name: &str) -> Option<&ShownValue> {
+        self.lines.iter().find_map(|line| match (&line.name, &line.result) {
+            (Some(line_name), LineResult::Value(value)) if line_name == name => Some(value),
+            _ => None,
+        })
+    }
+}
+
+/// One source line and what became of it.
+#[derive(Debug, Clone)]
+pub struct LineOutcome {
+    pub number: usize,
+    pub name: Option<String>,
+    /// The expression's source text (empty for headings and comments).
+    pub expression: String,
+    pub comment: Option<String>,
+    pub result: LineResult,
+}
+
+#[derive(Debug, Clone)]
+pub enum LineResult {
+    Blank,
+    Comment,
+    Heading(String),
+    Value(ShownValue),
+    Check(CheckOutcome),
+    /// The line has an error of its own (reported in the diagnostics).
+    Error,
+    /// Not evaluated because a line it needs has an error; names that line.
+    Skipped { because_of: String },
+}
+
+/// A value with the unit it is shown in.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ShownValue {
+    pub quantity: Quantity,
+    /// Display unit as written (`ft/d`), or the preferred SI unit.
+    pub unit: String,
+    /// The value in that unit.
+    pub value: f64,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct CheckOutcome {
+    pub passed: bool,
+    pub comparison: Comparison,
+    pub left: ShownValue,
+    pub right: ShownValue,
+    /// The tolerance as written (`1 %`), when given.
+    pub tolerance: Option<String>,
+    pub message: Option<String>,
+}
+
+/// Evaluates a sheet's source text.
+pub fn evaluate_sheet(source: &str, library: &dyn Library) -> Evaluation {
+    let parsed = parse_sheet(source);
+    let mut evaluator = Evaluator::new(source, &parsed.sheet.lines, library);
+    evaluator.diagnostics.extend(parsed.errors.iter().map(Diagnostic::from));
+    evaluator.run();
+    evaluator.finish()
+}
+
+/// The state of a definition during evaluation.
+#[derive(Debug, Clone)]
+enum Slot {
+    Pending,
+    Ready(ShownValue),
+    /// Failed or skipped.
+    Failed,
+}
+
+/// Why an expression produced no value.
+enum Failure {
+    Error(EvalError),
+    /// A line it needs failed; that line's name.
+    Upstream(String),
+}
+
+impl From<EvalError> for Failure {
+    fn from(error: EvalError) -> Failure {
+        Failure::Error(error)
+    }
+}
+
+struct Evaluator<'a> {
+    source: &'a str,
+    lines: &'a [Line],
+    library: &'a dyn Library,
+    /// Name -> index into `lines` of its (first) definition.
+    definitions: HashMap<&'a str, usize>,
+    slots: Vec<Slot>,
+    results: Vec<Option<LineResult>>,
+    diagnostics: Vec<Diagnostic>,
+    provenance: Provenance,
+    unit_cache: HashMap<&'a str, Unit>,
+}
+
+impl<'a> Evaluator<'a> {
+    fn new(source: &'a str, lines: &'a [Line], library: &'a dyn Library) -> Evaluator<'a> {
+        Evaluator {
+            source,
+            lines,
+            library,
+            definitions: HashMap::new(),
+            slots: vec![Slot::Pending; lines.len()],
+            results: vec![None; lines.len()],
+            diagnostics: Vec::new(),
+            provenance: Provenance::default(),
+            unit_cache: HashMap::new(),
+        }
+    }
+
+    fn run(&mut self) {
+        self.collect_definitions();
+        let definition_lines: Vec<usize> = self.definitions.values().copied().collect::<Vec<_>>();
+        let mut definition_lines = definition_lines;
+        definition_lines.sort_unstable();
+        let node_of: HashMap<usize, usize> =
+            definition_lines.iter().enumerate().map(|(node, line)| (*line, node)).collect();
+        let dependencies: Vec<Vec<usize>> = definition_lines
+            .iter()
+            .map(|line_index| {
+                let mut needs = Vec::new();
+                if let LineKind::Definition(definition) = &self.lines[*line_index].kind {
+                    definition.expression.for_each_name(&mut |name, _| {
+                        if let Some(line) = self.definitions.get(name) {
+                            let node = node_of[line];
+                            if !needs.contains(&node) {
+                                needs.push(node);
+                            }
+                        }
+                    });
+                }
+                needs
+            })
+            .collect();
+        let order = dependency_order(&dependencies);
+        for cycle in &order.cycles {
+            self.report_cycle(cycle.iter().map(|node| definition_lines[*node]).collect());
+        }
+        for node in &order.sequence {
+            self.evaluate_definition(definition_lines[*node]);
+        }
+        for node in &order.blocked {
+            let line_index = definition_lines[*node];
+            if self.results[line_index].is_none() {
+                let cause = self.first_failed_dependency(line_index).unwrap_or_default();
+                self.slots[line_index] = Slot::Failed;
+                self.results[line_index] = Some(LineResult::Skipped { because_of: cause });
+            }
+        }
+        for index in 0..self.lines.len() {
+            if self.results[index].is_none() {
+                self.evaluate_other(index);
+            }
+        }
+    }
+
+    /// Records each name's line; a second definition is an error naming both.
+    fn collect_definitions(&mut self) {
+        for (index, line) in self.lines.iter().enumerate() {
+            let LineKind::Definition(definition) = &line.kind else { continue };
+            match self.definitions.get(definition.name.text.as_str()) {
+                Some(first) => {
+                    let first_line = &self.lines[*first];
+                    let first_span = match &first_line.kind {
+                        LineKind::Definition(first_definition) => first_definition.name.span,
+                        _ => first_line.span,
+                    };
+                    let error = EvalError::new(
+                        EvalErrorKind::DuplicateDefinition {
+                            name: definition.name.text.clone(),
+                            first_line: first_line.number,
+                            first_span,
+                        },
+                        definition.name.span,
+                    );
+                    self.diagnostics.push(error.to_diagnostic());
+                    self.results[index] = Some(LineResult::Error);
+                }
+                None => {
+                    self.definitions.insert(definition.name.text.as_str(), index);
+                }
+            }
+        }
+    }
+
+    fn report_cycle(&mut self, members: Vec<usize>) {
+        let names: Vec<String> = members
+            .iter()
+            .chain(members.first())
+            .filter_map(|index| match &self.lines[*index].kind {
+                LineKind::Definition(definition) => Some(definition.name.text.clone()),
+                _ => None,
+            })
+            .collect();
+        let Some(first) = members.iter().min().copied() else { return };
+        if let LineKind::Definition(definition) = &self.lines[first].kind {
+            let mut diagnostic =
+                EvalError::new(EvalErrorKind::Cycle { path: names.clone() }, definition.name.span).to_diagnostic();
+            for member in members.iter().filter(|member| **member != first) {
+                if let LineKind::Definition(other) = &self.lines[*member].kind {
+                    diagnostic = diagnostic.with_label(other.name.span, "part of the cycle");
+                }
+            }
+            self.diagnostics.push(diagnostic);
+        }
+        for member in members {
+            self.slots[member] = Slot::Failed;
+            self.results[member] = Some(LineResult::Error);
+        }
+    }
+
+    fn first_failed_dependency(&self, line_index: usize) -> Option<String> {
+        let LineKind::Definition(definition) = &self.lines[line_index].kind else { return None };
+        let mut cause = None;
+        definition.expression.for_each_name(&mut |name, _| {
+            if cause.is_none() {
+                if let Some(line) = self.definitions.get(name) {
+                    if matches!(self.slots[*line], Slot::Failed) || self.results[*line].is_none() {
+                        cause = Some(name.to_string());
+                    }
+                }
+            }
+        });
+        cause
+    }
+
+    fn evaluate_definition(&mut self, index: usize) {
+        let LineKind::Definition(definition) = &self.lines[index].kind else { return };
+        let outcome = self
+            .expression(&definition.expression)
+            .and_then(|quantity| {
+                self.shown(quantity, definition.display_unit.as_ref(), &definition.expression).map_err(Failure::from)
+            });
+        self.settle(index, outcome);
+    }
+
+    fn evaluate_other(&mut self, index: usize) {
+        let line = &self.lines[index];
+        let result = match &line.kind {
+            LineKind::Blank => LineResult::Blank,
+            LineKind::Comment => LineResult::Comment,
+            LineKind::Heading(text) => LineResult::Heading(text.clone()),
+            LineKind::Invalid | LineKind::Definition(_) => LineResult::Error,
+            LineKind::Display(display) => {
+                let outcome = self.expression(&display.expression).and_then(|quantity| {
+                    self.shown(quantity, display.display_unit.as_ref(), &display.expression).map_err(Failure::from)
+                });
+                return self.settle(index, outcome);
+            }
+            LineKind::Check(check) => match self.check(check) {
+                Ok(outcome) => LineResult::Check(outcome),
+                Err(failure) => self.failure_result(failure),
+            },
+        };
+        self.results[index] = Some(result);
+    }
+
+    fn settle(&mut self, index: usize, outcome: Result<ShownValue, Failure>) {
+        match outcome {
+            Ok(shown) => {
+                self.slots[index] = Slot::Ready(shown.clone());
+                self.results[index] = Some(LineResult::Value(shown));
+            }
+            Err(failure) => {
+                self.slots[index] = Slot::Failed;
+                let result = self.failure_result(failure);
+                self.results[index] = Some(result);
+            }
+        }
+    }
+
+    fn failure_result(&mut self, failure: Failure) -> LineResult {
+        match failure {
+            Failure::Error(error) => {
+                self.diagnostics.push(error.to_diagnostic());
+                LineResult::Error
+            }
+            Failure::Upstream(name) => LineResult::Skipped { because_of: name },
+        }
+    }
+
+    fn finish(self) -> Evaluation {
+        let source = self.source;
+        let lines = self
+            .lines
+            .iter()
+            .zip(self.results)
+            .map(|(line, result)| {
+                let (name, expression) = match &line.kind {
+                    LineKind::Definition(definition) => {
+                        (Some(definition.name.text.clone()), text_of(source, definition.expression.span))
+                    }
+                    LineKind::Display(display) => (None, text_of(source, display.expression.span)),
+                    LineKind::Check(_) | LineKind::Invalid => {
+                        (None, text_of(source, line.span).trim().to_string())
+                    }
+                    _ => (None, String::new()),
+                };
+                LineOutcome {
+                    number: line.number,
+                    name,
+                    expression,
+                    comment: line.comment.clone(),
+                    result: result.unwrap_or(LineResult::Error),
+                }
+            })
+            .collect();
+        let mut diagnostics = self.diagnostics;
+        diagnostics.sort_by_key(|diagnostic| diagnostic.span.start);
+        Evaluation { lines, diagnostics, provenance: self.provenance }
+    }
+
+    // ----- expressions -----
+
+    fn expression(&mut self, expression: &'a Expression) -> Result<Quantity, Failure> {
+        let span = expression.span;
+        let quantity = match &expression.kind {
+            ExpressionKind::Quantity { digits, unit } => self.literal(digits, unit.as_ref(), span)?,
+            ExpressionKind::Name(name) => self.name(name, span)?,
+            ExpressionKind::Call { function, arguments } => {
+                let Some(callee) = self.library.function(&function.text) else {
+                    let kind = if self.definitions.contains_key(function.text.as_str())
+                        || self.library.constant(&function.text).is_some()
+                    {
+                        EvalErrorKind::NameCalledAsFunction { name: function.text.clone() }
+                    } else {
+                        EvalErrorKind::UnknownFunction {
+                            name: function.text.clone(),
+                            suggestion: self.suggest(&function.text),
+                        }
+                    };
+                    return Err(EvalError::new(kind, function.span).into());
+                };
+                let mut values = Vec::with_capacity(arguments.len());
+                for argument in arguments {
+                    values.push(self.expression(argument)?);
+                }
+                callee.call(&values, &mut self.provenance).map_err(|error| {
+                    let at = match &error {
+                        CallError::WrongDimension { argument, .. } => Some(*argument),
+                        CallError::Domain { argument, .. } | CallError::OutOfRange { argument, .. } => *argument,
+                        CallError::ArgumentCount { .. } => None,
+                    };
+                    let error_span = at.and_then(|index| arguments.get(index)).map_or(span, |argument| argument.span);
+                    EvalError::new(EvalErrorKind::Call { function: function.text.clone(), error }, error_span)
+                })?
+            }
+            ExpressionKind::Negate(inner) => {
+                let value = self.expression(inner)?;
+                let temperature = match value.temperature {
+                    TemperatureKind::Difference => TemperatureKind::Difference,
+                    _ => TemperatureKind::Unspecified,
+                };
+                Quantity { value: -value.value, temperature, ..value }
+            }
+            ExpressionKind::Binary { operator, left, right } => {
+                let left_value = self.expression(left)?;
+                let right_value = self.expression(right)?;
+                binary(*operator, left_value, right_value, span, right.span)?
+            }
+        };
+        if !quantity.value.is_finite() {
+            return Err(EvalError::new(EvalErrorKind::NotFinite, span).into());
+        }
+        Ok(quantity)
+    }
+
+    fn literal(&mut self, digits: &str, unit: Option<&'a UnitExpression>, span: Span) -> Result<Quantity, Failure> {
+        let number: f64 = digits.parse().unwrap_or(f64::INFINITY);
+        let Some(unit_expression) = unit else {
+            return Ok(Quantity::dimensionless(number));
+        };
+        let unit = self.unit(unit_expression)?;
+        let temperature = match unit.temperature {
+            TemperatureRole::Absolute => TemperatureKind::Absolute,
+            TemperatureRole::Difference => TemperatureKind::Difference,
+            TemperatureRole::None => TemperatureKind::Unspecified,
+        };
+        let value = unit.to_si(number, Some(digits));
+        if !value.is_finite() {
+            return Err(EvalError::new(EvalErrorKind::NotFinite, span).into());
+        }
+        Ok(Quantity { value, dimension: unit.dimension, temperature })
+    }
+
+    fn name(&mut self, name: &str, span: Span) -> Result<Quantity, Failure> {
+        if let Some(index) = self.definitions.get(name) {
+            return match &self.slots[*index] {
+                Slot::Ready(shown) => Ok(shown.quantity),
+                Slot::Failed | Slot::Pending => Err(Failure::Upstream(name.to_string())),
+            };
+        }
+        if let Some(constant) = self.library.constant(name) {
+            return Ok(constant.quantity);
+        }
+        let kind = if self.library.function(name).is_some() {
+            EvalErrorKind::FunctionUsedAsValue { name: name.to_string() }
+        } else {
+            EvalErrorKind::UnknownName { name: name.to_string(), suggestion: self.suggest(name) }
+        };
+        Err(EvalError::new(kind, span).into())
+    }
+
+    /// The closest sheet or built-in name, for "did you mean".
+    fn suggest(&self, name: &str) -> Option<String> {
+        let library_names = self.library.names();
+        self.definitions
+            .keys()
+            .copied()
+            .chain(library_names.iter().copied())
+            .map(|candidate| (strsim::jaro_winkler(name, candidate), candidate))
+            .filter(|(score, _)| *score > 0.8)
+            .max_by(|left, right| left.0.total_cmp(&right.0))
+            .map(|(_, candidate)| candidate.to_string())
+    }
+
+    fn unit(&mut self, expression: &'a UnitExpression) -> Result<Unit, EvalError> {
+        if let Some(unit) = self.unit_cache.get(expression.text.as_str()) {
+            return Ok(unit.clone());
+        }
+        let unit = resolve_unit(expression)?;
+        self.unit_cache.insert(expression.text.as_str(), unit.clone());
+        Ok(unit)
+    }
+
+    /// Converts a value to its display unit: the declared one (checked), a literal's own unit,
+    /// or the preferred SI unit.
+    fn shown(
+        &mut self,
+        quantity: Quantity,
+        declared: Option<&'a UnitExpression>,
+        expression: &'a Expression,
+    ) -> Result<ShownValue, EvalError> {
+        let written = match (&expression.kind, declared) {
+            (_, Some(declared)) => Some(declared),
+            (ExpressionKind::Quantity { unit: Some(unit), .. }, None) => Some(unit),
+            _ => None,
+        };
+        let Some(unit_expression) = written else {
+            return Ok(ShownValue { quantity, unit: quantity.dimension.preferred_si_unit(), value: quantity.value });
+        };
+        let unit = self.unit(unit_expression)?;
+        show_in(quantity, &unit, &unit_expression.text, unit_expression.span)
+    }
+
+    /// The unit a check shows both sides in: the right side's if it has one of its own.
+    fn shown_for_check(&mut self, quantity: Quantity, sides: [&'a Expression; 2]) -> Result<ShownValue, EvalError> {
+        for side in sides {
+            match &side.kind {
+                ExpressionKind::Quantity { unit: Some(_), .. } => return self.shown(quantity, None, side),
+                ExpressionKind::Name(name) => {
+                    if let Some(Slot::Ready(shown)) = self.definitions.get(name.as_str()).map(|index| &self.slots[*index]) {
+                        let text = shown.unit.clone();
+                        if let Ok(expression) = crate::syntax::parse_unit(&text) {
+                            if let Ok(unit) = resolve_unit(&expression) {
+                                if let Ok(value) = show_in(quantity, &unit, &text, side.span) {
+                                    return Ok(value);
+                                }
+                            }
+                        }
+                    }
+                }
+                _ => {}
+            }
+        }
+        Ok(ShownValue { quantity, unit: quantity.dimension.preferred_si_unit(), value: quantity.value })
+    }
+
+    fn check(&mut self, check: &'a Check) -> Result<CheckOutcome, Failure> {
+        let left = self.expression(&check.left)?;
+        let right = self.expression(&check.right)?;
+        if left.dimension != right.dimension {
+            return Err(EvalError::new(
+                EvalErrorKind::DimensionMismatch {
+                    operation: Operation::Compare,
+                    left: left.dimension,
+                    right: right.dimension,
+                },
+                check.left.span.to(check.right.span),
+            )
+            .into());
+        }
+        let allowance = match &check.tolerance {
+            None if matches!(check.comparison, Comparison::Equal | Comparison::NotEqual) => {
+                DEFAULT_EQUALITY_TOLERANCE * right.value.abs().max(left.value.abs())
+            }
+            None => 0.0,
+            Some(tolerance) => {
+                let value = self.expression(tolerance)?;
+                if value.value < 0.0 {
+                    return Err(EvalError::new(EvalErrorKind::NegativeTolerance, tolerance.span).into());
+                }
+                if value.dimension.is_dimensionless() {
+                    value.value * right.value.abs()
+                } else if value.dimension == right.dimension {
+                    value.value
+                } else {
+                    return Err(EvalError::new(
+                        EvalErrorKind::ToleranceDimension { found: value.dimension, sides: right.dimension },
+                        tolerance.span,
+                    )
+                    .into());
+                }
+            }
+        };
+        let (l, r) = (left.value, right.value);
+        let passed = match check.comparison {
+            Comparison::Less => l < r + allowance,
+            Comparison::LessOrEqual => l <= r + allowance,
+            Comparison::Greater => l > r - allowance,
+            Comparison::GreaterOrEqual => l >= r - allowance,
+            Comparison::Equal => (l - r).abs() <= allowance,
+            Comparison::NotEqual => (l - r).abs() > allowance,
+        };
+        let right_shown = self.shown_for_check(right, [&check.right, &check.left])?;
+        let left_shown = self.shown_for_check(left, [&check.right, &check.left])?;
+        Ok(CheckOutcome {
+            passed,
+            comparison: check.comparison,
+            left: left_shown,
+            right: right_shown,
+            tolerance: check.tolerance.as_ref().map(|tolerance| text_of(self.source, tolerance.span)),
+            message: check.message.clone(),
+        })
+    }
+}
+
+fn text_of(source: &str, span: Span) -> String {
+    source.get(span.range()).unwrap_or_default().to_string()
+}
+
+/// Builds a unit from its written form. A lone absolute scale keeps its offset; anything
+/// compound treats degrees as differences.
+pub fn resolve_unit(expression: &UnitExpression) -> Result<Unit, EvalError> {
+    let at = |error: UnitError, span: Span| match error {
+        UnitError::Unknown { symbol, suggestions } => {
+            EvalError::new(EvalErrorKind::UnknownUnit { symbol, suggestions }, span)
+        }
+        UnitError::ExponentOverflow => EvalError::new(EvalErrorKind::ExponentOverflow, span),
+    };
+    match &expression.kind {
+        UnitExpressionKind::Symbol(symbol) => Unit::lookup(symbol).map_err(|error| at(error, expression.span)),
+        UnitExpressionKind::One => Ok(Unit::dimensionless()),
+        UnitExpressionKind::Product(left, right) => {
+            resolve_unit(left)?.multiply(&resolve_unit(right)?).map_err(|error| at(error, expression.span))
+        }
+        UnitExpressionKind::Quotient(left, right) => {
+            resolve_unit(left)?.divide(&resolve_unit(right)?).map_err(|error| at(error, expression.span))
+        }
+        UnitExpressionKind::Power { base, numerator, denominator } => resolve_unit(base)?
+            .power(Exponent::new(*numerator, *denominator))
+            .map_err(|error| at(error, expression.span)),
+    }
+}
+
+/// A quantity in a given unit, with the dimension and temperature rules enforced.
+pub fn show_in(quantity: Quantity, unit: &Unit, unit_text: &str, span: Span) -> Result<ShownValue, EvalError> {
+    if unit.dimension != quantity.dimension {
+        return Err(EvalError::new(
+            EvalErrorKind::DisplayUnitMismatch {
+                unit: unit_text.to_string(),
+                unit_dimension: unit.dimension,
+                value_dimension: quantity.dimension,
+            },
+            span,
+        ));
+    }
+    if unit.is_absolute_temperature() && quantity.is_temperature_difference() {
+        return Err(EvalError::new(EvalErrorKind::DifferenceShownAsAbsolute { unit: unit_text.to_string() }, span));
+    }
+    if unit.temperature == TemperatureRole::Difference && quantity.is_absolute_temperature() {
+        return Err(EvalError::new(EvalErrorKind::AbsoluteShownAsDifference { unit: unit_text.to_string() }, span));
+    }
+    Ok(ShownValue { quantity, unit: unit_text.to_string(), value: unit.from_si(quantity.value) })
+}
+
+fn binary(
+    operator: BinaryOperator,
+    left: Quantity,
+    right: Quantity,
+    span: Span,
+    right_span: Span,
+) -> Result<Quantity, EvalError> {
+    use TemperatureKind::{Absolute, Difference, Unspecified};
+    let error = |kind| EvalError::new(kind, span);
+    let overflow = |_| error(EvalErrorKind::ExponentOverflow);
+    match operator {
+        BinaryOperator::Add | BinaryOperator::Subtract => {
+            let adding = operator == BinaryOperator::Add;
+            if left.dimension != right.dimension {
+                let operation = if adding { Operation::Add } else { Operation::Subtract };
+                return Err(error(EvalErrorKind::DimensionMismatch {
+                    operation,
+                    left: left.dimension,
+                    right: right.dimension,
+                }));
+            }
+            let temperature = if left.dimension.is_temperature() {
+                match (adding, left.temperature, right.temperature) {
+                    (true, Absolute, Absolute) => return Err(error(EvalErrorKind::AbsoluteTemperatureSum)),
+                    (true, Absolute, _) | (true, _, Absolute) => Absolute,
+                    (false, Absolute | Unspecified, Absolute) => Difference,
+                    (false, Difference, Absolute) => return Err(error(EvalErrorKind::AbsoluteFromDifference)),
+                    (false, Absolute, _) => Absolute,
+                    (_, Difference, _) | (_, _, Difference) => Difference,
+                    _ => Unspecified,
+                }
+            } else {
+                Unspecified
+            };
+            let value = if adding { left.value + right.value } else { left.value - right.value };
+            Ok(Quantity { value, dimension: left.dimension, temperature })
+        }
+        BinaryOperator::Multiply => {
+            let dimension = left.dimension.multiply(&right.dimension).map_err(overflow)?;
+            Ok(Quantity {
+                value: left.value * right.value,
+                dimension,
+                temperature: scaled_temperature(&left, &right),
+            })
+        }
+        BinaryOperator::Divide => {
+            if right.value == 0.0 {
+                return Err(EvalError::new(EvalErrorKind::DivisionByZero, right_span));
+            }
+            let dimension = left.dimension.divide(&right.dimension).map_err(overflow)?;
+            let temperature =
+                if right.dimension.is_dimensionless() { scaled_temperature(&left, &right) } else { Unspecified };
+            Ok(Quantity { value: left.value / right.value, dimension, temperature })
+        }
+        BinaryOperator::Power => {
+            if !right.dimension.is_dimensionless() {
+                return Err(EvalError::new(
+                    EvalErrorKind::ExponentNotDimensionless { found: right.dimension },
+                    right_span,
+                ));
+            }
+            let dimension = if left.dimension.is_dimensionless() {
+                left.dimension
+            } else {
+                let exponent = simple_fraction(right.value)
+                    .ok_or_else(|| EvalError::new(EvalErrorKind::ExponentNotRational { value: right.value }, right_span))?;
+                left.dimension.power(exponent).map_err(overflow)?
+            };
+            if left.value == 0.0 && right.value < 0.0 {
+                return Err(error(EvalErrorKind::DivisionByZero));
+            }
+            let value = left.value.powf(right.value);
+            if value.is_nan() {
+                return Err(error(EvalErrorKind::Call {
+                    function: "^".to_string(),
+                    error: CallError::Domain {
+                        argument: None,
+                        message: "a negative number has no real fractional power".to_string(),
+                    },
+                }));
+            }
+            Ok(Quantity::new(value, dimension))
+        }
+    }
+}
+
+/// Scaling a temperature difference by a number keeps it a difference; anything else that
+/// multiplies a temperature is a plain kelvin quantity.
+fn scaled_temperature(left: &Quantity, right: &Quantity) -> TemperatureKind {
+    if left.is_temperature_difference() && right.dimension.is_dimensionless()
+        || right.is_temperature_difference() && left.dimension.is_dimensionless()
+    {
+        TemperatureKind::Difference
+    } else {
+        TemperatureKind::Unspecified
+    }
+}
+
+/// The fraction n/d (d <= 12) equal to `value` within rounding, for powers of units.
+fn simple_fraction(value: f64) -> Option<Exponent> {
+    (1..=12).find_map(|denominator| {
+        let numerator = value * f64::from(denominator);
+        let rounded = numerator.round();
+        ((numerator - rounded).abs() < 1e-9 && rounded.abs() <= 1_000.0)
+            .then(|| Exponent::new(rounded as i32, denominator))
+    })
+}
+
+/// A dimension's unit for messages and defaults, re-exported for front ends.
+pub fn preferred_unit(dimension: &Dimension) -> String {
+    dimension.preferred_si_unit()
+}

@@ -1,0 +1,143 @@
+//! The interface between the evaluator and built-in functions and constants. The evaluator
+//! defines it; `library` implements it; the front ends hand a library to the evaluator.
+
+use super::value::Quantity;
+use crate::units::Dimension;
+use std::fmt;
+
+/// A published formulation (a standard, a correlation, a law) that built-ins implement. Kept
+/// here so that the evaluator can record which ones a sheet used.
+#[derive(Debug, PartialEq, Eq)]
+pub struct Formulation {
+    /// Short stable identifier, e.g. `iapws-if97-region1`.
+    pub id: &'static str,
+    /// Human title, e.g. `IAPWS-IF97 region 1 (liquid water)`.
+    pub title: &'static str,
+    /// Full citation of the publication the equations and coefficients come from.
+    pub citation: &'static str,
+    /// Validity range as published, in words and units.
+    pub validity: &'static str,
+}
+
+/// The formulations a sheet's calls used, in first-use order, without repeats.
+#[derive(Debug, Default, Clone)]
+pub struct Provenance {
+    used: Vec<&'static Formulation>,
+}
+
+impl Provenance {
+    pub fn record(&mut self, formulation: &'static Formulation) {
+        if !self.used.iter().any(|known| known.id == formulation.id) {
+            self.used.push(formulation);
+        }
+    }
+
+    pub fn formulations(&self) -> &[&'static Formulation] {
+        &self.used
+    }
+}
+
+/// A built-in function callable from a sheet.
+pub trait Function: Sync {
+    /// How it is called, e.g. `water_density(T[, p])`.
+    fn signature(&self) -> &'static str;
+    /// One line on what it computes.
+    fn summary(&self) -> &'static str;
+    /// The formulations behind it, for listings.
+    fn formulations(&self) -> &'static [&'static Formulation] {
+        &[]
+    }
+    fn call(&self, arguments: &[Quantity], provenance: &mut Provenance) -> Result<Quantity, CallError>;
+}
+
+/// A named constant.
+#[derive(Debug, Clone)]
+pub struct Constant {
+    pub name: &'static str,
+    pub quantity: Quantity,
+    /// The unit to show it in, e.g. `m/s^2`.
+    pub unit: &'static str,
+    pub summary: &'static str,
+    pub source: &'static str,
+}
+
+/// What the evaluator needs from a library of built-ins.
+pub trait Library {
+    fn function(&self, name: &str) -> Option<&dyn Function>;
+    fn constant(&self, name: &str) -> Option<&Constant>;
+    /// Every function and constant name, for "did you mean" hints.
+    fn names(&self) -> Vec<&'static str>;
+}
+
+/// Why a call failed. `argument` indexes the call's arguments so the evaluator can point at it.
+#[derive(Debug, Clone, PartialEq)]
+pub enum CallError {
+    ArgumentCount { expected: &'static str, found: usize },
+    WrongDimension { argument: usize, parameter: &'static str, expected: Dimension, found: Dimension },
+    /// Outside the mathematical or physical domain (ln of a negative, porosity above 1).
+    Domain { argument: Option<usize>, message: String },
+    /// Outside a formulation's published validity range; the message names the range.
+    OutOfRange { argument: Option<usize>, message: String },
+}
+
+impl fmt::Display for CallError {
+    fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            CallError::ArgumentCount { expected, found } => {
+                write!(formatter, "takes {expected} argument(s), but {found} were given")
+            }
+            CallError::WrongDimension { parameter, expected, found, .. } => write!(
+                formatter,
+                "argument `{parameter}` must be {}, found {}",
+                describe_dimension(expected),
+                describe_dimension(found)
+            ),
+            CallError::Domain { message, .. } | CallError::OutOfRange { message, .. } => {
+                formatter.write_str(message)
+            }
+        }
+    }
+}
+
+/// `a velocity (L T^-1)` or `L^(1/2)` for unnamed dimensions.
+pub fn describe_dimension(dimension: &Dimension) -> String {
+    match dimension.quantity_name() {
+        Some("dimensionless") => "dimensionless".to_string(),
+        Some(name) => format!("{} {name} ({dimension})", article(name)),
+        None => format!("of dimension {dimension}"),
+    }
+}
+
+fn article(word: &str) -> &'static str {
+    match word.chars().next() {
+        Some('a' | 'e' | 'i' | 'o' | 'u') => "an",
+        _ => "a",
+    }
+}
+
+/// Checks the number of arguments against an inclusive range.
+pub fn expect_argument_count(
+    arguments: &[Quantity],
+    minimum: usize,
+    maximum: usize,
+    expected: &'static str,
+) -> Result<(), CallError> {
+    if arguments.len() < minimum || arguments.len() > maximum {
+        return Err(CallError::ArgumentCount { expected, found: arguments.len() });
+    }
+    Ok(())
+}
+
+/// Checks one argument's dimension.
+pub fn expect_dimension(
+    arguments: &[Quantity],
+    argument: usize,
+    parameter: &'static str,
+    expected: Dimension,
+) -> Result<f64, CallError> {
+    let found = arguments[argument].dimension;
+    if found != expected {
+        return Err(CallError::WrongDimension { argument, parameter, expected, found });
+    }
+    Ok(arguments[argument].value)
+}

@@ -1,0 +1,17 @@
+//! Evaluation: values, dependency order, evaluation of a sheet, and diagnostics.
+//!
+//! `eval` defines the interface built-in functions implement (`function`), but knows no
+//! built-in itself; the front ends hand it a `Library`. It does no I/O.
+
+pub mod diagnostic;
+pub mod error;
+pub mod evaluate;
+pub mod function;
+pub mod order;
+pub mod value;
+
+pub use diagnostic::{Diagnostic, Severity};
+pub use error::{EvalError, EvalErrorKind};
+pub use evaluate::{evaluate_sheet, CheckOutcome, Evaluation, LineOutcome, LineResult, ShownValue};
+pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
+pub use value::{Quantity, TemperatureKind};

@@ -1,0 +1,118 @@
+//! Mathematical built-ins: `sqrt exp ln log10 abs min max sin cos tan`. Each checks the
+//! dimensions it needs and refuses arguments outside its domain instead of returning NaN.
+
+use super::Builtin;
+use crate::eval::function::{expect_argument_count, CallError};
+use crate::eval::{Provenance, Quantity};
+use crate::units::{Dimension, Exponent};
+
+pub const FUNCTIONS: &[(&str, Builtin)] = &[
+    ("sqrt", Builtin::new("sqrt(x)", "square root; halves every dimension exponent", sqrt)),
+    ("exp", Builtin::new("exp(x)", "e to the power x; x dimensionless", exp)),
+    ("ln", Builtin::new("ln(x)", "natural logarithm; x dimensionless and positive", ln)),
+    ("log10", Builtin::new("log10(x)", "base-10 logarithm; x dimensionless and positive", log10)),
+    ("abs", Builtin::new("abs(x)", "absolute value, any dimension", abs)),
+    ("min", Builtin::new("min(x, y, …)", "smallest argument; all of one dimension", min)),
+    ("max", Builtin::new("max(x, y, …)", "largest argument; all of one dimension", max)),
+    ("sin", Builtin::new("sin(x)", "sine; x an angle (dimensionless, radians or `deg`)", sin)),
+    ("cos", Builtin::new("cos(x)", "cosine; x an angle (dimensionless, radians or `deg`)", cos)),
+    ("tan", Builtin::new("tan(x)", "tangent; x an angle (dimensionless, radians or `deg`)", tan)),
+];
+
+fn one_argument(arguments: &[Quantity]) -> Result<Quantity, CallError> {
+    expect_argument_count(arguments, 1, 1, "1")?;
+    Ok(arguments[0])
+}
+
+fn dimensionless_argument(arguments: &[Quantity]) -> Result<f64, CallError> {
+    let argument = one_argument(arguments)?;
+    if !argument.dimension.is_dimensionless() {
+        return Err(CallError::WrongDimension {
+            argument: 0,
+            parameter: "x",
+            expected: Dimension::dimensionless(),
+            found: argument.dimension,
+        });
+    }
+    Ok(argument.value)
+}
+
+fn domain(message: &str) -> CallError {
+    CallError::Domain { argument: Some(0), message: message.to_string() }
+}
+
+fn sqrt(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    let argument = one_argument(arguments)?;
+    if argument.value < 0.0 {
+        return Err(domain("the square root of a negative number is not real"));
+    }
+    let dimension = argument
+        .dimension
+        .power(Exponent::new(1, 2))
+        .map_err(|_| domain("the dimension's exponents grow too large"))?;
+    Ok(Quantity::new(argument.value.sqrt(), dimension))
+}
+
+fn exp(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.exp()))
+}
+
+fn positive_logarithm(arguments: &[Quantity], logarithm: fn(f64) -> f64) -> Result<Quantity, CallError> {
+    let value = dimensionless_argument(arguments)?;
+    if value <= 0.0 {
+        return Err(domain("the logarithm of zero or a negative number is undefined"));
+    }
+    Ok(Quantity::dimensionless(logarithm(value)))
+}
+
+fn ln(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    positive_logarithm(arguments, f64::ln)
+}
+
+fn log10(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    positive_logarithm(arguments, f64::log10)
+}
+
+fn abs(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    let argument = one_argument(arguments)?;
+    Ok(Quantity { value: argument.value.abs(), ..argument })
+}
+
+fn extreme(arguments: &[Quantity], pick_right: fn(f64, f64) -> bool) -> Result<Quantity, CallError> {
+    expect_argument_count(arguments, 1, usize::MAX, "1 or more")?;
+    let mut best = arguments[0];
+    for (index, argument) in arguments.iter().enumerate().skip(1) {
+        if argument.dimension != best.dimension {
+            return Err(CallError::WrongDimension {
+                argument: index,
+                parameter: "x",
+                expected: best.dimension,
+                found: argument.dimension,
+            });
+        }
+        if pick_right(best.value, argument.value) {
+            best = *argument;
+        }
+    }
+    Ok(best)
+}
+
+fn min(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    extreme(arguments, |best, candidate| candidate < best)
+}
+
+fn max(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    extreme(arguments, |best, candidate| candidate > best)
+}
+
+fn sin(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.sin()))
+}
+
+fn cos(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.cos()))
+}
+
+fn tan(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.tan()))
+}

@@ -1,0 +1,101 @@
+//! Built-in functions and constants: mathematics now; fluid properties and transport relations
+//! as they land. One entry per function: signature, summary, formulations, and the body.
+//!
+//! `library` implements `eval::Library`; it knows nothing of syntax, files or output.
+
+pub mod constants;
+pub mod formulation;
+pub mod math;
+
+use crate::eval::{CallError, Constant, Formulation, Function, Library, Provenance, Quantity};
+use std::collections::HashMap;
+use std::sync::OnceLock;
+
+/// A function body: arguments in SI with dimensions, the provenance to record into.
+pub type Body = fn(&[Quantity], &mut Provenance) -> Result<Quantity, CallError>;
+
+/// A built-in function described by data.
+pub struct Builtin {
+    pub signature: &'static str,
+    pub summary: &'static str,
+    pub formulations: &'static [&'static Formulation],
+    pub body: Body,
+}
+
+impl Builtin {
+    pub const fn new(signature: &'static str, summary: &'static str, body: Body) -> Builtin {
+        Builtin { signature, summary, formulations: &[], body }
+    }
+
+    pub const fn citing(mut self, formulations: &'static [&'static Formulation]) -> Builtin {
+        self.formulations = formulations;
+        self
+    }
+}
+
+impl Function for Builtin {
+    fn signature(&self) -> &'static str {
+        self.signature
+    }
+
+    fn summary(&self) -> &'static str {
+        self.summary
+    }
+
+    fn formulations(&self) -> &'static [&'static Formulation] {
+        self.formulations
+    }
+
+    fn call(&self, arguments: &[Quantity], provenance: &mut Provenance) -> Result<Quantity, CallError> {
+        (self.body)(arguments, provenance)
+    }
+}
+
+/// Every built-in function, by family.
+fn all_functions() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
+    math::FUNCTIONS.iter()
+}
+
+/// The standard library handed to the evaluator.
+pub struct Builtins {
+    functions: HashMap<&'static str, &'static Builtin>,
+    constants: HashMap<&'static str, &'static Constant>,
+}
+
+impl Builtins {
+    /// The shared instance; built on first use.
+    pub fn standard() -> &'static Builtins {
+        static BUILTINS: OnceLock<Builtins> = OnceLock::new();
+        BUILTINS.get_or_init(|| Builtins {
+            functions: all_functions().map(|(name, builtin)| (*name, builtin)).collect(),
+            constants: constants::constants().iter().map(|constant| (constant.name, constant)).collect(),
+        })
+    }
+
+    /// Functions sorted by name, for listings.
+    pub fn functions_sorted(&self) -> Vec<(&'static str, &'static Builtin)> {
+        let mut list: Vec<_> = self.functions.iter().map(|(name, builtin)| (*name, *builtin)).collect();
+        list.sort_by_key(|(name, _)| *name);
+        list
+    }
+
+    pub fn constants_sorted(&self) -> Vec<&'static Constant> {
+        let mut list: Vec<_> = self.constants.values().copied().collect();
+        list.sort_by_key(|constant| constant.name);
+        list
+    }
+}
+
+impl Library for Builtins {
+    fn function(&self, name: &str) -> Option<&dyn Function> {
+        self.functions.get(name).map(|builtin| *builtin as &dyn Function)
+    }
+
+    fn constant(&self, name: &str) -> Option<&Constant> {
+        self.constants.get(name).copied()
+    }
+
+    fn names(&self) -> Vec<&'static str> {
+        self.functions.keys().chain(self.constants.keys()).copied().collect()
+    }
+}

@@ -1,0 +1,139 @@
+//! JSON output. Serializable mirror types live here, at the edge, so the JSON contract in
+//! DESIGN.md does not freeze the evaluator's internal types.
+
+use super::snippet::locate;
+use crate::eval::{Diagnostic, Evaluation, LineResult, ShownValue};
+use serde::Serialize;
+
+#[derive(Serialize)]
+pub struct SheetJson {
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub file: Option<String>,
+    pub lines: Vec<LineJson>,
+    pub checks: Vec<CheckJson>,
+    pub diagnostics: Vec<DiagnosticJson>,
+    pub formulations: Vec<FormulationJson>,
+}
+
+#[derive(Serialize)]
+pub struct LineJson {
+    pub line: usize,
+    pub name: Option<String>,
+    pub expression: String,
+    #[serde(flatten)]
+    pub value: ValueJson,
+}
+
+/// The value fields of `eval` and of each `run` line.
+#[derive(Serialize)]
+pub struct ValueJson {
+    pub value: f64,
+    pub unit: String,
+    pub si_value: f64,
+    pub si_unit: String,
+    pub dimension: String,
+}
+
+#[derive(Serialize)]
+pub struct CheckJson {
+    pub line: usize,
+    pub passed: bool,
+    pub text: String,
+    pub left: ValueJson,
+    pub right: ValueJson,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub message: Option<String>,
+}
+
+#[derive(Serialize)]
+pub struct DiagnosticJson {
+    pub severity: &'static str,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub file: Option<String>,
+    pub line: usize,
+    pub column: usize,
+    pub end_line: usize,
+    pub end_column: usize,
+    pub message: String,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub help: Option<String>,
+}
+
+#[derive(Serialize)]
+pub struct FormulationJson {
+    pub id: &'static str,
+    pub title: &'static str,
+    pub citation: &'static str,
+    pub validity: &'static str,
+}
+
+pub fn value_json(shown: &ShownValue) -> ValueJson {
+    ValueJson {
+        value: shown.value,
+        unit: shown.unit.clone(),
+        si_value: shown.quantity.value,
+        si_unit: shown.quantity.dimension.si_unit_text(),
+        dimension: shown.quantity.dimension.to_string(),
+    }
+}
+
+pub fn diagnostics_json(file: Option<&str>, source: &str, diagnostics: &[Diagnostic]) -> Vec<DiagnosticJson> {
+    diagnostics
+        .iter()
+        .map(|diagnostic| {
+            let (line, column) = locate(source, diagnostic.span.start);
+            let (end_line, end_column) = locate(source, diagnostic.span.end);
+            DiagnosticJson {
+                severity: diagnostic.severity.word(),
+                file: file.map(str::to_string),
+                line,
+                column,
+                end_line,
+                end_column,
+                message: diagnostic.message.clone(),
+                help: diagnostic.help.clone(),
+            }
+        })
+        .collect()
+}
+
+pub fn sheet_json(file: Option<&str>, source: &str, evaluation: &Evaluation) -> SheetJson {
+    let mut lines = Vec::new();
+    let mut checks = Vec::new();
+    for line in &evaluation.lines {
+        match &line.result {
+            LineResult::Value(shown) => lines.push(LineJson {
+                line: line.number,
+                name: line.name.clone(),
+                expression: line.expression.clone(),
+                value: value_json(shown),
+            }),
+            LineResult::Check(check) => checks.push(CheckJson {
+                line: line.number,
+                passed: check.passed,
+                text: line.expression.clone(),
+                left: value_json(&check.left),
+                right: value_json(&check.right),
+                message: check.message.clone(),
+            }),
+            _ => {}
+        }
+    }
+    SheetJson {
+        file: file.map(str::to_string),
+        lines,
+        checks,
+        diagnostics: diagnostics_json(file, source, &evaluation.diagnostics),
+        formulations: evaluation
+            .provenance
+            .formulations()
+            .iter()
+            .map(|formulation| FormulationJson {
+                id: formulation.id,
+                title: formulation.title,
+                citation: formulation.citation,
+                validity: formulation.validity,
+            })
+            .collect(),
+    }
+}

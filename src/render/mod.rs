@@ -1,0 +1,31 @@
+//! Output: a sheet's results as a terminal table, Markdown, CSV or JSON, and diagnostics as
+//! source snippets. Everything writes into a writer it is handed; nothing here opens files.
+
+pub mod json;
+pub mod number;
+pub mod snippet;
+pub mod table;
+
+pub use number::format_significant;
+pub use snippet::{locate, write_diagnostics};
+
+/// Output formats of `--format`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Format {
+    Table,
+    Markdown,
+    Csv,
+    Json,
+}
+
+/// How numbers and tables are drawn.
+#[derive(Debug, Clone, Copy)]
+pub struct RenderOptions {
+    pub format: Format,
+    /// Significant figures of displayed values.
+    pub digits: u32,
+}
+
+/// The caution that goes with every report and the README.
+pub const CAUTION: &str = "Results are engineering estimates that depend on the inputs and formulations used. \
+They must be checked by a qualified person and do not replace local codes, regulations or licensed professional practice.";

@@ -1,0 +1,186 @@
+//! A sheet's results as rows: line, name, value, unit, expression. Headings start sections;
+//! checks show both sides in one unit; failed and skipped lines say so instead of a number.
+
+use super::{format_significant, Format, RenderOptions};
+use crate::eval::{CheckOutcome, Evaluation, LineResult};
+use comfy_table::{presets, ContentArrangement, Table};
+use std::io::{self, Write};
+
+/// One printable row, before formatting.
+struct Row {
+    line: String,
+    name: String,
+    value: String,
+    unit: String,
+    expression: String,
+}
+
+enum Entry {
+    Heading(String),
+    Row(Row),
+}
+
+const HEADER: [&str; 5] = ["line", "name", "value", "unit", "expression"];
+
+/// A unit as shown in a cell: blank for a plain number.
+fn unit_cell(unit: &str) -> String {
+    if unit == "1" { String::new() } else { unit.to_string() }
+}
+
+fn with_unit(value: f64, unit: &str, digits: u32) -> String {
+    let number = format_significant(value, digits);
+    match unit_cell(unit).as_str() {
+        "" => number,
+        unit => format!("{number} {unit}"),
+    }
+}
+
+/// Both sides of a check in one unit, e.g. `4.05e-6 m/s > 9.16e-7 m/s within 1 %`.
+fn check_text(check: &CheckOutcome, digits: u32) -> String {
+    let mut text = format!(
+        "{} {} {}",
+        with_unit(check.left.value, &check.left.unit, digits),
+        check.comparison.symbol(),
+        with_unit(check.right.value, &check.right.unit, digits),
+    );
+    if let Some(tolerance) = &check.tolerance {
+        text.push_str(&format!(" within {tolerance}"));
+    }
+    if let Some(message) = &check.message {
+        text.push_str(&format!(": {message}"));
+    }
+    text
+}
+
+fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
+    let mut entries = Vec::new();
+    for line in &evaluation.lines {
+        let row = |value: String, unit: String, expression: String| {
+            Entry::Row(Row {
+                line: line.number.to_string(),
+                name: line.name.clone().unwrap_or_default(),
+                value,
+                unit,
+                expression,
+            })
+        };
+        match &line.result {
+            LineResult::Blank | LineResult::Comment => {}
+            LineResult::Heading(text) => entries.push(Entry::Heading(text.clone())),
+            LineResult::Value(shown) => entries.push(row(
+                format_significant(shown.value, digits),
+                unit_cell(&shown.unit),
+                line.expression.clone(),
+            )),
+            LineResult::Check(check) => entries.push(Entry::Row(Row {
+                line: line.number.to_string(),
+                name: "check".to_string(),
+                value: if check.passed { "passed" } else { "FAILED" }.to_string(),
+                unit: String::new(),
+                expression: check_text(check, digits),
+            })),
+            LineResult::Error => entries.push(row("error".to_string(), String::new(), line.expression.clone())),
+            LineResult::Skipped { because_of } => entries.push(row(
+                "-".to_string(),
+                String::new(),
+                format!("{}  (not evaluated: `{because_of}` has an error)", line.expression),
+            )),
+        }
+    }
+    entries
+}
+
+/// Writes the results of one sheet in a text format (table, Markdown or CSV).
+pub fn write_sheet(out: &mut dyn Write, evaluation: &Evaluation, options: RenderOptions) -> io::Result<()> {
+    let entries = entries(evaluation, options.digits);
+    match options.format {
+        Format::Csv => write_csv(out, &entries),
+        Format::Markdown => write_markdown(out, &entries),
+        Format::Table | Format::Json => write_table(out, &entries),
+    }?;
+    if options.format != Format::Csv {
+        write_sources(out, evaluation, options.format)?;
+    }
+    Ok(())
+}
+
+fn write_table(out: &mut dyn Write, entries: &[Entry]) -> io::Result<()> {
+    let mut table = Table::new();
+    table.load_preset(presets::UTF8_FULL_CONDENSED).set_content_arrangement(ContentArrangement::Disabled);
+    table.set_header(HEADER);
+    for entry in entries {
+        match entry {
+            Entry::Heading(text) => {
+                table.add_row(vec![String::new(), String::new(), String::new(), String::new(), format!("## {text}")]);
+            }
+            Entry::Row(row) => {
+                table.add_row(vec![&row.line, &row.name, &row.value, &row.unit, &row.expression]);
+            }
+        }
+    }
+    writeln!(out, "{table}")
+}
+
+fn markdown_cell(text: &str) -> String {
+    text.replace('|', "\\|")
+}
+
+fn write_markdown(out: &mut dyn Write, entries: &[Entry]) -> io::Result<()> {
+    let mut table_open = false;
+    for entry in entries {
+        match entry {
+            Entry::Heading(text) => {
+                if table_open {
+                    writeln!(out)?;
+                }
+                writeln!(out, "### {}\n", text)?;
+                table_open = false;
+            }
+            Entry::Row(row) => {
+                if !table_open {
+                    writeln!(out, "| {} |", HEADER.join(" | "))?;
+                    writeln!(out, "|---:|---|---:|---|---|")?;
+                    table_open = true;
+                }
+                writeln!(
+                    out,
+                    "| {} | {} | {} | {} | `{}` |",
+                    row.line,
+                    markdown_cell(&row.name),
+                    markdown_cell(&row.value),
+                    markdown_cell(&row.unit),
+                    markdown_cell(&row.expression)
+                )?;
+            }
+        }
+    }
+    Ok(())
+}
+
+fn write_csv(out: &mut dyn Write, entries: &[Entry]) -> io::Result<()> {
+    let mut writer = csv::Writer::from_writer(out);
+    let csv_error = |error: csv::Error| io::Error::other(error.to_string());
+    writer.write_record(HEADER).map_err(csv_error)?;
+    for entry in entries {
+        if let Entry::Row(row) = entry {
+            writer
+                .write_record([&row.line, &row.name, &row.value, &row.unit, &row.expression])
+                .map_err(csv_error)?;
+        }
+    }
+    writer.flush()
+}
+
+/// One line per formulation the sheet used, under the table.
+fn write_sources(out: &mut dyn Write, evaluation: &Evaluation, format: Format) -> io::Result<()> {
+    let used = evaluation.provenance.formulations();
+    if used.is_empty() {
+        return Ok(());
+    }
+    let bullet = if format == Format::Markdown { "- " } else { "  " };
+    writeln!(out, "\nFormulations used:")?;
+    for formulation in used {
+        writeln!(out, "{bullet}{}: {} [valid: {}]", formulation.title, formulation.citation, formulation.validity)?;
+    }
+    Ok(())
+}
