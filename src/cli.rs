@@ -59,20 +59,26 @@ pub enum FormatArg {
 #[derive(Subcommand, Debug)]
 pub enum Command {
     /// Evaluate sheets and print the table of their lines
-    #[command(after_help = "Examples:\n  fluxsheet run worksheets/core_permeability.fxs\n  fluxsheet run --format json a.fxs b.fxs\n  cat site.fxs | fluxsheet run -")]
+    #[command(
+        after_help = "Examples:\n  fluxsheet run worksheets/core_permeability.fxs\n  fluxsheet run --format json a.fxs b.fxs\n  cat site.fxs | fluxsheet run -"
+    )]
     Run {
         /// Sheet files (`-` reads standard input)
         #[arg(required = true)]
         files: Vec<String>,
     },
     /// Evaluate one expression or line and print its value and unit
-    #[command(after_help = "Examples:\n  fluxsheet eval '1 acre*ft [m^3]' --digits 15\n  fluxsheet eval 'sqrt(4 m^2)'\n  fluxsheet eval '300 K [degC]'")]
+    #[command(
+        after_help = "Examples:\n  fluxsheet eval '1 acre*ft [m^3]' --digits 15\n  fluxsheet eval 'sqrt(4 m^2)'\n  fluxsheet eval '300 K [degC]'"
+    )]
     Eval {
         /// The expression, optionally followed by `[unit]`, or a line `name = expression`
         expression: String,
     },
     /// List the unit catalog: symbols, dimensions, exact factors and sources
-    #[command(after_help = "Examples:\n  fluxsheet units\n  fluxsheet units pressure\n  fluxsheet units darcy")]
+    #[command(
+        after_help = "Examples:\n  fluxsheet units\n  fluxsheet units pressure\n  fluxsheet units darcy"
+    )]
     Units {
         /// Show only units whose symbol or name contains this text, or of this dimension (`length`)
         filter: Option<String>,
@@ -93,7 +99,10 @@ impl OutputArgs {
             FormatArg::Csv => Format::Csv,
             FormatArg::Json => Format::Json,
         };
-        RenderOptions { format, digits: self.digits }
+        RenderOptions {
+            format,
+            digits: self.digits,
+        }
     }
 }
 
@@ -105,8 +114,12 @@ pub fn run(command_line: CommandLine) -> u8 {
     let result = match &command_line.command {
         Command::Run { files } => run_files(&mut out, files, options),
         Command::Eval { expression } => eval_expression(&mut out, expression, options),
-        Command::Units { filter } => list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK),
-        Command::Functions { filter } => list_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK),
+        Command::Units { filter } => {
+            list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK)
+        }
+        Command::Functions { filter } => {
+            list_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK)
+        }
     };
     match result.and_then(|code| out.flush().map(|_| code)) {
         Ok(code) => code,
@@ -137,12 +150,22 @@ struct SheetSource {
 fn read_sheet(file: &str) -> Result<SheetSource, String> {
     if file == "-" {
         let mut text = String::new();
-        io::stdin().read_to_string(&mut text).map_err(|error| format!("cannot read standard input: {error}"))?;
-        return Ok(SheetSource { label: "<stdin>".to_string(), text });
+        io::stdin()
+            .read_to_string(&mut text)
+            .map_err(|error| format!("cannot read standard input: {error}"))?;
+        return Ok(SheetSource {
+            label: "<stdin>".to_string(),
+            text,
+        });
     }
-    let bytes = std::fs::read(Path::new(file)).map_err(|error| format!("cannot read `{file}`: {error}"))?;
-    let text = String::from_utf8(bytes).map_err(|_| format!("cannot read `{file}`: it is not UTF-8 text"))?;
-    Ok(SheetSource { label: file.to_string(), text })
+    let bytes =
+        std::fs::read(Path::new(file)).map_err(|error| format!("cannot read `{file}`: {error}"))?;
+    let text = String::from_utf8(bytes)
+        .map_err(|_| format!("cannot read `{file}`: it is not UTF-8 text"))?;
+    Ok(SheetSource {
+        label: file.to_string(),
+        text,
+    })
 }
 
 fn exit_code_for(evaluation: &Evaluation) -> u8 {
@@ -188,7 +211,12 @@ fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> i
         render::table::write_sheet(out, &evaluation, options)?;
         if !evaluation.diagnostics.is_empty() {
             out.flush()?;
-            render::write_diagnostics(&mut stderr_stream(), &source.label, &source.text, &evaluation.diagnostics)?;
+            render::write_diagnostics(
+                &mut stderr_stream(),
+                &source.label,
+                &source.text,
+                &evaluation.diagnostics,
+            )?;
         }
     }
     if options.format == Format::Json {
@@ -197,7 +225,11 @@ fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> i
         } else {
             serde_json::Value::Array(json_sheets)
         };
-        writeln!(out, "{}", serde_json::to_string_pretty(&document).map_err(io::Error::other)?)?;
+        writeln!(
+            out,
+            "{}",
+            serde_json::to_string_pretty(&document).map_err(io::Error::other)?
+        )?;
     }
     Ok(worst)
 }
@@ -221,9 +253,19 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
     if evaluation.has_errors() {
         if json {
             let diagnostics = diagnostics_json(None, text, &evaluation.diagnostics);
-            writeln!(out, "{}", serde_json::to_string_pretty(&serde_json::json!({ "diagnostics": diagnostics })).map_err(io::Error::other)?)?;
+            writeln!(
+                out,
+                "{}",
+                serde_json::to_string_pretty(&serde_json::json!({ "diagnostics": diagnostics }))
+                    .map_err(io::Error::other)?
+            )?;
         } else {
-            render::write_diagnostics(&mut stderr_stream(), "<expression>", text, &evaluation.diagnostics)?;
+            render::write_diagnostics(
+                &mut stderr_stream(),
+                "<expression>",
+                text,
+                &evaluation.diagnostics,
+            )?;
         }
         return Ok(exit::SHEET_ERROR);
     }
@@ -236,7 +278,11 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
     match results.last() {
         Some(LineResult::Value(shown)) => {
             if json {
-                writeln!(out, "{}", serde_json::to_string_pretty(&value_json(shown)).map_err(io::Error::other)?)?;
+                writeln!(
+                    out,
+                    "{}",
+                    serde_json::to_string_pretty(&value_json(shown)).map_err(io::Error::other)?
+                )?;
             } else {
                 let value = render::format_significant(shown.value, options.digits);
                 match shown.unit.as_str() {
@@ -266,7 +312,11 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
             (Some(dimension), _) => entry.unit.dimension == dimension,
             (None, Some(text)) => {
                 entry.definition.name.to_lowercase().contains(text)
-                    || entry.definition.symbols.iter().any(|symbol| symbol.to_lowercase().contains(text))
+                    || entry
+                        .definition
+                        .symbols
+                        .iter()
+                        .any(|symbol| symbol.to_lowercase().contains(text))
             }
             (None, None) => true,
         })
@@ -290,17 +340,35 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
             ]
         })
         .collect();
-    let header = ["symbol", "name", "dimension", "factor to SI", "source", "note"];
+    let header = [
+        "symbol",
+        "name",
+        "dimension",
+        "factor to SI",
+        "source",
+        "note",
+    ];
     write_listing(out, &header, &rows, options)?;
     if options.format == Format::Table && filter.is_none() {
         let symbols: Vec<&str> = prefixes().iter().map(|(symbol, _)| *symbol).collect();
-        writeln!(out, "\nSI prefixes (on units marked in DEVELOPERS.md as prefixable): {}", symbols.join(" "))?;
-        writeln!(out, "A degree inside a compound unit (W/(m*degC)) is a temperature difference.")?;
+        writeln!(
+            out,
+            "\nSI prefixes (on units marked in DEVELOPERS.md as prefixable): {}",
+            symbols.join(" ")
+        )?;
+        writeln!(
+            out,
+            "A degree inside a compound unit (W/(m*degC)) is a temperature difference."
+        )?;
     }
     Ok(())
 }
 
-fn list_functions(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions) -> io::Result<()> {
+fn list_functions(
+    out: &mut dyn Write,
+    filter: Option<&str>,
+    options: RenderOptions,
+) -> io::Result<()> {
     let library = Builtins::standard();
     let keep = |name: &str| filter.is_none_or(|text| name.contains(text));
     let mut rows: Vec<[String; 4]> = Vec::new();
@@ -309,9 +377,16 @@ fn list_functions(out: &mut dyn Write, filter: Option<&str>, options: RenderOpti
             let sources: Vec<String> = builtin
                 .formulations
                 .iter()
-                .map(|formulation| format!("{} [valid: {}]", formulation.citation, formulation.validity))
+                .map(|formulation| {
+                    format!("{} [valid: {}]", formulation.citation, formulation.validity)
+                })
                 .collect();
-            rows.push([builtin.signature.to_string(), "function".to_string(), builtin.summary.to_string(), sources.join("; ")]);
+            rows.push([
+                builtin.signature.to_string(),
+                "function".to_string(),
+                builtin.summary.to_string(),
+                sources.join("; "),
+            ]);
         }
     }
     for constant in library.constants_sorted() {
@@ -343,11 +418,20 @@ fn write_listing<const N: usize>(
                     header
                         .iter()
                         .zip(row.iter())
-                        .map(|(key, value)| (key.replace(' ', "_"), serde_json::Value::String(value.clone())))
+                        .map(|(key, value)| {
+                            (
+                                key.replace(' ', "_"),
+                                serde_json::Value::String(value.clone()),
+                            )
+                        })
                         .collect()
                 })
                 .collect();
-            writeln!(out, "{}", serde_json::to_string_pretty(&objects).map_err(io::Error::other)?)
+            writeln!(
+                out,
+                "{}",
+                serde_json::to_string_pretty(&objects).map_err(io::Error::other)?
+            )
         }
         Format::Csv => {
             let mut writer = csv::Writer::from_writer(out);
@@ -361,7 +445,14 @@ fn write_listing<const N: usize>(
             writeln!(out, "| {} |", header.join(" | "))?;
             writeln!(out, "|{}", "---|".repeat(N))?;
             for row in rows {
-                writeln!(out, "| {} |", row.iter().map(|cell| cell.replace('|', "\\|")).collect::<Vec<_>>().join(" | "))?;
+                writeln!(
+                    out,
+                    "| {} |",
+                    row.iter()
+                        .map(|cell| cell.replace('|', "\\|"))
+                        .collect::<Vec<_>>()
+                        .join(" | ")
+                )?;
             }
             Ok(())
         }

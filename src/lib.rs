@@ -4,9 +4,9 @@
 //! Layers, each using only those before it: `syntax` and `units` → `eval` → `library` →
 //! `render`. The front ends (`cli`, `repl`) are the only code that touches files or the terminal.
 
-pub mod syntax;
-pub mod units;
+pub mod cli;
 pub mod eval;
 pub mod library;
 pub mod render;
-pub mod cli;
+pub mod syntax;
+pub mod units;

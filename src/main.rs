@@ -9,10 +9,26 @@ fn main() -> ExitCode {
         Ok(command_line) => command_line,
         Err(error) => {
             // Help and version are not errors; everything else clap rejects is a usage error.
-            let code = if error.use_stderr() { exit::USAGE } else { exit::OK };
+            let code = if error.use_stderr() {
+                exit::USAGE
+            } else {
+                exit::OK
+            };
             let _ = error.print();
             return ExitCode::from(code);
         }
     };
-    ExitCode::from(cli::run(command_line))
+    // Evaluation recurses over expressions; a roomy stack keeps the parser's nesting limits far
+    // from the edge in every build profile.
+    let worker = std::thread::Builder::new()
+        .stack_size(64 * 1024 * 1024)
+        .spawn(move || cli::run(command_line));
+    let code = match worker.map(|handle| handle.join()) {
+        Ok(Ok(code)) => code,
+        _ => {
+            eprintln!("error: internal failure (please report it with the sheet that caused it)");
+            exit::SHEET_ERROR
+        }
+    };
+    ExitCode::from(code)
 }

@@ -1,1 +1,17 @@
+// Test helpers unwrap freely: a failure there is a test failure with its message.
+#![allow(clippy::unwrap_used)]
 
+//! The single integration-test binary: drives the built `fluxsheet` and the library API.
+//!
+//! - `cli`: commands, formats, exit codes and the JSON contract.
+//! - `errors`: each error class on a small sheet, its exit code and rendered message.
+//! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
+//! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
+//! - `robustness`: generated input never panics; hostile nesting is refused.
+
+mod cli;
+mod errors;
+mod reference;
+mod robustness;
+mod util;
+mod worksheets;

@@ -31,11 +31,23 @@ pub struct Diagnostic {
 
 impl Diagnostic {
     pub fn error(message: impl Into<String>, span: Span) -> Diagnostic {
-        Diagnostic { severity: Severity::Error, message: message.into(), span, labels: Vec::new(), help: None }
+        Diagnostic {
+            severity: Severity::Error,
+            message: message.into(),
+            span,
+            labels: Vec::new(),
+            help: None,
+        }
     }
 
     pub fn warning(message: impl Into<String>, span: Span) -> Diagnostic {
-        Diagnostic { severity: Severity::Warning, message: message.into(), span, labels: Vec::new(), help: None }
+        Diagnostic {
+            severity: Severity::Warning,
+            message: message.into(),
+            span,
+            labels: Vec::new(),
+            help: None,
+        }
     }
 
     pub fn with_label(mut self, span: Span, message: impl Into<String>) -> Diagnostic {

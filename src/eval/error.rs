@@ -9,33 +9,75 @@ use std::fmt;
 
 #[derive(Debug, Clone, PartialEq)]
 pub struct EvalError {
-    pub kind: EvalErrorKind,
+    /// Boxed so that `Result<_, EvalError>` stays small on the evaluator's hot path.
+    pub kind: Box<EvalErrorKind>,
     pub span: Span,
 }
 
 #[derive(Debug, Clone, PartialEq)]
 pub enum EvalErrorKind {
-    UnknownName { name: String, suggestion: Option<String> },
-    UnknownFunction { name: String, suggestion: Option<String> },
-    FunctionUsedAsValue { name: String },
-    NameCalledAsFunction { name: String },
-    UnknownUnit { symbol: String, suggestions: Vec<String> },
-    DuplicateDefinition { name: String, first_line: usize, first_span: Span },
-    Cycle { path: Vec<String> },
-    DimensionMismatch { operation: Operation, left: Dimension, right: Dimension },
-    DisplayUnitMismatch { unit: String, unit_dimension: Dimension, value_dimension: Dimension },
-    ExponentNotDimensionless { found: Dimension },
-    ExponentNotRational { value: f64 },
+    UnknownName {
+        name: String,
+        suggestion: Option<String>,
+    },
+    UnknownFunction {
+        name: String,
+        suggestion: Option<String>,
+    },
+    FunctionUsedAsValue {
+        name: String,
+    },
+    NameCalledAsFunction {
+        name: String,
+    },
+    UnknownUnit {
+        symbol: String,
+        suggestions: Vec<String>,
+    },
+    DuplicateDefinition {
+        name: String,
+        first_line: usize,
+        first_span: Span,
+    },
+    Cycle {
+        path: Vec<String>,
+    },
+    DimensionMismatch {
+        operation: Operation,
+        left: Dimension,
+        right: Dimension,
+    },
+    DisplayUnitMismatch {
+        unit: String,
+        unit_dimension: Dimension,
+        value_dimension: Dimension,
+    },
+    ExponentNotDimensionless {
+        found: Dimension,
+    },
+    ExponentNotRational {
+        value: f64,
+    },
     ExponentOverflow,
     DivisionByZero,
     NotFinite,
     AbsoluteTemperatureSum,
     AbsoluteFromDifference,
-    DifferenceShownAsAbsolute { unit: String },
-    AbsoluteShownAsDifference { unit: String },
-    ToleranceDimension { found: Dimension, sides: Dimension },
+    DifferenceShownAsAbsolute {
+        unit: String,
+    },
+    AbsoluteShownAsDifference {
+        unit: String,
+    },
+    ToleranceDimension {
+        found: Dimension,
+        sides: Dimension,
+    },
     NegativeTolerance,
-    Call { function: String, error: CallError },
+    Call {
+        function: String,
+        error: CallError,
+    },
 }
 
 /// The operation that found two dimensions at odds.
@@ -48,13 +90,13 @@ pub enum Operation {
 
 impl EvalError {
     pub fn new(kind: EvalErrorKind, span: Span) -> EvalError {
-        EvalError { kind, span }
+        EvalError { kind: Box::new(kind), span }
     }
 
     /// The diagnostic: message, extra labels and a help line where one helps.
     pub fn to_diagnostic(&self) -> Diagnostic {
         let diagnostic = Diagnostic::error(self.to_string(), self.span);
-        match &self.kind {
+        match self.kind.as_ref() {
             EvalErrorKind::DuplicateDefinition { first_span, .. } => {
                 diagnostic.with_label(*first_span, "first defined here")
             }
@@ -86,16 +128,23 @@ fn with_unit(dimension: &Dimension) -> String {
     match dimension.quantity_name() {
         Some("dimensionless") => "a dimensionless number".to_string(),
         Some(name) => {
-            let article = if name.starts_with(['a', 'e', 'i', 'o', 'u']) { "an" } else { "a" };
+            let article = if name.starts_with(['a', 'e', 'i', 'o', 'u']) {
+                "an"
+            } else {
+                "a"
+            };
             format!("{article} {name} ({})", dimension.preferred_si_unit())
         }
-        None => format!("a quantity of dimension {dimension} ({})", dimension.preferred_si_unit()),
+        None => format!(
+            "a quantity of dimension {dimension} ({})",
+            dimension.preferred_si_unit()
+        ),
     }
 }
 
 impl fmt::Display for EvalError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
-        match &self.kind {
+        match self.kind.as_ref() {
             EvalErrorKind::UnknownName { name, .. } => write!(formatter, "unknown name `{name}`"),
             EvalErrorKind::UnknownFunction { name, .. } => write!(formatter, "unknown function `{name}`"),
             EvalErrorKind::FunctionUsedAsValue { name } => {

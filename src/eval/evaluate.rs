@@ -10,8 +10,8 @@ use super::function::{CallError, Library, Provenance};
 use super::order::dependency_order;
 use super::value::{Quantity, TemperatureKind};
 use crate::syntax::{
-    parse_sheet, BinaryOperator, Check, Comparison, Expression, ExpressionKind, Line, LineKind, Span,
-    UnitExpression, UnitExpressionKind,
+    parse_sheet, BinaryOperator, Check, Comparison, Expression, ExpressionKind, Line, LineKind,
+    Span, UnitExpression, UnitExpressionKind,
 };
 use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
 use std::collections::HashMap;
@@ -29,7 +29,9 @@ pub struct Evaluation {
 
 impl Evaluation {
     pub fn has_errors(&self) -> bool {
-        self.diagnostics.iter().any(|diagnostic| diagnostic.severity == super::Severity::Error)
+        self.diagnostics
+            .iter()
+            .any(|diagnostic| diagnostic.severity == super::Severity::Error)
     }
 
     pub fn failed_checks(&self) -> usize {
@@ -41,10 +43,12 @@ impl Evaluation {
 
     /// The value of a named line, if it evaluated.
     pub fn value_of(&self, name: &str) -> Option<&ShownValue> {
-        self.lines.iter().find_map(|line| match (&line.name, &line.result) {
-            (Some(line_name), LineResult::Value(value)) if line_name == name => Some(value),
-            _ => None,
-        })
+        self.lines
+            .iter()
+            .find_map(|line| match (&line.name, &line.result) {
+                (Some(line_name), LineResult::Value(value)) if line_name == name => Some(value),
+                _ => None,
+            })
     }
 }
 
@@ -69,7 +73,9 @@ pub enum LineResult {
     /// The line has an error of its own (reported in the diagnostics).
     Error,
     /// Not evaluated because a line it needs has an error; names that line.
-    Skipped { because_of: String },
+    Skipped {
+        because_of: String,
+    },
 }
 
 /// A value with the unit it is shown in.
@@ -97,7 +103,9 @@ pub struct CheckOutcome {
 pub fn evaluate_sheet(source: &str, library: &dyn Library) -> Evaluation {
     let parsed = parse_sheet(source);
     let mut evaluator = Evaluator::new(source, &parsed.sheet.lines, library);
-    evaluator.diagnostics.extend(parsed.errors.iter().map(Diagnostic::from));
+    evaluator
+        .diagnostics
+        .extend(parsed.errors.iter().map(Diagnostic::from));
     evaluator.run();
     evaluator.finish()
 }
@@ -157,8 +165,11 @@ impl<'a> Evaluator<'a> {
         let definition_lines: Vec<usize> = self.definitions.values().copied().collect::<Vec<_>>();
         let mut definition_lines = definition_lines;
         definition_lines.sort_unstable();
-        let node_of: HashMap<usize, usize> =
-            definition_lines.iter().enumerate().map(|(node, line)| (*line, node)).collect();
+        let node_of: HashMap<usize, usize> = definition_lines
+            .iter()
+            .enumerate()
+            .map(|(node, line)| (*line, node))
+            .collect();
         let dependencies: Vec<Vec<usize>> = definition_lines
             .iter()
             .map(|line_index| {
@@ -201,7 +212,9 @@ impl<'a> Evaluator<'a> {
     /// Records each name's line; a second definition is an error naming both.
     fn collect_definitions(&mut self) {
         for (index, line) in self.lines.iter().enumerate() {
-            let LineKind::Definition(definition) = &line.kind else { continue };
+            let LineKind::Definition(definition) = &line.kind else {
+                continue;
+            };
             match self.definitions.get(definition.name.text.as_str()) {
                 Some(first) => {
                     let first_line = &self.lines[*first];
@@ -221,7 +234,8 @@ impl<'a> Evaluator<'a> {
                     self.results[index] = Some(LineResult::Error);
                 }
                 None => {
-                    self.definitions.insert(definition.name.text.as_str(), index);
+                    self.definitions
+                        .insert(definition.name.text.as_str(), index);
                 }
             }
         }
@@ -236,10 +250,17 @@ impl<'a> Evaluator<'a> {
                 _ => None,
             })
             .collect();
-        let Some(first) = members.iter().min().copied() else { return };
+        let Some(first) = members.iter().min().copied() else {
+            return;
+        };
         if let LineKind::Definition(definition) = &self.lines[first].kind {
-            let mut diagnostic =
-                EvalError::new(EvalErrorKind::Cycle { path: names.clone() }, definition.name.span).to_diagnostic();
+            let mut diagnostic = EvalError::new(
+                EvalErrorKind::Cycle {
+                    path: names.clone(),
+                },
+                definition.name.span,
+            )
+            .to_diagnostic();
             for member in members.iter().filter(|member| **member != first) {
                 if let LineKind::Definition(other) = &self.lines[*member].kind {
                     diagnostic = diagnostic.with_label(other.name.span, "part of the cycle");
@@ -254,7 +275,9 @@ impl<'a> Evaluator<'a> {
     }
 
     fn first_failed_dependency(&self, line_index: usize) -> Option<String> {
-        let LineKind::Definition(definition) = &self.lines[line_index].kind else { return None };
+        let LineKind::Definition(definition) = &self.lines[line_index].kind else {
+            return None;
+        };
         let mut cause = None;
         definition.expression.for_each_name(&mut |name, _| {
             if cause.is_none() {
@@ -269,11 +292,18 @@ impl<'a> Evaluator<'a> {
     }
 
     fn evaluate_definition(&mut self, index: usize) {
-        let LineKind::Definition(definition) = &self.lines[index].kind else { return };
+        let LineKind::Definition(definition) = &self.lines[index].kind else {
+            return;
+        };
         let outcome = self
             .expression(&definition.expression)
             .and_then(|quantity| {
-                self.shown(quantity, definition.display_unit.as_ref(), &definition.expression).map_err(Failure::from)
+                self.shown(
+                    quantity,
+                    definition.display_unit.as_ref(),
+                    &definition.expression,
+                )
+                .map_err(Failure::from)
             });
         self.settle(index, outcome);
     }
@@ -287,7 +317,8 @@ impl<'a> Evaluator<'a> {
             LineKind::Invalid | LineKind::Definition(_) => LineResult::Error,
             LineKind::Display(display) => {
                 let outcome = self.expression(&display.expression).and_then(|quantity| {
-                    self.shown(quantity, display.display_unit.as_ref(), &display.expression).map_err(Failure::from)
+                    self.shown(quantity, display.display_unit.as_ref(), &display.expression)
+                        .map_err(Failure::from)
                 });
                 return self.settle(index, outcome);
             }
@@ -331,9 +362,10 @@ impl<'a> Evaluator<'a> {
             .zip(self.results)
             .map(|(line, result)| {
                 let (name, expression) = match &line.kind {
-                    LineKind::Definition(definition) => {
-                        (Some(definition.name.text.clone()), text_of(source, definition.expression.span))
-                    }
+                    LineKind::Definition(definition) => (
+                        Some(definition.name.text.clone()),
+                        text_of(source, definition.expression.span),
+                    ),
                     LineKind::Display(display) => (None, text_of(source, display.expression.span)),
                     LineKind::Check(_) | LineKind::Invalid => {
                         (None, text_of(source, line.span).trim().to_string())
@@ -351,7 +383,11 @@ impl<'a> Evaluator<'a> {
             .collect();
         let mut diagnostics = self.diagnostics;
         diagnostics.sort_by_key(|diagnostic| diagnostic.span.start);
-        Evaluation { lines, diagnostics, provenance: self.provenance }
+        Evaluation {
+            lines,
+            diagnostics,
+            provenance: self.provenance,
+        }
     }
 
     // ----- expressions -----
@@ -359,14 +395,21 @@ impl<'a> Evaluator<'a> {
     fn expression(&mut self, expression: &'a Expression) -> Result<Quantity, Failure> {
         let span = expression.span;
         let quantity = match &expression.kind {
-            ExpressionKind::Quantity { digits, unit } => self.literal(digits, unit.as_ref(), span)?,
+            ExpressionKind::Quantity { digits, unit } => {
+                self.literal(digits, unit.as_ref(), span)?
+            }
             ExpressionKind::Name(name) => self.name(name, span)?,
-            ExpressionKind::Call { function, arguments } => {
+            ExpressionKind::Call {
+                function,
+                arguments,
+            } => {
                 let Some(callee) = self.library.function(&function.text) else {
                     let kind = if self.definitions.contains_key(function.text.as_str())
                         || self.library.constant(&function.text).is_some()
                     {
-                        EvalErrorKind::NameCalledAsFunction { name: function.text.clone() }
+                        EvalErrorKind::NameCalledAsFunction {
+                            name: function.text.clone(),
+                        }
                     } else {
                         EvalErrorKind::UnknownFunction {
                             name: function.text.clone(),
@@ -379,15 +422,26 @@ impl<'a> Evaluator<'a> {
                 for argument in arguments {
                     values.push(self.expression(argument)?);
                 }
-                callee.call(&values, &mut self.provenance).map_err(|error| {
-                    let at = match &error {
-                        CallError::WrongDimension { argument, .. } => Some(*argument),
-                        CallError::Domain { argument, .. } | CallError::OutOfRange { argument, .. } => *argument,
-                        CallError::ArgumentCount { .. } => None,
-                    };
-                    let error_span = at.and_then(|index| arguments.get(index)).map_or(span, |argument| argument.span);
-                    EvalError::new(EvalErrorKind::Call { function: function.text.clone(), error }, error_span)
-                })?
+                callee
+                    .call(&values, &mut self.provenance)
+                    .map_err(|error| {
+                        let at = match &error {
+                            CallError::WrongDimension { argument, .. } => Some(*argument),
+                            CallError::Domain { argument, .. }
+                            | CallError::OutOfRange { argument, .. } => *argument,
+                            CallError::ArgumentCount { .. } => None,
+                        };
+                        let error_span = at
+                            .and_then(|index| arguments.get(index))
+                            .map_or(span, |argument| argument.span);
+                        EvalError::new(
+                            EvalErrorKind::Call {
+                                function: function.text.clone(),
+                                error,
+                            },
+                            error_span,
+                        )
+                    })?
             }
             ExpressionKind::Negate(inner) => {
                 let value = self.expression(inner)?;
@@ -395,9 +449,17 @@ impl<'a> Evaluator<'a> {
                     TemperatureKind::Difference => TemperatureKind::Difference,
                     _ => TemperatureKind::Unspecified,
                 };
-                Quantity { value: -value.value, temperature, ..value }
+                Quantity {
+                    value: -value.value,
+                    temperature,
+                    ..value
+                }
             }
-            ExpressionKind::Binary { operator, left, right } => {
+            ExpressionKind::Binary {
+                operator,
+                left,
+                right,
+            } => {
                 let left_value = self.expression(left)?;
                 let right_value = self.expression(right)?;
                 binary(*operator, left_value, right_value, span, right.span)?
@@ -409,7 +471,12 @@ impl<'a> Evaluator<'a> {
         Ok(quantity)
     }
 
-    fn literal(&mut self, digits: &str, unit: Option<&'a UnitExpression>, span: Span) -> Result<Quantity, Failure> {
+    fn literal(
+        &mut self,
+        digits: &str,
+        unit: Option<&'a UnitExpression>,
+        span: Span,
+    ) -> Result<Quantity, Failure> {
         let number: f64 = digits.parse().unwrap_or(f64::INFINITY);
         let Some(unit_expression) = unit else {
             return Ok(Quantity::dimensionless(number));
@@ -424,7 +491,11 @@ impl<'a> Evaluator<'a> {
         if !value.is_finite() {
             return Err(EvalError::new(EvalErrorKind::NotFinite, span).into());
         }
-        Ok(Quantity { value, dimension: unit.dimension, temperature })
+        Ok(Quantity {
+            value,
+            dimension: unit.dimension,
+            temperature,
+        })
     }
 
     fn name(&mut self, name: &str, span: Span) -> Result<Quantity, Failure> {
@@ -438,9 +509,14 @@ impl<'a> Evaluator<'a> {
             return Ok(constant.quantity);
         }
         let kind = if self.library.function(name).is_some() {
-            EvalErrorKind::FunctionUsedAsValue { name: name.to_string() }
+            EvalErrorKind::FunctionUsedAsValue {
+                name: name.to_string(),
+            }
         } else {
-            EvalErrorKind::UnknownName { name: name.to_string(), suggestion: self.suggest(name) }
+            EvalErrorKind::UnknownName {
+                name: name.to_string(),
+                suggestion: self.suggest(name),
+            }
         };
         Err(EvalError::new(kind, span).into())
     }
@@ -463,7 +539,8 @@ impl<'a> Evaluator<'a> {
             return Ok(unit.clone());
         }
         let unit = resolve_unit(expression)?;
-        self.unit_cache.insert(expression.text.as_str(), unit.clone());
+        self.unit_cache
+            .insert(expression.text.as_str(), unit.clone());
         Ok(unit)
     }
 
@@ -477,23 +554,42 @@ impl<'a> Evaluator<'a> {
     ) -> Result<ShownValue, EvalError> {
         let written = match (&expression.kind, declared) {
             (_, Some(declared)) => Some(declared),
-            (ExpressionKind::Quantity { unit: Some(unit), .. }, None) => Some(unit),
+            (
+                ExpressionKind::Quantity {
+                    unit: Some(unit), ..
+                },
+                None,
+            ) => Some(unit),
             _ => None,
         };
         let Some(unit_expression) = written else {
-            return Ok(ShownValue { quantity, unit: quantity.dimension.preferred_si_unit(), value: quantity.value });
+            return Ok(ShownValue {
+                quantity,
+                unit: quantity.dimension.preferred_si_unit(),
+                value: quantity.value,
+            });
         };
         let unit = self.unit(unit_expression)?;
         show_in(quantity, &unit, &unit_expression.text, unit_expression.span)
     }
 
     /// The unit a check shows both sides in: the right side's if it has one of its own.
-    fn shown_for_check(&mut self, quantity: Quantity, sides: [&'a Expression; 2]) -> Result<ShownValue, EvalError> {
+    fn shown_for_check(
+        &mut self,
+        quantity: Quantity,
+        sides: [&'a Expression; 2],
+    ) -> Result<ShownValue, EvalError> {
         for side in sides {
             match &side.kind {
-                ExpressionKind::Quantity { unit: Some(_), .. } => return self.shown(quantity, None, side),
+                ExpressionKind::Quantity { unit: Some(_), .. } => {
+                    return self.shown(quantity, None, side)
+                }
                 ExpressionKind::Name(name) => {
-                    if let Some(Slot::Ready(shown)) = self.definitions.get(name.as_str()).map(|index| &self.slots[*index]) {
+                    if let Some(Slot::Ready(shown)) = self
+                        .definitions
+                        .get(name.as_str())
+                        .map(|index| &self.slots[*index])
+                    {
                         let text = shown.unit.clone();
                         if let Ok(expression) = crate::syntax::parse_unit(&text) {
                             if let Ok(unit) = resolve_unit(&expression) {
@@ -507,7 +603,11 @@ impl<'a> Evaluator<'a> {
                 _ => {}
             }
         }
-        Ok(ShownValue { quantity, unit: quantity.dimension.preferred_si_unit(), value: quantity.value })
+        Ok(ShownValue {
+            quantity,
+            unit: quantity.dimension.preferred_si_unit(),
+            value: quantity.value,
+        })
     }
 
     fn check(&mut self, check: &'a Check) -> Result<CheckOutcome, Failure> {
@@ -532,7 +632,9 @@ impl<'a> Evaluator<'a> {
             Some(tolerance) => {
                 let value = self.expression(tolerance)?;
                 if value.value < 0.0 {
-                    return Err(EvalError::new(EvalErrorKind::NegativeTolerance, tolerance.span).into());
+                    return Err(
+                        EvalError::new(EvalErrorKind::NegativeTolerance, tolerance.span).into(),
+                    );
                 }
                 if value.dimension.is_dimensionless() {
                     value.value * right.value.abs()
@@ -540,7 +642,10 @@ impl<'a> Evaluator<'a> {
                     value.value
                 } else {
                     return Err(EvalError::new(
-                        EvalErrorKind::ToleranceDimension { found: value.dimension, sides: right.dimension },
+                        EvalErrorKind::ToleranceDimension {
+                            found: value.dimension,
+                            sides: right.dimension,
+                        },
                         tolerance.span,
                     )
                     .into());
@@ -563,7 +668,10 @@ impl<'a> Evaluator<'a> {
             comparison: check.comparison,
             left: left_shown,
             right: right_shown,
-            tolerance: check.tolerance.as_ref().map(|tolerance| text_of(self.source, tolerance.span)),
+            tolerance: check
+                .tolerance
+                .as_ref()
+                .map(|tolerance| text_of(self.source, tolerance.span)),
             message: check.message.clone(),
         })
     }
@@ -577,28 +685,46 @@ fn text_of(source: &str, span: Span) -> String {
 /// compound treats degrees as differences.
 pub fn resolve_unit(expression: &UnitExpression) -> Result<Unit, EvalError> {
     let at = |error: UnitError, span: Span| match error {
-        UnitError::Unknown { symbol, suggestions } => {
-            EvalError::new(EvalErrorKind::UnknownUnit { symbol, suggestions }, span)
-        }
+        UnitError::Unknown {
+            symbol,
+            suggestions,
+        } => EvalError::new(
+            EvalErrorKind::UnknownUnit {
+                symbol,
+                suggestions,
+            },
+            span,
+        ),
         UnitError::ExponentOverflow => EvalError::new(EvalErrorKind::ExponentOverflow, span),
     };
     match &expression.kind {
-        UnitExpressionKind::Symbol(symbol) => Unit::lookup(symbol).map_err(|error| at(error, expression.span)),
+        UnitExpressionKind::Symbol(symbol) => {
+            Unit::lookup(symbol).map_err(|error| at(error, expression.span))
+        }
         UnitExpressionKind::One => Ok(Unit::dimensionless()),
-        UnitExpressionKind::Product(left, right) => {
-            resolve_unit(left)?.multiply(&resolve_unit(right)?).map_err(|error| at(error, expression.span))
-        }
-        UnitExpressionKind::Quotient(left, right) => {
-            resolve_unit(left)?.divide(&resolve_unit(right)?).map_err(|error| at(error, expression.span))
-        }
-        UnitExpressionKind::Power { base, numerator, denominator } => resolve_unit(base)?
+        UnitExpressionKind::Product(left, right) => resolve_unit(left)?
+            .multiply(&resolve_unit(right)?)
+            .map_err(|error| at(error, expression.span)),
+        UnitExpressionKind::Quotient(left, right) => resolve_unit(left)?
+            .divide(&resolve_unit(right)?)
+            .map_err(|error| at(error, expression.span)),
+        UnitExpressionKind::Power {
+            base,
+            numerator,
+            denominator,
+        } => resolve_unit(base)?
             .power(Exponent::new(*numerator, *denominator))
             .map_err(|error| at(error, expression.span)),
     }
 }
 
 /// A quantity in a given unit, with the dimension and temperature rules enforced.
-pub fn show_in(quantity: Quantity, unit: &Unit, unit_text: &str, span: Span) -> Result<ShownValue, EvalError> {
+pub fn show_in(
+    quantity: Quantity,
+    unit: &Unit,
+    unit_text: &str,
+    span: Span,
+) -> Result<ShownValue, EvalError> {
     if unit.dimension != quantity.dimension {
         return Err(EvalError::new(
             EvalErrorKind::DisplayUnitMismatch {
@@ -610,12 +736,26 @@ pub fn show_in(quantity: Quantity, unit: &Unit, unit_text: &str, span: Span) -> 
         ));
     }
     if unit.is_absolute_temperature() && quantity.is_temperature_difference() {
-        return Err(EvalError::new(EvalErrorKind::DifferenceShownAsAbsolute { unit: unit_text.to_string() }, span));
+        return Err(EvalError::new(
+            EvalErrorKind::DifferenceShownAsAbsolute {
+                unit: unit_text.to_string(),
+            },
+            span,
+        ));
     }
     if unit.temperature == TemperatureRole::Difference && quantity.is_absolute_temperature() {
-        return Err(EvalError::new(EvalErrorKind::AbsoluteShownAsDifference { unit: unit_text.to_string() }, span));
+        return Err(EvalError::new(
+            EvalErrorKind::AbsoluteShownAsDifference {
+                unit: unit_text.to_string(),
+            },
+            span,
+        ));
     }
-    Ok(ShownValue { quantity, unit: unit_text.to_string(), value: unit.from_si(quantity.value) })
+    Ok(ShownValue {
+        quantity,
+        unit: unit_text.to_string(),
+        value: unit.from_si(quantity.value),
+    })
 }
 
 fn binary(
@@ -632,7 +772,11 @@ fn binary(
         BinaryOperator::Add | BinaryOperator::Subtract => {
             let adding = operator == BinaryOperator::Add;
             if left.dimension != right.dimension {
-                let operation = if adding { Operation::Add } else { Operation::Subtract };
+                let operation = if adding {
+                    Operation::Add
+                } else {
+                    Operation::Subtract
+                };
                 return Err(error(EvalErrorKind::DimensionMismatch {
                     operation,
                     left: left.dimension,
@@ -641,10 +785,14 @@ fn binary(
             }
             let temperature = if left.dimension.is_temperature() {
                 match (adding, left.temperature, right.temperature) {
-                    (true, Absolute, Absolute) => return Err(error(EvalErrorKind::AbsoluteTemperatureSum)),
+                    (true, Absolute, Absolute) => {
+                        return Err(error(EvalErrorKind::AbsoluteTemperatureSum))
+                    }
                     (true, Absolute, _) | (true, _, Absolute) => Absolute,
                     (false, Absolute | Unspecified, Absolute) => Difference,
-                    (false, Difference, Absolute) => return Err(error(EvalErrorKind::AbsoluteFromDifference)),
+                    (false, Difference, Absolute) => {
+                        return Err(error(EvalErrorKind::AbsoluteFromDifference))
+                    }
                     (false, Absolute, _) => Absolute,
                     (_, Difference, _) | (_, _, Difference) => Difference,
                     _ => Unspecified,
@@ -652,11 +800,22 @@ fn binary(
             } else {
                 Unspecified
             };
-            let value = if adding { left.value + right.value } else { left.value - right.value };
-            Ok(Quantity { value, dimension: left.dimension, temperature })
+            let value = if adding {
+                left.value + right.value
+            } else {
+                left.value - right.value
+            };
+            Ok(Quantity {
+                value,
+                dimension: left.dimension,
+                temperature,
+            })
         }
         BinaryOperator::Multiply => {
-            let dimension = left.dimension.multiply(&right.dimension).map_err(overflow)?;
+            let dimension = left
+                .dimension
+                .multiply(&right.dimension)
+                .map_err(overflow)?;
             Ok(Quantity {
                 value: left.value * right.value,
                 dimension,
@@ -668,22 +827,35 @@ fn binary(
                 return Err(EvalError::new(EvalErrorKind::DivisionByZero, right_span));
             }
             let dimension = left.dimension.divide(&right.dimension).map_err(overflow)?;
-            let temperature =
-                if right.dimension.is_dimensionless() { scaled_temperature(&left, &right) } else { Unspecified };
-            Ok(Quantity { value: left.value / right.value, dimension, temperature })
+            let temperature = if right.dimension.is_dimensionless() {
+                scaled_temperature(&left, &right)
+            } else {
+                Unspecified
+            };
+            Ok(Quantity {
+                value: left.value / right.value,
+                dimension,
+                temperature,
+            })
         }
         BinaryOperator::Power => {
             if !right.dimension.is_dimensionless() {
                 return Err(EvalError::new(
-                    EvalErrorKind::ExponentNotDimensionless { found: right.dimension },
+                    EvalErrorKind::ExponentNotDimensionless {
+                        found: right.dimension,
+                    },
                     right_span,
                 ));
             }
             let dimension = if left.dimension.is_dimensionless() {
                 left.dimension
             } else {
-                let exponent = simple_fraction(right.value)
-                    .ok_or_else(|| EvalError::new(EvalErrorKind::ExponentNotRational { value: right.value }, right_span))?;
+                let exponent = simple_fraction(right.value).ok_or_else(|| {
+                    EvalError::new(
+                        EvalErrorKind::ExponentNotRational { value: right.value },
+                        right_span,
+                    )
+                })?;
                 left.dimension.power(exponent).map_err(overflow)?
             };
             if left.value == 0.0 && right.value < 0.0 {

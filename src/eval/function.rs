@@ -47,7 +47,11 @@ pub trait Function: Sync {
     fn formulations(&self) -> &'static [&'static Formulation] {
         &[]
     }
-    fn call(&self, arguments: &[Quantity], provenance: &mut Provenance) -> Result<Quantity, CallError>;
+    fn call(
+        &self,
+        arguments: &[Quantity],
+        provenance: &mut Provenance,
+    ) -> Result<Quantity, CallError>;
 }
 
 /// A named constant.
@@ -72,21 +76,43 @@ pub trait Library {
 /// Why a call failed. `argument` indexes the call's arguments so the evaluator can point at it.
 #[derive(Debug, Clone, PartialEq)]
 pub enum CallError {
-    ArgumentCount { expected: &'static str, found: usize },
-    WrongDimension { argument: usize, parameter: &'static str, expected: Dimension, found: Dimension },
+    ArgumentCount {
+        expected: &'static str,
+        found: usize,
+    },
+    WrongDimension {
+        argument: usize,
+        parameter: &'static str,
+        expected: Dimension,
+        found: Dimension,
+    },
     /// Outside the mathematical or physical domain (ln of a negative, porosity above 1).
-    Domain { argument: Option<usize>, message: String },
+    Domain {
+        argument: Option<usize>,
+        message: String,
+    },
     /// Outside a formulation's published validity range; the message names the range.
-    OutOfRange { argument: Option<usize>, message: String },
+    OutOfRange {
+        argument: Option<usize>,
+        message: String,
+    },
 }
 
 impl fmt::Display for CallError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             CallError::ArgumentCount { expected, found } => {
-                write!(formatter, "takes {expected} argument(s), but {found} were given")
+                write!(
+                    formatter,
+                    "takes {expected} argument(s), but {found} were given"
+                )
             }
-            CallError::WrongDimension { parameter, expected, found, .. } => write!(
+            CallError::WrongDimension {
+                parameter,
+                expected,
+                found,
+                ..
+            } => write!(
                 formatter,
                 "argument `{parameter}` must be {}, found {}",
                 describe_dimension(expected),
@@ -123,7 +149,10 @@ pub fn expect_argument_count(
     expected: &'static str,
 ) -> Result<(), CallError> {
     if arguments.len() < minimum || arguments.len() > maximum {
-        return Err(CallError::ArgumentCount { expected, found: arguments.len() });
+        return Err(CallError::ArgumentCount {
+            expected,
+            found: arguments.len(),
+        });
     }
     Ok(())
 }
@@ -137,7 +166,12 @@ pub fn expect_dimension(
 ) -> Result<f64, CallError> {
     let found = arguments[argument].dimension;
     if found != expected {
-        return Err(CallError::WrongDimension { argument, parameter, expected, found });
+        return Err(CallError::WrongDimension {
+            argument,
+            parameter,
+            expected,
+            found,
+        });
     }
     Ok(arguments[argument].value)
 }

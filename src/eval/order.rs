@@ -24,7 +24,10 @@ pub fn dependency_order(dependencies: &[Vec<usize>]) -> Order {
             dependents[need].push(node);
         }
     }
-    let mut ready: Vec<usize> = (0..count).rev().filter(|node| waiting_on[*node] == 0).collect();
+    let mut ready: Vec<usize> = (0..count)
+        .rev()
+        .filter(|node| waiting_on[*node] == 0)
+        .collect();
     let mut sequence = Vec::with_capacity(count);
     while let Some(node) = ready.pop() {
         sequence.push(node);
@@ -37,12 +40,20 @@ pub fn dependency_order(dependencies: &[Vec<usize>]) -> Order {
     }
     let blocked: Vec<usize> = (0..count).filter(|node| waiting_on[*node] > 0).collect();
     let cycles = find_cycles(dependencies, &waiting_on, &blocked);
-    Order { sequence, cycles, blocked }
+    Order {
+        sequence,
+        cycles,
+        blocked,
+    }
 }
 
 /// Every blocked node is in a cycle or depends on one; walking blocked dependencies from each
 /// node not yet explained must revisit a node, and the loop from that node is a cycle.
-fn find_cycles(dependencies: &[Vec<usize>], waiting_on: &[usize], blocked: &[usize]) -> Vec<Vec<usize>> {
+fn find_cycles(
+    dependencies: &[Vec<usize>],
+    waiting_on: &[usize],
+    blocked: &[usize],
+) -> Vec<Vec<usize>> {
     let mut in_reported_cycle = vec![false; dependencies.len()];
     let mut cycles = Vec::new();
     for &start in blocked {
@@ -55,7 +66,10 @@ fn find_cycles(dependencies: &[Vec<usize>], waiting_on: &[usize], blocked: &[usi
         loop {
             if let Some(&position) = position_in_path.get(&node) {
                 let cycle: Vec<usize> = path[position..].to_vec();
-                if !cycle.iter().any(|member: &usize| in_reported_cycle[*member]) {
+                if !cycle
+                    .iter()
+                    .any(|member: &usize| in_reported_cycle[*member])
+                {
                     for member in &cycle {
                         in_reported_cycle[*member] = true;
                     }
@@ -68,7 +82,10 @@ fn find_cycles(dependencies: &[Vec<usize>], waiting_on: &[usize], blocked: &[usi
             }
             position_in_path.insert(node, path.len());
             path.push(node);
-            match dependencies[node].iter().find(|need| waiting_on[**need] > 0) {
+            match dependencies[node]
+                .iter()
+                .find(|need| waiting_on[**need] > 0)
+            {
                 Some(next) => node = *next,
                 None => break,
             }

@@ -24,7 +24,11 @@ pub struct Quantity {
 
 impl Quantity {
     pub fn new(value: f64, dimension: Dimension) -> Quantity {
-        Quantity { value, dimension, temperature: TemperatureKind::Unspecified }
+        Quantity {
+            value,
+            dimension,
+            temperature: TemperatureKind::Unspecified,
+        }
     }
 
     pub fn dimensionless(value: f64) -> Quantity {
@@ -32,7 +36,10 @@ impl Quantity {
     }
 
     pub fn with_temperature(self, temperature: TemperatureKind) -> Quantity {
-        Quantity { temperature, ..self }
+        Quantity {
+            temperature,
+            ..self
+        }
     }
 
     pub fn is_absolute_temperature(&self) -> bool {

@@ -7,16 +7,78 @@ use crate::eval::{Provenance, Quantity};
 use crate::units::{Dimension, Exponent};
 
 pub const FUNCTIONS: &[(&str, Builtin)] = &[
-    ("sqrt", Builtin::new("sqrt(x)", "square root; halves every dimension exponent", sqrt)),
-    ("exp", Builtin::new("exp(x)", "e to the power x; x dimensionless", exp)),
-    ("ln", Builtin::new("ln(x)", "natural logarithm; x dimensionless and positive", ln)),
-    ("log10", Builtin::new("log10(x)", "base-10 logarithm; x dimensionless and positive", log10)),
-    ("abs", Builtin::new("abs(x)", "absolute value, any dimension", abs)),
-    ("min", Builtin::new("min(x, y, …)", "smallest argument; all of one dimension", min)),
-    ("max", Builtin::new("max(x, y, …)", "largest argument; all of one dimension", max)),
-    ("sin", Builtin::new("sin(x)", "sine; x an angle (dimensionless, radians or `deg`)", sin)),
-    ("cos", Builtin::new("cos(x)", "cosine; x an angle (dimensionless, radians or `deg`)", cos)),
-    ("tan", Builtin::new("tan(x)", "tangent; x an angle (dimensionless, radians or `deg`)", tan)),
+    (
+        "sqrt",
+        Builtin::new(
+            "sqrt(x)",
+            "square root; halves every dimension exponent",
+            sqrt,
+        ),
+    ),
+    (
+        "exp",
+        Builtin::new("exp(x)", "e to the power x; x dimensionless", exp),
+    ),
+    (
+        "ln",
+        Builtin::new(
+            "ln(x)",
+            "natural logarithm; x dimensionless and positive",
+            ln,
+        ),
+    ),
+    (
+        "log10",
+        Builtin::new(
+            "log10(x)",
+            "base-10 logarithm; x dimensionless and positive",
+            log10,
+        ),
+    ),
+    (
+        "abs",
+        Builtin::new("abs(x)", "absolute value, any dimension", abs),
+    ),
+    (
+        "min",
+        Builtin::new(
+            "min(x, y, …)",
+            "smallest argument; all of one dimension",
+            min,
+        ),
+    ),
+    (
+        "max",
+        Builtin::new(
+            "max(x, y, …)",
+            "largest argument; all of one dimension",
+            max,
+        ),
+    ),
+    (
+        "sin",
+        Builtin::new(
+            "sin(x)",
+            "sine; x an angle (dimensionless, radians or `deg`)",
+            sin,
+        ),
+    ),
+    (
+        "cos",
+        Builtin::new(
+            "cos(x)",
+            "cosine; x an angle (dimensionless, radians or `deg`)",
+            cos,
+        ),
+    ),
+    (
+        "tan",
+        Builtin::new(
+            "tan(x)",
+            "tangent; x an angle (dimensionless, radians or `deg`)",
+            tan,
+        ),
+    ),
 ];
 
 fn one_argument(arguments: &[Quantity]) -> Result<Quantity, CallError> {
@@ -38,7 +100,10 @@ fn dimensionless_argument(arguments: &[Quantity]) -> Result<f64, CallError> {
 }
 
 fn domain(message: &str) -> CallError {
-    CallError::Domain { argument: Some(0), message: message.to_string() }
+    CallError::Domain {
+        argument: Some(0),
+        message: message.to_string(),
+    }
 }
 
 fn sqrt(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
@@ -54,13 +119,20 @@ fn sqrt(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallErro
 }
 
 fn exp(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
-    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.exp()))
+    Ok(Quantity::dimensionless(
+        dimensionless_argument(arguments)?.exp(),
+    ))
 }
 
-fn positive_logarithm(arguments: &[Quantity], logarithm: fn(f64) -> f64) -> Result<Quantity, CallError> {
+fn positive_logarithm(
+    arguments: &[Quantity],
+    logarithm: fn(f64) -> f64,
+) -> Result<Quantity, CallError> {
     let value = dimensionless_argument(arguments)?;
     if value <= 0.0 {
-        return Err(domain("the logarithm of zero or a negative number is undefined"));
+        return Err(domain(
+            "the logarithm of zero or a negative number is undefined",
+        ));
     }
     Ok(Quantity::dimensionless(logarithm(value)))
 }
@@ -75,10 +147,16 @@ fn log10(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallErr
 
 fn abs(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
     let argument = one_argument(arguments)?;
-    Ok(Quantity { value: argument.value.abs(), ..argument })
+    Ok(Quantity {
+        value: argument.value.abs(),
+        ..argument
+    })
 }
 
-fn extreme(arguments: &[Quantity], pick_right: fn(f64, f64) -> bool) -> Result<Quantity, CallError> {
+fn extreme(
+    arguments: &[Quantity],
+    pick_right: fn(f64, f64) -> bool,
+) -> Result<Quantity, CallError> {
     expect_argument_count(arguments, 1, usize::MAX, "1 or more")?;
     let mut best = arguments[0];
     for (index, argument) in arguments.iter().enumerate().skip(1) {
@@ -106,13 +184,19 @@ fn max(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError
 }
 
 fn sin(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
-    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.sin()))
+    Ok(Quantity::dimensionless(
+        dimensionless_argument(arguments)?.sin(),
+    ))
 }
 
 fn cos(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
-    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.cos()))
+    Ok(Quantity::dimensionless(
+        dimensionless_argument(arguments)?.cos(),
+    ))
 }
 
 fn tan(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
-    Ok(Quantity::dimensionless(dimensionless_argument(arguments)?.tan()))
+    Ok(Quantity::dimensionless(
+        dimensionless_argument(arguments)?.tan(),
+    ))
 }

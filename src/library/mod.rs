@@ -24,7 +24,12 @@ pub struct Builtin {
 
 impl Builtin {
     pub const fn new(signature: &'static str, summary: &'static str, body: Body) -> Builtin {
-        Builtin { signature, summary, formulations: &[], body }
+        Builtin {
+            signature,
+            summary,
+            formulations: &[],
+            body,
+        }
     }
 
     pub const fn citing(mut self, formulations: &'static [&'static Formulation]) -> Builtin {
@@ -46,7 +51,11 @@ impl Function for Builtin {
         self.formulations
     }
 
-    fn call(&self, arguments: &[Quantity], provenance: &mut Provenance) -> Result<Quantity, CallError> {
+    fn call(
+        &self,
+        arguments: &[Quantity],
+        provenance: &mut Provenance,
+    ) -> Result<Quantity, CallError> {
         (self.body)(arguments, provenance)
     }
 }
@@ -67,14 +76,23 @@ impl Builtins {
     pub fn standard() -> &'static Builtins {
         static BUILTINS: OnceLock<Builtins> = OnceLock::new();
         BUILTINS.get_or_init(|| Builtins {
-            functions: all_functions().map(|(name, builtin)| (*name, builtin)).collect(),
-            constants: constants::constants().iter().map(|constant| (constant.name, constant)).collect(),
+            functions: all_functions()
+                .map(|(name, builtin)| (*name, builtin))
+                .collect(),
+            constants: constants::constants()
+                .iter()
+                .map(|constant| (constant.name, constant))
+                .collect(),
         })
     }
 
     /// Functions sorted by name, for listings.
     pub fn functions_sorted(&self) -> Vec<(&'static str, &'static Builtin)> {
-        let mut list: Vec<_> = self.functions.iter().map(|(name, builtin)| (*name, *builtin)).collect();
+        let mut list: Vec<_> = self
+            .functions
+            .iter()
+            .map(|(name, builtin)| (*name, *builtin))
+            .collect();
         list.sort_by_key(|(name, _)| *name);
         list
     }
@@ -88,7 +106,9 @@ impl Builtins {
 
 impl Library for Builtins {
     fn function(&self, name: &str) -> Option<&dyn Function> {
-        self.functions.get(name).map(|builtin| *builtin as &dyn Function)
+        self.functions
+            .get(name)
+            .map(|builtin| *builtin as &dyn Function)
     }
 
     fn constant(&self, name: &str) -> Option<&Constant> {
@@ -96,6 +116,10 @@ impl Library for Builtins {
     }
 
     fn names(&self) -> Vec<&'static str> {
-        self.functions.keys().chain(self.constants.keys()).copied().collect()
+        self.functions
+            .keys()
+            .chain(self.constants.keys())
+            .copied()
+            .collect()
     }
 }

@@ -77,7 +77,11 @@ pub fn value_json(shown: &ShownValue) -> ValueJson {
     }
 }
 
-pub fn diagnostics_json(file: Option<&str>, source: &str, diagnostics: &[Diagnostic]) -> Vec<DiagnosticJson> {
+pub fn diagnostics_json(
+    file: Option<&str>,
+    source: &str,
+    diagnostics: &[Diagnostic],
+) -> Vec<DiagnosticJson> {
     diagnostics
         .iter()
         .map(|diagnostic| {

@@ -22,7 +22,8 @@ pub fn format_significant(value: f64, digits: u32) -> String {
     let Ok(mantissa) = Decimal::from_str(mantissa_text) else {
         return format!("{value:.*e}", (digits - 1) as usize);
     };
-    let mut rounded = mantissa.round_dp_with_strategy(digits - 1, RoundingStrategy::MidpointAwayFromZero);
+    let mut rounded =
+        mantissa.round_dp_with_strategy(digits - 1, RoundingStrategy::MidpointAwayFromZero);
     if rounded.abs() >= Decimal::TEN {
         rounded /= Decimal::TEN;
         exponent += 1;
@@ -31,7 +32,11 @@ pub fn format_significant(value: f64, digits: u32) -> String {
     if plain {
         let mut scaled = rounded;
         for _ in 0..exponent.unsigned_abs() {
-            scaled = if exponent > 0 { scaled * Decimal::TEN } else { scaled / Decimal::TEN };
+            scaled = if exponent > 0 {
+                scaled * Decimal::TEN
+            } else {
+                scaled / Decimal::TEN
+            };
         }
         let decimals = (i64::from(digits) - 1 - i64::from(exponent)).max(0) as u32;
         let text = scaled.round_dp(decimals).normalize().to_string();
@@ -45,7 +50,11 @@ mod tests {
     use super::format_significant;
 
     fn check(value: f64, digits: u32, expected: &str) {
-        assert_eq!(format_significant(value, digits), expected, "{value} to {digits}");
+        assert_eq!(
+            format_significant(value, digits),
+            expected,
+            "{value} to {digits}"
+        );
     }
 
     #[test]

@@ -16,6 +16,22 @@ pub fn locate(source: &str, offset: usize) -> (usize, usize) {
     (line, column)
 }
 
+/// Lines longer than this (in bytes) are not drawn in snippets.
+const LONGEST_LINE_SHOWN: usize = 1_000;
+
+fn line_length_at(source: &str, offset: usize) -> usize {
+    let offset = offset.min(source.len());
+    let start = source
+        .get(..offset)
+        .and_then(|before| before.rfind('\n'))
+        .map_or(0, |position| position + 1);
+    let end = source
+        .get(offset..)
+        .and_then(|after| after.find('\n'))
+        .map_or(source.len(), |position| offset + position);
+    end - start
+}
+
 /// Writes every diagnostic as a snippet of `source`.
 pub fn write_diagnostics(
     writer: &mut dyn WriteColor,
@@ -34,15 +50,29 @@ pub fn write_diagnostics(
             let start = span.start.min(source.len());
             start..span.end.clamp(start, source.len())
         };
-        let mut labels = vec![Label::primary((), clamp(diagnostic.span))];
-        for (span, message) in &diagnostic.labels {
-            labels.push(Label::secondary((), clamp(*span)).with_message(message));
+        let mut notes = Vec::new();
+        let mut labels = Vec::new();
+        if line_length_at(source, diagnostic.span.start) > LONGEST_LINE_SHOWN {
+            // Drawing a huge line helps no one and is slow; say where it is instead.
+            let (line, column) = locate(source, diagnostic.span.start);
+            notes.push(format!(
+                "at {file_name}:{line}:{column} (line too long to show)"
+            ));
+        } else {
+            labels.push(Label::primary((), clamp(diagnostic.span)));
+            for (span, message) in &diagnostic.labels {
+                labels.push(Label::secondary((), clamp(*span)).with_message(message));
+            }
         }
-        let mut snippet = snippet.with_message(&diagnostic.message).with_labels(labels);
         if let Some(help) = &diagnostic.help {
-            snippet = snippet.with_notes(vec![format!("help: {help}")]);
+            notes.push(format!("help: {help}"));
         }
-        term::emit(writer, &config, &file, &snippet).map_err(|error| std::io::Error::other(error.to_string()))?;
+        let snippet = snippet
+            .with_message(&diagnostic.message)
+            .with_labels(labels)
+            .with_notes(notes);
+        term::emit(writer, &config, &file, &snippet)
+            .map_err(|error| std::io::Error::other(error.to_string()))?;
     }
     Ok(())
 }

@@ -20,11 +20,27 @@ enum Entry {
     Row(Row),
 }
 
+/// Longest expression text shown in a cell; longer text is cut with an ellipsis.
+const LONGEST_EXPRESSION: usize = 120;
+
+fn shortened(text: &str) -> String {
+    if text.chars().count() <= LONGEST_EXPRESSION {
+        return text.to_string();
+    }
+    let mut cut: String = text.chars().take(LONGEST_EXPRESSION - 1).collect();
+    cut.push('…');
+    cut
+}
+
 const HEADER: [&str; 5] = ["line", "name", "value", "unit", "expression"];
 
 /// A unit as shown in a cell: blank for a plain number.
 fn unit_cell(unit: &str) -> String {
-    if unit == "1" { String::new() } else { unit.to_string() }
+    if unit == "1" {
+        String::new()
+    } else {
+        unit.to_string()
+    }
 }
 
 fn with_unit(value: f64, unit: &str, digits: u32) -> String {
@@ -61,7 +77,7 @@ fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
                 name: line.name.clone().unwrap_or_default(),
                 value,
                 unit,
-                expression,
+                expression: shortened(&expression),
             })
         };
         match &line.result {
@@ -79,11 +95,18 @@ fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
                 unit: String::new(),
                 expression: check_text(check, digits),
             })),
-            LineResult::Error => entries.push(row("error".to_string(), String::new(), line.expression.clone())),
+            LineResult::Error => entries.push(row(
+                "error".to_string(),
+                String::new(),
+                line.expression.clone(),
+            )),
             LineResult::Skipped { because_of } => entries.push(row(
                 "-".to_string(),
                 String::new(),
-                format!("{}  (not evaluated: `{because_of}` has an error)", line.expression),
+                format!(
+                    "{}  (not evaluated: `{because_of}` has an error)",
+                    line.expression
+                ),
             )),
         }
     }
@@ -91,7 +114,11 @@ fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
 }
 
 /// Writes the results of one sheet in a text format (table, Markdown or CSV).
-pub fn write_sheet(out: &mut dyn Write, evaluation: &Evaluation, options: RenderOptions) -> io::Result<()> {
+pub fn write_sheet(
+    out: &mut dyn Write,
+    evaluation: &Evaluation,
+    options: RenderOptions,
+) -> io::Result<()> {
     let entries = entries(evaluation, options.digits);
     match options.format {
         Format::Csv => write_csv(out, &entries),
@@ -106,15 +133,29 @@ pub fn write_sheet(out: &mut dyn Write, evaluation: &Evaluation, options: Render
 
 fn write_table(out: &mut dyn Write, entries: &[Entry]) -> io::Result<()> {
     let mut table = Table::new();
-    table.load_preset(presets::UTF8_FULL_CONDENSED).set_content_arrangement(ContentArrangement::Disabled);
+    table
+        .load_preset(presets::UTF8_FULL_CONDENSED)
+        .set_content_arrangement(ContentArrangement::Disabled);
     table.set_header(HEADER);
     for entry in entries {
         match entry {
             Entry::Heading(text) => {
-                table.add_row(vec![String::new(), String::new(), String::new(), String::new(), format!("## {text}")]);
+                table.add_row(vec![
+                    String::new(),
+                    String::new(),
+                    String::new(),
+                    String::new(),
+                    format!("## {text}"),
+                ]);
             }
             Entry::Row(row) => {
-                table.add_row(vec![&row.line, &row.name, &row.value, &row.unit, &row.expression]);
+                table.add_row(vec![
+                    &row.line,
+                    &row.name,
+                    &row.value,
+                    &row.unit,
+                    &row.expression,
+                ]);
             }
         }
     }
@@ -177,10 +218,18 @@ fn write_sources(out: &mut dyn Write, evaluation: &Evaluation, format: Format) -
     if used.is_empty() {
         return Ok(());
     }
-    let bullet = if format == Format::Markdown { "- " } else { "  " };
+    let bullet = if format == Format::Markdown {
+        "- "
+    } else {
+        "  "
+    };
     writeln!(out, "\nFormulations used:")?;
     for formulation in used {
-        writeln!(out, "{bullet}{}: {} [valid: {}]", formulation.title, formulation.citation, formulation.validity)?;
+        writeln!(
+            out,
+            "{bullet}{}: {} [valid: {}]",
+            formulation.title, formulation.citation, formulation.validity
+        )?;
     }
     Ok(())
 }

@@ -99,11 +99,21 @@ pub struct Expression {
 pub enum ExpressionKind {
     /// A number literal with an optional unit; the digits are kept as written so that exact
     /// unit factors can be applied in decimal.
-    Quantity { digits: String, unit: Option<UnitExpression> },
+    Quantity {
+        digits: String,
+        unit: Option<UnitExpression>,
+    },
     Name(String),
-    Call { function: Name, arguments: Vec<Expression> },
+    Call {
+        function: Name,
+        arguments: Vec<Expression>,
+    },
     Negate(Box<Expression>),
-    Binary { operator: BinaryOperator, left: Box<Expression>, right: Box<Expression> },
+    Binary {
+        operator: BinaryOperator,
+        left: Box<Expression>,
+        right: Box<Expression>,
+    },
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -132,7 +142,11 @@ pub enum UnitExpressionKind {
     Product(Box<UnitExpression>, Box<UnitExpression>),
     Quotient(Box<UnitExpression>, Box<UnitExpression>),
     /// A power with a rational exponent `numerator/denominator` (denominator > 0).
-    Power { base: Box<UnitExpression>, numerator: i32, denominator: i32 },
+    Power {
+        base: Box<UnitExpression>,
+        numerator: i32,
+        denominator: i32,
+    },
 }
 
 impl Expression {

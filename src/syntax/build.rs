@@ -15,7 +15,7 @@ use std::sync::OnceLock;
 /// edge for hostile input.
 pub const NESTING_LIMIT: usize = 64;
 /// Most operators accepted on one line, for the same reason.
-pub const OPERATOR_LIMIT: usize = 2_000;
+pub const OPERATOR_LIMIT: usize = 256;
 
 /// A parsed sheet: every line (bad ones as `LineKind::Invalid`) and every syntax error.
 #[derive(Debug, Clone, PartialEq)]
@@ -49,13 +49,17 @@ pub fn parse_sheet(source: &str) -> ParsedSheet {
     if source.ends_with('\n') {
         lines.pop();
     }
-    ParsedSheet { sheet: Sheet { lines }, errors }
+    ParsedSheet {
+        sheet: Sheet { lines },
+        errors,
+    }
 }
 
 /// Parses one line whose text starts at byte `offset` of its file.
 pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, SyntaxError> {
     guard_against_deep_input(text, offset)?;
-    let mut pairs = WorksheetParser::parse(Rule::line, text).map_err(|error| convert(error, text, offset))?;
+    let mut pairs =
+        WorksheetParser::parse(Rule::line, text).map_err(|error| convert(error, text, offset))?;
     let line_pair = pairs.next().ok_or_else(|| internal(offset))?;
     let builder = Builder { offset };
     let mut kind = LineKind::Blank;
@@ -63,11 +67,17 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
     for pair in line_pair.into_inner() {
         match pair.as_rule() {
             Rule::heading => {
-                let text = pair.into_inner().next().map(|inner| inner.as_str().trim().to_string());
+                let text = pair
+                    .into_inner()
+                    .next()
+                    .map(|inner| inner.as_str().trim().to_string());
                 kind = LineKind::Heading(text.unwrap_or_default());
             }
             Rule::comment => {
-                comment = pair.into_inner().next().map(|inner| inner.as_str().trim().to_string());
+                comment = pair
+                    .into_inner()
+                    .next()
+                    .map(|inner| inner.as_str().trim().to_string());
             }
             Rule::definition => kind = LineKind::Definition(builder.definition(pair)?),
             Rule::display => kind = LineKind::Display(builder.display(pair)?),
@@ -82,23 +92,35 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
     if kind == LineKind::Blank && comment.is_some() {
         kind = LineKind::Comment;
     }
-    Ok(Line { number, span: Span::new(offset, offset + text.len()), kind, comment })
+    Ok(Line {
+        number,
+        span: Span::new(offset, offset + text.len()),
+        kind,
+        comment,
+    })
 }
 
 /// Parses a unit written alone, e.g. a command-line `--unit viscosity=cP`.
 pub fn parse_unit(text: &str) -> Result<UnitExpression, SyntaxError> {
     guard_against_deep_input(text, 0)?;
-    let mut pairs = WorksheetParser::parse(Rule::unit_alone, text).map_err(|error| convert(error, text, 0))?;
-    let unit = pairs.next().and_then(|pair| pair.into_inner().next()).ok_or_else(|| internal(0))?;
+    let mut pairs =
+        WorksheetParser::parse(Rule::unit_alone, text).map_err(|error| convert(error, text, 0))?;
+    let unit = pairs
+        .next()
+        .and_then(|pair| pair.into_inner().next())
+        .ok_or_else(|| internal(0))?;
     Builder { offset: 0 }.unit(unit)
 }
 
 /// Parses an expression written alone, e.g. a command-line `--from 0degC`.
 pub fn parse_expression(text: &str) -> Result<Expression, SyntaxError> {
     guard_against_deep_input(text, 0)?;
-    let mut pairs =
-        WorksheetParser::parse(Rule::expression_alone, text).map_err(|error| convert(error, text, 0))?;
-    let expression = pairs.next().and_then(|pair| pair.into_inner().next()).ok_or_else(|| internal(0))?;
+    let mut pairs = WorksheetParser::parse(Rule::expression_alone, text)
+        .map_err(|error| convert(error, text, 0))?;
+    let expression = pairs
+        .next()
+        .and_then(|pair| pair.into_inner().next())
+        .ok_or_else(|| internal(0))?;
     Builder { offset: 0 }.expression(expression)
 }
 
@@ -112,7 +134,9 @@ fn guard_against_deep_input(text: &str, offset: usize) -> Result<(), SyntaxError
                 depth += 1;
                 if depth > NESTING_LIMIT {
                     return Err(SyntaxError {
-                        kind: SyntaxErrorKind::NestingTooDeep { limit: NESTING_LIMIT },
+                        kind: SyntaxErrorKind::NestingTooDeep {
+                            limit: NESTING_LIMIT,
+                        },
                         span: Span::new(offset + position, offset + position + 1),
                     });
                 }
@@ -122,8 +146,10 @@ fn guard_against_deep_input(text: &str, offset: usize) -> Result<(), SyntaxError
                 operators += 1;
                 if operators > OPERATOR_LIMIT {
                     return Err(SyntaxError {
-                        kind: SyntaxErrorKind::ExpressionTooLong { limit: OPERATOR_LIMIT },
-                        span: Span::new(offset, offset + text.len()),
+                        kind: SyntaxErrorKind::ExpressionTooLong {
+                            limit: OPERATOR_LIMIT,
+                        },
+                        span: Span::new(offset + position, offset + position + 1),
                     });
                 }
             }
@@ -162,14 +188,23 @@ impl Builder {
         let mut expression = None;
         for inner in pair.into_inner() {
             match inner.as_rule() {
-                Rule::name => name = Some(Name { text: inner.as_str().to_string(), span: self.span(&inner) }),
+                Rule::name => {
+                    name = Some(Name {
+                        text: inner.as_str().to_string(),
+                        span: self.span(&inner),
+                    })
+                }
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
                 Rule::expression => expression = Some(self.expression(inner)?),
                 _ => {}
             }
         }
         match (name, expression) {
-            (Some(name), Some(expression)) => Ok(Definition { name, display_unit, expression }),
+            (Some(name), Some(expression)) => Ok(Definition {
+                name,
+                display_unit,
+                expression,
+            }),
             _ => Err(internal(fallback.start)),
         }
     }
@@ -186,7 +221,10 @@ impl Builder {
             }
         }
         let expression = expression.ok_or_else(|| internal(fallback.start))?;
-        Ok(Display { expression, display_unit })
+        Ok(Display {
+            expression,
+            display_unit,
+        })
     }
 
     fn check(&self, pair: Pair<Rule>) -> Result<(Check, Option<String>), SyntaxError> {
@@ -211,18 +249,38 @@ impl Builder {
                     comparison = Some((operator, self.span(&inner)));
                 }
                 Rule::tolerance => {
-                    let expression = inner.into_inner().next().ok_or_else(|| internal(fallback.start))?;
+                    let expression = inner
+                        .into_inner()
+                        .next()
+                        .ok_or_else(|| internal(fallback.start))?;
                     tolerance = Some(self.expression(expression)?);
                 }
-                Rule::message => message = inner.into_inner().next().map(|text| text.as_str().to_string()),
-                Rule::comment => comment = inner.into_inner().next().map(|text| text.as_str().trim().to_string()),
+                Rule::message => {
+                    message = inner
+                        .into_inner()
+                        .next()
+                        .map(|text| text.as_str().to_string())
+                }
+                Rule::comment => {
+                    comment = inner
+                        .into_inner()
+                        .next()
+                        .map(|text| text.as_str().trim().to_string())
+                }
                 _ => {}
             }
         }
         let mut expressions = expressions.into_iter();
         match (expressions.next(), comparison, expressions.next()) {
             (Some(left), Some((comparison, comparison_span)), Some(right)) => Ok((
-                Check { left, comparison, comparison_span, right, tolerance, message },
+                Check {
+                    left,
+                    comparison,
+                    comparison_span,
+                    right,
+                    tolerance,
+                    message,
+                },
                 comment,
             )),
             _ => Err(internal(fallback.start)),
@@ -231,7 +289,10 @@ impl Builder {
 
     fn display_unit(&self, pair: Pair<Rule>) -> Result<UnitExpression, SyntaxError> {
         let fallback = self.span(&pair);
-        let unit = pair.into_inner().next().ok_or_else(|| internal(fallback.start))?;
+        let unit = pair
+            .into_inner()
+            .next()
+            .ok_or_else(|| internal(fallback.start))?;
         self.unit(unit)
     }
 
@@ -245,9 +306,27 @@ impl Builder {
             .map_prefix(|operator, operand| {
                 let operand = operand?;
                 let span = self.span(&operator).to(operand.span);
-                Ok(match operator.as_rule() {
-                    Rule::negate => Expression { kind: ExpressionKind::Negate(Box::new(operand)), span },
-                    _ => Expression { kind: operand.kind, span },
+                Ok(match (operator.as_rule(), operand.kind) {
+                    // `-40 degF` is minus forty degrees Fahrenheit, not the negative of 40 degF.
+                    (Rule::negate, ExpressionKind::Quantity { digits, unit })
+                        if !digits.starts_with('-') =>
+                    {
+                        Expression {
+                            kind: ExpressionKind::Quantity {
+                                digits: format!("-{digits}"),
+                                unit,
+                            },
+                            span,
+                        }
+                    }
+                    (Rule::negate, kind) => Expression {
+                        kind: ExpressionKind::Negate(Box::new(Expression {
+                            kind,
+                            span: operand.span,
+                        })),
+                        span,
+                    },
+                    (_, kind) => Expression { kind, span },
                 })
             })
             .map_infix(|left, operator, right| {
@@ -261,7 +340,11 @@ impl Builder {
                 };
                 let span = left.span.to(right.span);
                 Ok(Expression {
-                    kind: ExpressionKind::Binary { operator, left: Box::new(left), right: Box::new(right) },
+                    kind: ExpressionKind::Binary {
+                        operator,
+                        left: Box::new(left),
+                        right: Box::new(right),
+                    },
                     span,
                 })
             })
@@ -273,25 +356,48 @@ impl Builder {
         match pair.as_rule() {
             Rule::quantity => {
                 let mut inner = pair.into_inner();
-                let digits = inner.next().map(|number| number.as_str().to_string()).unwrap_or_default();
+                let digits = inner
+                    .next()
+                    .map(|number| number.as_str().to_string())
+                    .unwrap_or_default();
                 let unit = match inner.next() {
                     Some(unit) => Some(self.unit(unit)?),
                     None => None,
                 };
-                Ok(Expression { kind: ExpressionKind::Quantity { digits, unit }, span })
+                Ok(Expression {
+                    kind: ExpressionKind::Quantity { digits, unit },
+                    span,
+                })
             }
-            Rule::name => Ok(Expression { kind: ExpressionKind::Name(pair.as_str().to_string()), span }),
+            Rule::name => Ok(Expression {
+                kind: ExpressionKind::Name(pair.as_str().to_string()),
+                span,
+            }),
             Rule::call => {
                 let mut inner = pair.into_inner();
                 let function = inner.next().ok_or_else(|| internal(span.start))?;
-                let function = Name { text: function.as_str().to_string(), span: self.span(&function) };
-                let arguments = inner.map(|argument| self.expression(argument)).collect::<Result<_, _>>()?;
-                Ok(Expression { kind: ExpressionKind::Call { function, arguments }, span })
+                let function = Name {
+                    text: function.as_str().to_string(),
+                    span: self.span(&function),
+                };
+                let arguments = inner
+                    .map(|argument| self.expression(argument))
+                    .collect::<Result<_, _>>()?;
+                Ok(Expression {
+                    kind: ExpressionKind::Call {
+                        function,
+                        arguments,
+                    },
+                    span,
+                })
             }
             Rule::expression => {
                 // Parentheses: the span widens to include them.
                 let inner = self.expression(pair)?;
-                Ok(Expression { kind: inner.kind, span: Span::new(inner.span.start - 1, inner.span.end + 1) })
+                Ok(Expression {
+                    kind: inner.kind,
+                    span: Span::new(inner.span.start - 1, inner.span.end + 1),
+                })
             }
             _ => Err(internal(span.start)),
         }
@@ -314,7 +420,11 @@ impl Builder {
                         UnitExpressionKind::Product(Box::new(result), Box::new(right))
                     };
                     let combined_text = text[..combined_span.end - span.start].to_string();
-                    result = UnitExpression { kind, span: combined_span, text: combined_text };
+                    result = UnitExpression {
+                        kind,
+                        span: combined_span,
+                        text: combined_text,
+                    };
                 }
                 Ok(UnitExpression { text, ..result })
             }
@@ -327,19 +437,33 @@ impl Builder {
                     Some(exponent) => {
                         let (numerator, denominator) = exponent_value(exponent.as_str())
                             .ok_or_else(|| SyntaxError {
-                                kind: SyntaxErrorKind::BadExponent { text: exponent.as_str().to_string() },
+                                kind: SyntaxErrorKind::BadExponent {
+                                    text: exponent.as_str().to_string(),
+                                },
                                 span: self.span(&exponent),
                             })?;
                         Ok(UnitExpression {
-                            kind: UnitExpressionKind::Power { base: Box::new(base), numerator, denominator },
+                            kind: UnitExpressionKind::Power {
+                                base: Box::new(base),
+                                numerator,
+                                denominator,
+                            },
                             span,
                             text,
                         })
                     }
                 }
             }
-            Rule::unit_symbol => Ok(UnitExpression { kind: UnitExpressionKind::Symbol(text.clone()), span, text }),
-            Rule::unit_one => Ok(UnitExpression { kind: UnitExpressionKind::One, span, text }),
+            Rule::unit_symbol => Ok(UnitExpression {
+                kind: UnitExpressionKind::Symbol(text.clone()),
+                span,
+                text,
+            }),
+            Rule::unit_one => Ok(UnitExpression {
+                kind: UnitExpressionKind::One,
+                span,
+                text,
+            }),
             _ => Err(internal(span.start)),
         }
     }
@@ -349,16 +473,23 @@ impl Builder {
 fn exponent_value(text: &str) -> Option<(i32, i32)> {
     let inside = text.trim_start_matches('(').trim_end_matches(')');
     let (numerator, denominator) = match inside.split_once('/') {
-        Some((numerator, denominator)) => (numerator.parse::<i32>().ok()?, denominator.parse::<i32>().ok()?),
+        Some((numerator, denominator)) => (
+            numerator.parse::<i32>().ok()?,
+            denominator.parse::<i32>().ok()?,
+        ),
         None => (inside.parse::<i32>().ok()?, 1),
     };
     let limit = 1_000;
-    (denominator > 0 && numerator.abs() <= limit && denominator <= limit).then_some((numerator, denominator))
+    (denominator > 0 && numerator.abs() <= limit && denominator <= limit)
+        .then_some((numerator, denominator))
 }
 
 fn internal(position: usize) -> SyntaxError {
     SyntaxError {
-        kind: SyntaxErrorKind::Unexpected { expected: vec!["valid syntax (internal parser error)"], found: None },
+        kind: SyntaxErrorKind::Unexpected {
+            expected: vec!["valid syntax (internal parser error)"],
+            found: None,
+        },
         span: Span::new(position, position),
     }
 }
@@ -380,20 +511,29 @@ fn convert(error: pest::error::Error<Rule>, text: &str, offset: usize) -> Syntax
         }
     }
     let rest = &text[position.min(text.len())..];
-    let found: String = rest.chars().take_while(|character| !character.is_whitespace()).take(12).collect();
+    let found: String = rest
+        .chars()
+        .take_while(|character| !character.is_whitespace())
+        .take(12)
+        .collect();
     let found_width = found.len().max(1);
     SyntaxError {
         kind: SyntaxErrorKind::Unexpected {
             expected,
             found: if rest.is_empty() { None } else { Some(found) },
         },
-        span: Span::new(offset + position, offset + (position + found_width).min(text.len().max(position))),
+        span: Span::new(
+            offset + position,
+            offset + (position + found_width).min(text.len().max(position)),
+        ),
     }
 }
 
 fn describe(rule: Rule) -> Option<&'static str> {
     Some(match rule {
-        Rule::expression | Rule::quantity | Rule::number | Rule::call | Rule::name => "an expression",
+        Rule::expression | Rule::quantity | Rule::number | Rule::call | Rule::name => {
+            "an expression"
+        }
         Rule::add | Rule::subtract | Rule::multiply | Rule::divide | Rule::power => "an operator",
         Rule::display_unit => "`[unit]`",
         Rule::unit_expression | Rule::unit_factor | Rule::unit_symbol | Rule::unit_one => "a unit",
@@ -419,14 +559,28 @@ mod tests {
     /// Renders a tree compactly to compare structure in one line.
     fn shape(expression: &Expression) -> String {
         match &expression.kind {
-            ExpressionKind::Quantity { digits, unit: Some(unit) } => format!("{digits}[{}]", unit.text),
+            ExpressionKind::Quantity {
+                digits,
+                unit: Some(unit),
+            } => format!("{digits}[{}]", unit.text),
             ExpressionKind::Quantity { digits, unit: None } => digits.clone(),
             ExpressionKind::Name(name) => name.clone(),
-            ExpressionKind::Call { function, arguments } => {
-                format!("{}({})", function.text, arguments.iter().map(shape).collect::<Vec<_>>().join(","))
+            ExpressionKind::Call {
+                function,
+                arguments,
+            } => {
+                format!(
+                    "{}({})",
+                    function.text,
+                    arguments.iter().map(shape).collect::<Vec<_>>().join(",")
+                )
             }
             ExpressionKind::Negate(inner) => format!("(-{})", shape(inner)),
-            ExpressionKind::Binary { operator, left, right } => {
+            ExpressionKind::Binary {
+                operator,
+                left,
+                right,
+            } => {
                 let symbol = match operator {
                     BinaryOperator::Add => "+",
                     BinaryOperator::Subtract => "-",
@@ -449,7 +603,10 @@ mod tests {
         check("2 ^ 3 ^ 2", "(2^(3^2))");
         check("-2 ^ 2", "(-(2^2))");
         check("a - b - c", "((a-b)-c)");
-        check("2^-1", "(2^(-1))");
+        check("2^-1", "(2^-1)");
+        check("-40 degF", "-40[degF]");
+        check("-x", "(-x)");
+        check("--2", "(--2)");
         check("(a + b) * c", "((a+b)*c)");
     }
 
@@ -466,7 +623,9 @@ mod tests {
     #[test]
     fn spans_point_into_the_line() {
         let line = parse_line("K [m/s] = 2 * k", 3, 100).unwrap();
-        let LineKind::Definition(definition) = line.kind else { panic!() };
+        let LineKind::Definition(definition) = line.kind else {
+            panic!()
+        };
         assert_eq!(definition.name.span, Span::new(100, 101));
         assert_eq!(definition.expression.span, Span::new(110, 115));
         assert_eq!(definition.display_unit.unwrap().span, Span::new(103, 106));
@@ -474,12 +633,20 @@ mod tests {
 
     #[test]
     fn headings_comments_and_checks() {
-        assert_eq!(parse_line("## Site", 1, 0).unwrap().kind, LineKind::Heading("Site".into()));
-        assert_eq!(parse_line("  # note", 1, 0).unwrap().kind, LineKind::Comment);
+        assert_eq!(
+            parse_line("## Site", 1, 0).unwrap().kind,
+            LineKind::Heading("Site".into())
+        );
+        assert_eq!(
+            parse_line("  # note", 1, 0).unwrap().kind,
+            LineKind::Comment
+        );
         let line = parse_line("x = 2 m # why", 1, 0).unwrap();
         assert_eq!(line.comment.as_deref(), Some("why"));
         let check = parse_line("check K <= 1e-9 m/s within 1 % \"liner limit\"", 1, 0).unwrap();
-        let LineKind::Check(check) = check.kind else { panic!() };
+        let LineKind::Check(check) = check.kind else {
+            panic!()
+        };
         assert_eq!(check.comparison, Comparison::LessOrEqual);
         assert_eq!(check.message.as_deref(), Some("liner limit"));
         assert!(check.tolerance.is_some());
@@ -488,7 +655,10 @@ mod tests {
     #[test]
     fn syntax_errors_say_what_was_expected() {
         let error = parse_line("x = 2 +", 1, 0).unwrap_err();
-        assert_eq!(error.to_string(), "expected an expression, found the end of the line");
+        assert_eq!(
+            error.to_string(),
+            "expected an expression, found the end of the line"
+        );
         let error = parse_line("x = )", 1, 0).unwrap_err();
         assert_eq!(error.span, Span::new(4, 5));
     }
@@ -511,7 +681,14 @@ mod tests {
     #[test]
     fn unit_exponents_are_rational() {
         let unit = parse_unit("m^(1/2)").unwrap();
-        assert!(matches!(unit.kind, UnitExpressionKind::Power { numerator: 1, denominator: 2, .. }));
+        assert!(matches!(
+            unit.kind,
+            UnitExpressionKind::Power {
+                numerator: 1,
+                denominator: 2,
+                ..
+            }
+        ));
         assert!(parse_unit("m^(1/0)").is_err());
     }
 }

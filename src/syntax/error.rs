@@ -12,7 +12,10 @@ pub struct SyntaxError {
 #[derive(Debug, Clone, PartialEq)]
 pub enum SyntaxErrorKind {
     /// The parser expected one of these (already in user words) and found something else.
-    Unexpected { expected: Vec<&'static str>, found: Option<String> },
+    Unexpected {
+        expected: Vec<&'static str>,
+        found: Option<String>,
+    },
     /// Parentheses or brackets nested deeper than the parser's limit.
     NestingTooDeep { limit: usize },
     /// More operators on one line than the evaluator takes.
@@ -33,18 +36,31 @@ impl fmt::Display for SyntaxError {
                     [] => write!(formatter, "unexpected {found}"),
                     [only] => write!(formatter, "expected {only}, found {found}"),
                     [first @ .., last] => {
-                        write!(formatter, "expected {} or {last}, found {found}", first.join(", "))
+                        write!(
+                            formatter,
+                            "expected {} or {last}, found {found}",
+                            first.join(", ")
+                        )
                     }
                 }
             }
             SyntaxErrorKind::NestingTooDeep { limit } => {
-                write!(formatter, "nesting too deep: more than {limit} levels of parentheses")
+                write!(
+                    formatter,
+                    "nesting too deep: more than {limit} levels of parentheses"
+                )
             }
             SyntaxErrorKind::ExpressionTooLong { limit } => {
-                write!(formatter, "expression too long: more than {limit} operators on one line")
+                write!(
+                    formatter,
+                    "expression too long: more than {limit} operators on one line"
+                )
             }
             SyntaxErrorKind::BadExponent { text } => {
-                write!(formatter, "unit exponent `{text}` is not a whole number or a fraction like (1/2)")
+                write!(
+                    formatter,
+                    "unit exponent `{text}` is not a whole number or a fraction like (1/2)"
+                )
             }
         }
     }

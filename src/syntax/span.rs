@@ -15,11 +15,17 @@ impl Span {
 
     /// The smallest span covering both.
     pub fn to(self, other: Span) -> Span {
-        Span { start: self.start.min(other.start), end: self.end.max(other.end) }
+        Span {
+            start: self.start.min(other.start),
+            end: self.end.max(other.end),
+        }
     }
 
     pub fn shifted(self, offset: usize) -> Span {
-        Span { start: self.start + offset, end: self.end + offset }
+        Span {
+            start: self.start + offset,
+            end: self.end + offset,
+        }
     }
 
     pub fn range(self) -> std::ops::Range<usize> {

@@ -31,7 +31,9 @@ pub struct ExponentOverflow;
 
 impl Dimension {
     pub const fn dimensionless() -> Self {
-        Dimension { exponents: [Ratio::new_raw(0, 1); 7] }
+        Dimension {
+            exponents: [Ratio::new_raw(0, 1); 7],
+        }
     }
 
     /// A dimension from integer exponents in base order L M T I Θ N J.
@@ -55,7 +57,9 @@ impl Dimension {
     }
 
     pub fn is_dimensionless(&self) -> bool {
-        self.exponents.iter().all(|exponent| *exponent == Ratio::from_integer(0))
+        self.exponents
+            .iter()
+            .all(|exponent| *exponent == Ratio::from_integer(0))
     }
 
     pub fn is_temperature(&self) -> bool {
@@ -106,7 +110,11 @@ impl Dimension {
             } else if exponent.is_integer() {
                 parts.push(format!("{symbol}^{}", exponent.numer()));
             } else {
-                parts.push(format!("{symbol}^({}/{})", exponent.numer(), exponent.denom()));
+                parts.push(format!(
+                    "{symbol}^({}/{})",
+                    exponent.numer(),
+                    exponent.denom()
+                ));
             }
         }
         if parts.is_empty() {
@@ -148,7 +156,9 @@ impl Dimension {
 
 fn checked(exponent: Option<Exponent>) -> Result<Exponent, ExponentOverflow> {
     match exponent {
-        Some(value) if value.numer().abs() <= EXPONENT_LIMIT && *value.denom() <= EXPONENT_LIMIT => {
+        Some(value)
+            if value.numer().abs() <= EXPONENT_LIMIT && *value.denom() <= EXPONENT_LIMIT =>
+        {
             Ok(value)
         }
         _ => Err(ExponentOverflow),
@@ -278,7 +288,12 @@ mod tests {
     #[test]
     fn dimension_names_parse() {
         assert_eq!(Dimension::from_name("Length"), Some(Dimension::LENGTH));
-        assert_eq!(Dimension::from_name("dynamic_viscosity").map(|d| d.to_string()).as_deref(), Some("L^-1 M T^-1"));
+        assert_eq!(
+            Dimension::from_name("dynamic_viscosity")
+                .map(|d| d.to_string())
+                .as_deref(),
+            Some("L^-1 M T^-1")
+        );
         assert_eq!(Dimension::from_name("nonsense"), None);
     }
 }

@@ -33,7 +33,10 @@ pub struct BadFactorText(pub String);
 
 impl Factor {
     pub const ONE: Factor = Factor {
-        exact: Some(ScientificDecimal { mantissa: Decimal::ONE, exponent: 0 }),
+        exact: Some(ScientificDecimal {
+            mantissa: Decimal::ONE,
+            exponent: 0,
+        }),
         value: 1.0,
     };
 
@@ -54,8 +57,12 @@ impl Factor {
             } else {
                 ScientificDecimal::parse(term).ok_or_else(bad)?
             };
-            result = if dividing { result.divide(&number) } else { result.multiply(&number) }
-                .ok_or_else(bad)?;
+            result = if dividing {
+                result.divide(&number)
+            } else {
+                result.multiply(&number)
+            }
+            .ok_or_else(bad)?;
             if end == rest.len() {
                 break;
             }
@@ -63,11 +70,21 @@ impl Factor {
             rest = &rest[end + 1..];
         }
         let factor = Factor::from_scientific(result);
-        Ok(if exact { factor } else { Factor { exact: None, value: factor.value } })
+        Ok(if exact {
+            factor
+        } else {
+            Factor {
+                exact: None,
+                value: factor.value,
+            }
+        })
     }
 
     fn from_scientific(number: ScientificDecimal) -> Factor {
-        Factor { value: number.to_f64(), exact: Some(number) }
+        Factor {
+            value: number.to_f64(),
+            exact: Some(number),
+        }
     }
 
     /// An inexact factor known only as a double.
@@ -119,7 +136,10 @@ impl Factor {
                 }
             }
         }
-        Factor::from_f64(self.value.powf(f64::from(numerator) / f64::from(denominator)))
+        Factor::from_f64(
+            self.value
+                .powf(f64::from(numerator) / f64::from(denominator)),
+        )
     }
 
     /// Multiplies a decimal literal by this factor, exactly, rounding to `f64` once.
@@ -140,7 +160,10 @@ impl Factor {
 
 impl ScientificDecimal {
     fn one() -> Self {
-        ScientificDecimal { mantissa: Decimal::ONE, exponent: 0 }
+        ScientificDecimal {
+            mantissa: Decimal::ONE,
+            exponent: 0,
+        }
     }
 
     /// Reads `123.45`, `1e-12`, `9.80665E0`.
@@ -159,7 +182,11 @@ impl ScientificDecimal {
     }
 
     fn from_decimal(value: Decimal) -> Option<Self> {
-        ScientificDecimal { mantissa: value, exponent: 0 }.normalized()
+        ScientificDecimal {
+            mantissa: value,
+            exponent: 0,
+        }
+        .normalized()
     }
 
     /// Brings the mantissa into [1, 10). `None` for zero (no factor is zero).
@@ -200,7 +227,9 @@ impl ScientificDecimal {
     fn to_f64(self) -> f64 {
         format!("{}e{}", self.mantissa, self.exponent)
             .parse::<f64>()
-            .unwrap_or_else(|_| self.mantissa.to_f64().unwrap_or(f64::NAN) * 10f64.powi(self.exponent))
+            .unwrap_or_else(|_| {
+                self.mantissa.to_f64().unwrap_or(f64::NAN) * 10f64.powi(self.exponent)
+            })
     }
 }
 
@@ -211,7 +240,11 @@ impl fmt::Display for ScientificDecimal {
             let mut value = self.mantissa;
             let ten = Decimal::TEN;
             for _ in 0..self.exponent.unsigned_abs() {
-                value = if self.exponent > 0 { value * ten } else { value / ten };
+                value = if self.exponent > 0 {
+                    value * ten
+                } else {
+                    value / ten
+                };
             }
             write!(formatter, "{}", value.normalize())
         } else {
@@ -222,9 +255,10 @@ impl fmt::Display for ScientificDecimal {
 
 /// Used where a literal cannot be held exactly (too many digits or out of decimal range).
 pub fn f64_from_decimal_text(text: &str) -> Option<f64> {
-    text.parse::<f64>().ok().or_else(|| Decimal::from_str(text).ok()?.to_f64())
+    text.parse::<f64>()
+        .ok()
+        .or_else(|| Decimal::from_str(text).ok()?.to_f64())
 }
-
 
 #[cfg(test)]
 mod tests {

@@ -23,7 +23,10 @@ pub struct Unit {
 /// Why a unit could not be built.
 #[derive(Debug, Clone, PartialEq)]
 pub enum UnitError {
-    Unknown { symbol: String, suggestions: Vec<String> },
+    Unknown {
+        symbol: String,
+        suggestions: Vec<String>,
+    },
     ExponentOverflow,
 }
 
@@ -54,7 +57,8 @@ fn catalog() -> &'static Catalog {
         let mut by_symbol = HashMap::new();
         for definition in UNITS {
             // The table is ours; a factor it cannot read is a bug caught by the catalog test.
-            let factor = Factor::from_definition(definition.factor).unwrap_or(Factor::from_f64(f64::NAN));
+            let factor =
+                Factor::from_definition(definition.factor).unwrap_or(Factor::from_f64(f64::NAN));
             let offset = definition
                 .offset
                 .map(|text| Factor::from_definition(text).unwrap_or(Factor::from_f64(0.0)));
@@ -76,7 +80,11 @@ fn catalog() -> &'static Catalog {
                 prefix.symbols.iter().map(move |symbol| (*symbol, factor))
             })
             .collect();
-        Catalog { by_symbol, entries, prefixes }
+        Catalog {
+            by_symbol,
+            entries,
+            prefixes,
+        }
     })
 }
 
@@ -107,8 +115,12 @@ impl Unit {
             return Ok(catalog.entries[*index].unit.clone());
         }
         for (prefix, prefix_factor) in &catalog.prefixes {
-            let Some(rest) = symbol.strip_prefix(prefix) else { continue };
-            let Some(index) = catalog.by_symbol.get(rest) else { continue };
+            let Some(rest) = symbol.strip_prefix(prefix) else {
+                continue;
+            };
+            let Some(index) = catalog.by_symbol.get(rest) else {
+                continue;
+            };
             let entry = &catalog.entries[*index];
             if entry.definition.prefixable {
                 return Ok(Unit {
@@ -119,15 +131,24 @@ impl Unit {
                 });
             }
         }
-        Err(UnitError::Unknown { symbol: symbol.to_string(), suggestions: suggest_symbols(symbol) })
+        Err(UnitError::Unknown {
+            symbol: symbol.to_string(),
+            suggestions: suggest_symbols(symbol),
+        })
     }
 
     pub fn multiply(&self, other: &Unit) -> Result<Unit, UnitError> {
-        Ok(Unit::compound(self.dimension.multiply(&other.dimension)?, self.factor.multiply(&other.factor)))
+        Ok(Unit::compound(
+            self.dimension.multiply(&other.dimension)?,
+            self.factor.multiply(&other.factor),
+        ))
     }
 
     pub fn divide(&self, other: &Unit) -> Result<Unit, UnitError> {
-        Ok(Unit::compound(self.dimension.divide(&other.dimension)?, self.factor.divide(&other.factor)))
+        Ok(Unit::compound(
+            self.dimension.divide(&other.dimension)?,
+            self.factor.divide(&other.factor),
+        ))
     }
 
     pub fn power(&self, exponent: Exponent) -> Result<Unit, UnitError> {
@@ -139,7 +160,12 @@ impl Unit {
 
     /// A product, quotient or power: no offset, and a degree in it means a difference.
     fn compound(dimension: Dimension, factor: Factor) -> Unit {
-        Unit { dimension, factor, offset: None, temperature: TemperatureRole::None }
+        Unit {
+            dimension,
+            factor,
+            offset: None,
+            temperature: TemperatureRole::None,
+        }
     }
 
     pub fn is_absolute_temperature(&self) -> bool {
@@ -176,7 +202,11 @@ pub fn suggest_symbols(symbol: &str) -> Vec<String> {
         .filter(|(score, _)| *score > 0.7)
         .collect();
     scored.sort_by(|left, right| right.0.total_cmp(&left.0).then(left.1.cmp(right.1)));
-    scored.into_iter().take(3).map(|(_, candidate)| candidate.to_string()).collect()
+    scored
+        .into_iter()
+        .take(3)
+        .map(|(_, candidate)| candidate.to_string())
+        .collect()
 }
 
 #[cfg(test)]
@@ -190,7 +220,11 @@ mod tests {
     #[test]
     fn every_catalog_factor_reads() {
         for entry in catalog_entries() {
-            assert!(entry.unit.factor.value().is_finite(), "{:?}", entry.definition.symbols);
+            assert!(
+                entry.unit.factor.value().is_finite(),
+                "{:?}",
+                entry.definition.symbols
+            );
             assert!(Factor::from_definition(entry.definition.factor).is_ok());
         }
     }
@@ -210,7 +244,9 @@ mod tests {
     #[test]
     fn unknown_unit_suggests_close_symbols() {
         match Unit::lookup("psia") {
-            Err(UnitError::Unknown { suggestions, .. }) => assert!(suggestions.contains(&"psi".to_string())),
+            Err(UnitError::Unknown { suggestions, .. }) => {
+                assert!(suggestions.contains(&"psi".to_string()))
+            }
             other => panic!("{other:?}"),
         }
     }

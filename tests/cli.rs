@@ -1,0 +1,181 @@
+//! Commands, formats, exit codes and the JSON contract of DESIGN.md.
+
+use crate::util::{eval_json, fluxsheet, run, run_sheet, worksheet};
+
+#[test]
+fn eval_json_has_the_documented_fields() {
+    let value = eval_json("2 ft/d [m/s]");
+    assert_eq!(value["unit"], "m/s");
+    assert_eq!(value["si_unit"], "m s^-1");
+    assert_eq!(value["dimension"], "L T^-1");
+    // 2 ft/d = 0.6096 m / 86400 s.
+    assert_eq!(value["si_value"].as_f64().unwrap(), 0.6096 / 86400.0);
+    assert_eq!(value["value"], value["si_value"]);
+}
+
+#[test]
+fn eval_prints_value_and_unit() {
+    let (code, stdout, _) = run(&["eval", "1 acre*ft [m^3]", "--digits", "15"]);
+    assert_eq!((code, stdout.as_str()), (0, "1233.48183754752 m^3\n"));
+    let (_, stdout, _) = run(&["eval", "300 K [degC]"]);
+    assert_eq!(stdout, "26.85 degC\n");
+    let (_, stdout, _) = run(&["eval", "sqrt(4 m^2)"]);
+    assert_eq!(stdout, "2 m\n");
+}
+
+#[test]
+fn run_json_lists_lines_checks_and_diagnostics() {
+    let sheet = "a = 2 m\nb [cm] = a * 3\ncheck b > 5 m\nc = a + 1 s\n";
+    let (code, stdout, _) = run_sheet(sheet, &["--format", "json"]);
+    assert_eq!(code, 3);
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    let lines = json["lines"].as_array().unwrap();
+    assert_eq!(lines.len(), 2);
+    assert_eq!(lines[1]["line"], 2);
+    assert_eq!(lines[1]["name"], "b");
+    assert_eq!(lines[1]["unit"], "cm");
+    assert_eq!(lines[1]["value"].as_f64().unwrap(), 600.0);
+    assert_eq!(lines[1]["si_value"].as_f64().unwrap(), 6.0);
+    assert_eq!(json["checks"][0]["passed"], true);
+    assert_eq!(json["checks"][0]["line"], 3);
+    let diagnostic = &json["diagnostics"][0];
+    assert_eq!(diagnostic["severity"], "error");
+    assert_eq!(
+        (diagnostic["line"].as_u64(), diagnostic["column"].as_u64()),
+        (Some(4), Some(5))
+    );
+    assert_eq!(
+        diagnostic["message"],
+        "cannot add a time (s) to a length (m)"
+    );
+}
+
+#[test]
+fn eval_errors_in_json_go_to_stdout_with_exit_3() {
+    let (code, stdout, _) = run(&["eval", "--format", "json", "2 m + 1 s"]);
+    assert_eq!(code, 3);
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    assert_eq!(json["diagnostics"][0]["column"], 1);
+}
+
+#[test]
+fn failed_check_exits_1_and_errors_win_with_3() {
+    assert_eq!(run_sheet("check 1 m > 2 m\n", &[]).0, 1);
+    assert_eq!(run_sheet("check 1 m > 2 m\nx = y\n", &[]).0, 3);
+    assert_eq!(run_sheet("check 3 m > 2 m\n", &[]).0, 0);
+}
+
+#[test]
+fn check_tolerances_relative_and_absolute() {
+    assert_eq!(run_sheet("check 1.005 m == 1 m within 1 %\n", &[]).0, 0);
+    assert_eq!(run_sheet("check 1.02 m == 1 m within 1 %\n", &[]).0, 1);
+    assert_eq!(run_sheet("check 1.02 m == 1 m within 3 cm\n", &[]).0, 0);
+    assert_eq!(run_sheet("check 1.02 m <= 1 m within 3 cm\n", &[]).0, 0);
+    assert_eq!(run_sheet("check 1 m == 1 m within 1 s\n", &[]).0, 3);
+    // Float noise does not fail an equality without a tolerance.
+    assert_eq!(run_sheet("check 0.1 m + 0.2 m == 0.3 m\n", &[]).0, 0);
+}
+
+#[test]
+fn unreadable_file_exits_3() {
+    let (code, _, stderr) = run(&["run", "no/such/sheet.fxs"]);
+    assert_eq!(code, 3);
+    assert!(
+        stderr.contains("cannot read `no/such/sheet.fxs`"),
+        "{stderr}"
+    );
+}
+
+#[test]
+fn bad_command_line_exits_2() {
+    assert_eq!(run(&["frobnicate"]).0, 2);
+    assert_eq!(run(&["run"]).0, 2);
+    assert_eq!(run(&["eval", "1 m", "--digits", "0"]).0, 2);
+    assert_eq!(run(&["eval", "1 m", "--format", "xml"]).0, 2);
+}
+
+#[test]
+fn every_command_has_help_with_an_example() {
+    for command in ["run", "eval", "units", "functions"] {
+        let (code, stdout, _) = run(&[command, "--help"]);
+        assert_eq!(code, 0, "{command}");
+        assert!(
+            stdout.contains("Examples:"),
+            "{command} help lacks examples"
+        );
+    }
+    let (code, stdout, _) = run(&["--help"]);
+    assert_eq!(code, 0);
+    assert!(stdout.contains("Exit codes"));
+}
+
+#[test]
+fn units_lists_and_filters_by_text_and_dimension() {
+    let (code, stdout, _) = run(&["units"]);
+    assert_eq!(code, 0);
+    assert!(
+        stdout.contains("365.25 d"),
+        "units must say how long a year is"
+    );
+    let (_, stdout, _) = run(&["units", "pressure", "--format", "csv"]);
+    let symbols: Vec<&str> = stdout
+        .lines()
+        .skip(1)
+        .map(|line| line.split(',').next().unwrap())
+        .collect();
+    assert!(
+        symbols.contains(&"psi") && symbols.contains(&"mH2O") && symbols.contains(&"Pa"),
+        "{symbols:?}"
+    );
+    assert!(!symbols.contains(&"m"));
+    let (_, stdout, _) = run(&["units", "darcy", "--format", "json"]);
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    assert_eq!(json.as_array().unwrap().len(), 1);
+    assert!(json[0]["factor_to_SI"]
+        .as_str()
+        .unwrap()
+        .starts_with("9.869232667160128"));
+}
+
+#[test]
+fn functions_lists_builtins_and_constants() {
+    let (code, stdout, _) = run(&["functions", "--format", "csv"]);
+    assert_eq!(code, 0);
+    for name in ["sqrt(x)", "ln(x)", "g0", "pi", "R", "F", "N_A", "k_B"] {
+        assert!(
+            stdout.lines().any(|line| line.starts_with(name)),
+            "{name} missing"
+        );
+    }
+}
+
+#[test]
+fn run_accepts_several_files_and_all_formats() {
+    let core = worksheet("core_permeability.fxs");
+    let sand = worksheet("sand_aquifer_seepage.fxs");
+    for format in ["table", "markdown", "csv", "json"] {
+        let output = fluxsheet()
+            .args(["run", "--format", format])
+            .arg(&core)
+            .arg(&sand)
+            .output()
+            .unwrap();
+        assert_eq!(output.status.code(), Some(0), "{format}");
+    }
+    let output = fluxsheet()
+        .args(["run", "--format", "json"])
+        .arg(&core)
+        .arg(&sand)
+        .output()
+        .unwrap();
+    let json: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
+    assert_eq!(json.as_array().map(Vec::len), Some(2));
+}
+
+#[test]
+fn digits_sets_significant_figures() {
+    let (_, stdout, _) = run(&["eval", "2 / 3", "--digits", "2"]);
+    assert_eq!(stdout, "0.67\n");
+    let (_, stdout, _) = run(&["eval", "2 / 3", "--digits", "6"]);
+    assert_eq!(stdout, "0.666667\n");
+}
