@@ -1,1 +1,42 @@
-fn main() {}
+//! Benchmarks: parse + evaluate generated sheets of 10 000 and 100 000 lines (cost must grow
+//! linearly), and the cost of single property calls. Run with `cargo bench`.
+
+use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion, Throughput};
+use fluxsheet::eval::evaluate_sheet;
+use fluxsheet::library::Builtins;
+use std::hint::black_box;
+
+/// A sheet of `lines` lines in the shape of real work: unit literals, references to earlier
+/// lines, display conversions and function calls, in groups of five.
+pub fn generated_sheet(lines: usize) -> String {
+    let mut sheet = String::with_capacity(lines * 40);
+    for group in 0..lines / 5 {
+        sheet.push_str(&format!("k_{group} = {}.5 mD\n", group % 97));
+        sheet.push_str(&format!("h_{group} = {} ft\n", 1 + group % 13));
+        sheet.push_str(&format!("K_{group} [m/s] = k_{group} * 998.2 kg/m^3 * g0 / 1.002 cP\n"));
+        sheet.push_str(&format!("q_{group} [m/d] = K_{group} * (h_{group} + 0.6 m) / 0.6 m\n"));
+        sheet.push_str(&format!("r_{group} = sqrt(q_{group} * 2 d * 1 m) + ln(3) * 1 mm\n"));
+    }
+    sheet
+}
+
+fn sheets(criterion: &mut Criterion) {
+    let library = Builtins::standard();
+    let mut group = criterion.benchmark_group("parse_and_evaluate");
+    group.sample_size(10);
+    for lines in [10_000usize, 100_000] {
+        let sheet = generated_sheet(lines);
+        group.throughput(Throughput::Elements(lines as u64));
+        group.bench_with_input(BenchmarkId::from_parameter(lines), &sheet, |bencher, sheet| {
+            bencher.iter(|| {
+                let evaluation = evaluate_sheet(black_box(sheet), library);
+                assert!(!evaluation.has_errors());
+                evaluation
+            })
+        });
+    }
+    group.finish();
+}
+
+criterion_group!(benches, sheets);
+criterion_main!(benches);
