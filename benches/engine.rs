@@ -13,9 +13,15 @@ pub fn generated_sheet(lines: usize) -> String {
     for group in 0..lines / 5 {
         sheet.push_str(&format!("k_{group} = {}.5 mD\n", group % 97));
         sheet.push_str(&format!("h_{group} = {} ft\n", 1 + group % 13));
-        sheet.push_str(&format!("K_{group} [m/s] = k_{group} * 998.2 kg/m^3 * g0 / 1.002 cP\n"));
-        sheet.push_str(&format!("q_{group} [m/d] = K_{group} * (h_{group} + 0.6 m) / 0.6 m\n"));
-        sheet.push_str(&format!("r_{group} = sqrt(q_{group} * 2 d * 1 m) + ln(3) * 1 mm\n"));
+        sheet.push_str(&format!(
+            "K_{group} [m/s] = k_{group} * 998.2 kg/m^3 * g0 / 1.002 cP\n"
+        ));
+        sheet.push_str(&format!(
+            "q_{group} [m/d] = K_{group} * (h_{group} + 0.6 m) / 0.6 m\n"
+        ));
+        sheet.push_str(&format!(
+            "r_{group} = sqrt(q_{group} * 2 d * 1 m) + ln(3) * 1 mm\n"
+        ));
     }
     sheet
 }
@@ -27,16 +33,59 @@ fn sheets(criterion: &mut Criterion) {
     for lines in [10_000usize, 100_000] {
         let sheet = generated_sheet(lines);
         group.throughput(Throughput::Elements(lines as u64));
-        group.bench_with_input(BenchmarkId::from_parameter(lines), &sheet, |bencher, sheet| {
+        group.bench_with_input(
+            BenchmarkId::from_parameter(lines),
+            &sheet,
+            |bencher, sheet| {
+                bencher.iter(|| {
+                    let evaluation = evaluate_sheet(black_box(sheet), library);
+                    assert!(!evaluation.has_errors());
+                    evaluation
+                })
+            },
+        );
+    }
+    group.finish();
+}
+
+/// ns per call of the property functions, through the same `Library` call a sheet makes, over
+/// a sweep of site temperatures (so no call can be folded away).
+fn property_calls(criterion: &mut Criterion) {
+    use fluxsheet::eval::{Library, Provenance, Quantity};
+    use fluxsheet::units::Dimension;
+    let library = Builtins::standard();
+    let temperatures: Vec<Quantity> = (0..1000)
+        .map(|index| Quantity::new(275.15 + 0.06 * index as f64, Dimension::TEMPERATURE))
+        .collect();
+    let permeability = Quantity::new(
+        250.0 * 1e-15 / 1.01325,
+        Dimension::from_integers([2, 0, 0, 0, 0, 0, 0]),
+    );
+    let mut group = criterion.benchmark_group("property_call");
+    group.throughput(Throughput::Elements(temperatures.len() as u64));
+    for name in ["water_density", "water_viscosity", "hydraulic_conductivity"] {
+        let function = library.function(name).expect("built-in exists");
+        group.bench_function(name, |bencher| {
+            let mut provenance = Provenance::default();
             bencher.iter(|| {
-                let evaluation = evaluate_sheet(black_box(sheet), library);
-                assert!(!evaluation.has_errors());
-                evaluation
+                let mut total = 0.0;
+                for temperature in &temperatures {
+                    let arguments = if name == "hydraulic_conductivity" {
+                        vec![permeability, *temperature]
+                    } else {
+                        vec![*temperature]
+                    };
+                    total += function
+                        .call(black_box(&arguments), &mut provenance)
+                        .expect("in range")
+                        .value;
+                }
+                total
             })
         });
     }
     group.finish();
 }
 
-criterion_group!(benches, sheets);
+criterion_group!(benches, sheets, property_calls);
 criterion_main!(benches);

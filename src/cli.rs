@@ -13,6 +13,8 @@ use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
 use std::io::{self, IsTerminal, Read, Write};
 use std::path::Path;
 
+mod properties;
+
 /// Exit codes, as documented in the README.
 pub mod exit {
     pub const OK: u8 = 0;
@@ -83,6 +85,8 @@ pub enum Command {
         /// Show only units whose symbol or name contains this text, or of this dimension (`length`)
         filter: Option<String>,
     },
+    /// Print a table of fluid properties versus temperature
+    Properties(properties::PropertiesArgs),
     /// List built-in functions and constants
     #[command(after_help = "Examples:\n  fluxsheet functions\n  fluxsheet functions sqrt")]
     Functions {
@@ -92,7 +96,7 @@ pub enum Command {
 }
 
 impl OutputArgs {
-    fn options(&self) -> RenderOptions {
+    pub fn options(&self) -> RenderOptions {
         let format = match self.format {
             FormatArg::Table => Format::Table,
             FormatArg::Markdown => Format::Markdown,
@@ -119,6 +123,9 @@ pub fn run(command_line: CommandLine) -> u8 {
         }
         Command::Functions { filter } => {
             list_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK)
+        }
+        Command::Properties(arguments) => {
+            properties::run(&mut out, arguments, &command_line.output)
         }
     };
     match result.and_then(|code| out.flush().map(|_| code)) {
@@ -306,7 +313,7 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
 fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions) -> io::Result<()> {
     let dimension_filter = filter.and_then(Dimension::from_name);
     let text_filter = filter.map(str::to_lowercase);
-    let rows: Vec<[String; 6]> = catalog_entries()
+    let rows: Vec<Vec<String>> = catalog_entries()
         .iter()
         .filter(|entry| match (dimension_filter, &text_filter) {
             (Some(dimension), _) => entry.unit.dimension == dimension,
@@ -330,7 +337,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
             if let Some(offset) = entry.definition.offset.filter(|offset| *offset != "0") {
                 factor = format!("(x + {offset}) * {factor}");
             }
-            [
+            vec![
                 entry.definition.symbols.join(" "),
                 entry.definition.name.to_string(),
                 dimension_text,
@@ -371,7 +378,7 @@ fn list_functions(
 ) -> io::Result<()> {
     let library = Builtins::standard();
     let keep = |name: &str| filter.is_none_or(|text| name.contains(text));
-    let mut rows: Vec<[String; 4]> = Vec::new();
+    let mut rows: Vec<Vec<String>> = Vec::new();
     for (name, builtin) in library.functions_sorted() {
         if keep(name) {
             let sources: Vec<String> = builtin
@@ -381,7 +388,7 @@ fn list_functions(
                     format!("{} [valid: {}]", formulation.citation, formulation.validity)
                 })
                 .collect();
-            rows.push([
+            rows.push(vec![
                 builtin.signature.to_string(),
                 "function".to_string(),
                 builtin.summary.to_string(),
@@ -392,7 +399,7 @@ fn list_functions(
     for constant in library.constants_sorted() {
         if keep(constant.name) {
             let value = render::format_significant(constant.quantity.value, 12);
-            rows.push([
+            rows.push(vec![
                 constant.name.to_string(),
                 format!("constant = {value} {}", constant.unit),
                 constant.summary.to_string(),
@@ -404,10 +411,10 @@ fn list_functions(
 }
 
 /// A plain listing in any format.
-fn write_listing<const N: usize>(
+fn write_listing(
     out: &mut dyn Write,
-    header: &[&str; N],
-    rows: &[[String; N]],
+    header: &[&str],
+    rows: &[Vec<String>],
     options: RenderOptions,
 ) -> io::Result<()> {
     match options.format {
@@ -443,7 +450,7 @@ fn write_listing<const N: usize>(
         }
         Format::Markdown => {
             writeln!(out, "| {} |", header.join(" | "))?;
-            writeln!(out, "|{}", "---|".repeat(N))?;
+            writeln!(out, "|{}", "---|".repeat(header.len()))?;
             for row in rows {
                 writeln!(
                     out,

@@ -11,6 +11,7 @@
 
 mod cli;
 mod errors;
+mod properties;
 mod reference;
 mod robustness;
 mod util;

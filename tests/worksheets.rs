@@ -54,26 +54,85 @@ fn every_demo_sheet_runs_clean() {
     assert!(count >= 2);
 }
 
+/// Water density and viscosity from the independent `seuif97` crate (IF97 and IAPWS 2008 as
+/// implemented there), K = k rho g0 / mu, mD = 1e-15/1.01325 m^2.
 #[test]
 fn core_permeability_pins() {
+    use seuif97::{pt, OD, ODV};
     let json = run_json(&worksheet("core_permeability.fxs"));
-    // K = k rho g / mu with mD = 1e-15/1.01325 m^2, cP = 1e-3 Pa s.
-    let millidarcy = 1e-15 / 1.01325;
-    let k_a = 420.0 * millidarcy * 998.2 * 9.80665 / 1.002e-3;
-    assert_close(value(&json, "K_A"), k_a, 1e-12, "K_A");
+    let conductivity = |millidarcy: f64, celsius: f64| {
+        let pressure_mpa = 0.101325;
+        let density = pt(pressure_mpa, celsius, (OD, 1));
+        let viscosity = pt(pressure_mpa, celsius, (ODV, 1));
+        millidarcy * 1e-15 / 1.01325 * density * 9.80665 / viscosity
+    };
+    assert_close(
+        value(&json, "K_lab_A"),
+        conductivity(420.0, 20.0),
+        1e-11,
+        "K_lab_A",
+    );
+    assert_close(value(&json, "K_A"), conductivity(420.0, 9.0), 1e-11, "K_A");
+    assert_close(value(&json, "K_C"), conductivity(1800.0, 9.0), 1e-11, "K_C");
     assert_close(
         value(&json, "K_A_field"),
-        k_a * 86400.0 / 0.3048,
-        1e-12,
-        "K_A in ft/d",
+        conductivity(420.0, 9.0) * 86400.0 / 0.3048,
+        1e-11,
+        "ft/d",
     );
-    let k_c = 1800.0 * millidarcy * 998.2 * 9.80665 / 1.002e-3;
     let gallon_per_day_per_square_foot = 0.003785411784 / 86400.0 / (0.3048 * 0.3048);
     assert_close(
         value(&json, "K_C_field"),
-        k_c / gallon_per_day_per_square_foot,
+        conductivity(1800.0, 9.0) / gallon_per_day_per_square_foot,
+        1e-11,
+        "gpd/ft2",
+    );
+    assert_close(
+        value(&json, "correction"),
+        conductivity(1.0, 9.0) / conductivity(1.0, 20.0),
+        1e-11,
+        "correction",
+    );
+}
+
+/// Batzle & Wang (1992), Geophysics 57(11): eq. 27a/27b (density, g/cm^3, T in degC, P in MPa,
+/// S mass fraction) and eq. 32 (viscosity, cP), typed here from the equations as printed in
+/// the paper and its public reproductions (from memory), independently of `src/library/brine.rs`.
+#[test]
+fn hot_brine_reservoir_pins() {
+    let json = run_json(&worksheet("hot_brine_reservoir.fxs"));
+    let (t, s) = (82.0f64, 0.08f64);
+    let p = 3200.0 * 0.45359237 * 9.80665 / 0.0254 / 0.0254 / 1e6; // psi -> MPa
+    let water = 1.0
+        + 1e-6
+            * (-80.0 * t - 3.3 * t * t + 0.00175 * t.powi(3) + 489.0 * p - 2.0 * t * p
+                + 0.016 * t * t * p
+                - 1.3e-5 * t.powi(3) * p
+                - 0.333 * p * p
+                - 0.002 * t * p * p);
+    let brine = water
+        + s * (0.668
+            + 0.44 * s
+            + 1e-6
+                * (300.0 * p - 2400.0 * p * s
+                    + t * (80.0 + 3.0 * t - 3300.0 * s - 13.0 * p + 47.0 * p * s)));
+    assert_close(value(&json, "rho_b"), brine * 1000.0, 1e-12, "rho_b");
+    let viscosity_cp = 0.1
+        + 0.333 * s
+        + (1.65 + 91.9 * s.powi(3))
+            * (-(0.42 * (s.powf(0.8) - 0.17).powi(2) + 0.045) * t.powf(0.8)).exp();
+    assert_close(value(&json, "mu_b"), viscosity_cp, 1e-12, "mu_b");
+    let millidarcy = 1e-15 / 1.01325;
+    let psi = 0.45359237 * 9.80665 / 0.0254 / 0.0254;
+    let flux = 185.0 * millidarcy / (viscosity_cp * 1e-3) * (450.0 * psi) / (1200.0 * 0.3048); // m/s
+    assert_close(value(&json, "q"), flux * 86400.0, 1e-12, "q");
+    let rate = flux * 86400.0 * 38.0 * 0.3048 * 300.0;
+    assert_close(value(&json, "Q"), rate, 1e-12, "Q");
+    assert_close(
+        value(&json, "Q_field"),
+        rate / (42.0 * 0.003785411784),
         1e-12,
-        "K_C",
+        "bbl/d",
     );
 }
 

@@ -10,7 +10,7 @@
 //!   these the law reproduces the Standard Atmosphere's beta T^1.5 / (T + S) form with
 //!   beta = 1.458e-6 to four digits. White gives about 2 % accuracy for air over 170-1900 K,
 //!   which is the range enforced here.
-//! * Ideal gas: R = 8.314462618 J/(mol K), exact in the 2019 SI as N_A k_B (CODATA 2018);
+//! * Ideal gas: R = 8.31446261815324 J/(mol K), exact in the 2019 SI as N_A k_B (CODATA 2018);
 //!   M_air = 0.0289647 kg/mol, a commonly tabulated molar mass of dry air (the U.S. Standard
 //!   Atmosphere 1976 uses 0.0289644 kg/mol, 1e-5 lower in relative terms). The range enforced,
 //!   200-1900 K and 0 < p <= 1 MPa, keeps the compressibility factor within about 2 % of 1
@@ -41,7 +41,8 @@ for the dilute gas",
 pub static IDEAL_GAS_DRY_AIR: Formulation = Formulation {
     id: "ideal-gas-dry-air",
     title: "Ideal gas, dry air (M = 0.0289647 kg/mol)",
-    citation: "Ideal-gas law rho = p M / (R T) with R = 8.314462618 J/(mol K) (exact in the 2019 \
+    citation:
+        "Ideal-gas law rho = p M / (R T) with R = 8.31446261815324 J/(mol K) (exact in the 2019 \
 SI, CODATA 2018) and M = 0.0289647 kg/mol for dry air (U.S. Standard Atmosphere, 1976 and ISO \
 2533:1975 tabulate 0.0289644 kg/mol)",
     validity: "200 K <= T <= 1900 K, 0 < p <= 1 MPa (compressibility factor within about 2 % of \
@@ -55,7 +56,7 @@ const T_MIN_SUTHERLAND: f64 = 170.0;
 const T_MAX: f64 = 1900.0;
 
 /// Molar gas constant, J/(mol K): N_A k_B, exact in the 2019 SI.
-const R_MOLAR: f64 = 8.314_462_618;
+const R_MOLAR: f64 = 8.314_462_618_153_24;
 /// Molar mass of dry air, kg/mol.
 const M_AIR: f64 = 0.028_964_7;
 const T_MIN_IDEAL: f64 = 200.0;

@@ -18,7 +18,7 @@ impl fmt::Display for OutOfRange {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
         write!(
             formatter,
-            "{} is outside the validity range of {} ({})",
+            "{}; {} is valid for {}",
             self.detail, self.formulation.title, self.formulation.validity
         )
     }

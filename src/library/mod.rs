@@ -1,11 +1,15 @@
-//! Built-in functions and constants: mathematics now; fluid properties and transport relations
-//! as they land. One entry per function: signature, summary, formulations, and the body.
+//! Built-in functions and constants: mathematics, fluid properties (`water`, `brine`, `air`
+//! formulations typed with `uom`, exposed through `properties`), and constants. One entry per function: signature, summary, formulations, and the body.
 //!
 //! `library` implements `eval::Library`; it knows nothing of syntax, files or output.
 
+pub mod air;
+pub mod brine;
 pub mod constants;
 pub mod formulation;
 pub mod math;
+pub mod properties;
+pub mod water;
 
 use crate::eval::{CallError, Constant, Formulation, Function, Library, Provenance, Quantity};
 use std::collections::HashMap;
@@ -62,7 +66,7 @@ impl Function for Builtin {
 
 /// Every built-in function, by family.
 fn all_functions() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
-    math::FUNCTIONS.iter()
+    math::FUNCTIONS.iter().chain(properties::FUNCTIONS)
 }
 
 /// The standard library handed to the evaluator.
