@@ -2,7 +2,7 @@
 //! `units` and `functions`. This and `main.rs` are the only code that reads files or writes to
 //! the terminal; everything else is handed writers.
 
-use crate::eval::{evaluate_sheet, Evaluation, LineResult};
+use crate::eval::{evaluate, Evaluation, LineResult};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, value_json, DiagnosticJson};
 use crate::render::{self, Format, RenderOptions};
@@ -13,6 +13,7 @@ use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
 use std::io::{self, IsTerminal, Read, Write};
 use std::path::Path;
 
+mod includes;
 mod properties;
 
 /// Exit codes, as documented in the README.
@@ -68,6 +69,9 @@ pub enum Command {
         /// Sheet files (`-` reads standard input)
         #[arg(required = true)]
         files: Vec<String>,
+        /// Let `include` lines read files outside the sheet's folder tree
+        #[arg(long)]
+        allow_outside: bool,
     },
     /// Evaluate one expression or line and print its value and unit
     #[command(
@@ -116,7 +120,10 @@ pub fn run(command_line: CommandLine) -> u8 {
     let stdout = io::stdout();
     let mut out = stdout.lock();
     let result = match &command_line.command {
-        Command::Run { files } => run_files(&mut out, files, options),
+        Command::Run {
+            files,
+            allow_outside,
+        } => run_files(&mut out, files, *allow_outside, options),
         Command::Eval { expression } => eval_expression(&mut out, expression, options),
         Command::Units { filter } => {
             list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK)
@@ -185,7 +192,12 @@ fn exit_code_for(evaluation: &Evaluation) -> u8 {
     }
 }
 
-fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> io::Result<u8> {
+fn run_files(
+    out: &mut dyn Write,
+    files: &[String],
+    allow_outside: bool,
+    options: RenderOptions,
+) -> io::Result<u8> {
     let library = Builtins::standard();
     let mut worst = exit::OK;
     let mut json_sheets = Vec::new();
@@ -202,10 +214,12 @@ fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> i
                 continue;
             }
         };
-        let evaluation = evaluate_sheet(&source.text, library);
+        let path = (file != "-").then(|| Path::new(file.as_str()));
+        let mut loader = includes::FileIncludeLoader::new(&source.label, path, allow_outside);
+        let evaluation = evaluate(&source.label, &source.text, library, &mut loader);
         worst = worst.max(exit_code_for(&evaluation));
         if options.format == Format::Json {
-            let sheet = sheet_json(Some(&source.label), &source.text, &evaluation);
+            let sheet = sheet_json(Some(&source.label), &evaluation);
             json_sheets.push(serde_json::to_value(sheet).map_err(io::Error::other)?);
             continue;
         }
@@ -220,8 +234,7 @@ fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> i
             out.flush()?;
             render::write_diagnostics(
                 &mut stderr_stream(),
-                &source.label,
-                &source.text,
+                &evaluation.sources,
                 &evaluation.diagnostics,
             )?;
         }
@@ -255,11 +268,16 @@ fn unreadable_json(file: &str, message: &str) -> DiagnosticJson {
 }
 
 fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> io::Result<u8> {
-    let evaluation = evaluate_sheet(text, Builtins::standard());
+    let evaluation = evaluate(
+        "<expression>",
+        text,
+        Builtins::standard(),
+        &mut crate::eval::NoIncludes,
+    );
     let json = options.format == Format::Json;
     if evaluation.has_errors() {
         if json {
-            let diagnostics = diagnostics_json(None, text, &evaluation.diagnostics);
+            let diagnostics = diagnostics_json(&evaluation.sources, &evaluation.diagnostics);
             writeln!(
                 out,
                 "{}",
@@ -269,8 +287,7 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
         } else {
             render::write_diagnostics(
                 &mut stderr_stream(),
-                "<expression>",
-                text,
+                &evaluation.sources,
                 &evaluation.diagnostics,
             )?;
         }

@@ -12,6 +12,8 @@ pub struct EvalError {
     /// Boxed so that `Result<_, EvalError>` stays small on the evaluator's hot path.
     pub kind: Box<EvalErrorKind>,
     pub span: Span,
+    /// Other places worth showing: a function's definition for an error in a call.
+    pub labels: Vec<(Span, String)>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -78,6 +80,31 @@ pub enum EvalErrorKind {
         function: String,
         error: CallError,
     },
+    SheetFunctionArguments {
+        function: String,
+        expected: usize,
+        found: usize,
+    },
+    ParameterDimension {
+        function: String,
+        parameter: String,
+        expected: Dimension,
+        found: Dimension,
+    },
+    ResultDimension {
+        function: String,
+        expected: Dimension,
+        found: Dimension,
+    },
+    RecursiveFunction {
+        path: Vec<String>,
+    },
+    Include {
+        message: String,
+    },
+    IncludeCycle {
+        chain: Vec<String>,
+    },
 }
 
 /// The operation that found two dimensions at odds.
@@ -93,12 +120,21 @@ impl EvalError {
         EvalError {
             kind: Box::new(kind),
             span,
+            labels: Vec::new(),
         }
+    }
+
+    pub fn with_label(mut self, span: Span, message: impl Into<String>) -> EvalError {
+        self.labels.push((span, message.into()));
+        self
     }
 
     /// The diagnostic: message, extra labels and a help line where one helps.
     pub fn to_diagnostic(&self) -> Diagnostic {
-        let diagnostic = Diagnostic::error(self.to_string(), self.span);
+        let mut diagnostic = Diagnostic::error(self.to_string(), self.span);
+        for (span, message) in &self.labels {
+            diagnostic = diagnostic.with_label(*span, message.clone());
+        }
         match self.kind.as_ref() {
             EvalErrorKind::DuplicateDefinition { first_span, .. } => {
                 diagnostic.with_label(*first_span, "first defined here")
@@ -204,6 +240,32 @@ impl fmt::Display for EvalError {
             ),
             EvalErrorKind::NegativeTolerance => formatter.write_str("a tolerance cannot be negative"),
             EvalErrorKind::Call { function, error } => write!(formatter, "`{function}`: {error}"),
+            EvalErrorKind::SheetFunctionArguments { function, expected, found } => {
+                write!(formatter, "`{function}` takes {expected} argument(s), but {found} were given")
+            }
+            EvalErrorKind::ParameterDimension { function, parameter, expected, found } => write!(
+                formatter,
+                "`{function}`: parameter `{parameter}` must be {}, found {}",
+                with_unit(expected),
+                with_unit(found)
+            ),
+            EvalErrorKind::ResultDimension { function, expected, found } => write!(
+                formatter,
+                "`{function}` should give {}, but its body gives {}",
+                with_unit(expected),
+                with_unit(found)
+            ),
+            EvalErrorKind::RecursiveFunction { path } => write!(
+                formatter,
+                "recursive function: {} (a function may not call itself)",
+                path.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" -> ")
+            ),
+            EvalErrorKind::Include { message } => write!(formatter, "cannot include: {message}"),
+            EvalErrorKind::IncludeCycle { chain } => write!(
+                formatter,
+                "include cycle: {}",
+                chain.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" includes ")
+            ),
         }
     }
 }

@@ -8,10 +8,11 @@ use super::diagnostic::Diagnostic;
 use super::error::{EvalError, EvalErrorKind, Operation};
 use super::function::{CallError, Library, Provenance};
 use super::order::dependency_order;
+use super::sources::{IncludeLoader, NoIncludes, SourceMap};
 use super::value::{Quantity, TemperatureKind};
 use crate::syntax::{
-    parse_sheet, BinaryOperator, Check, Comparison, Expression, ExpressionKind, Line, LineKind,
-    Span, UnitExpression, UnitExpressionKind,
+    parse_sheet_at, BinaryOperator, Check, Comparison, Expression, ExpressionKind,
+    FunctionDefinition, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
 use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
 use std::collections::HashMap;
@@ -22,7 +23,10 @@ pub const DEFAULT_EQUALITY_TOLERANCE: f64 = 1e-9;
 /// Everything a run of a sheet produced.
 #[derive(Debug, Clone)]
 pub struct Evaluation {
+    /// The main sheet's lines (lines of included sheets are evaluated but not listed).
     pub lines: Vec<LineOutcome>,
+    /// The main sheet and every sheet it included; diagnostics' spans point into these.
+    pub sources: SourceMap,
     pub diagnostics: Vec<Diagnostic>,
     pub provenance: Provenance,
 }
@@ -76,6 +80,14 @@ pub enum LineResult {
     Skipped {
         because_of: String,
     },
+    /// A function definition, with its parameters as written.
+    Function {
+        signature: String,
+    },
+    /// An include line and the sheet it brought in.
+    Include {
+        file: String,
+    },
 }
 
 /// A value with the unit it is shown in.
@@ -99,15 +111,117 @@ pub struct CheckOutcome {
     pub message: Option<String>,
 }
 
-/// Evaluates a sheet's source text.
+/// Evaluates a sheet that has no file behind it (includes are refused).
 pub fn evaluate_sheet(source: &str, library: &dyn Library) -> Evaluation {
-    let parsed = parse_sheet(source);
-    let mut evaluator = Evaluator::new(source, &parsed.sheet.lines, library);
+    evaluate("<sheet>", source, library, &mut NoIncludes)
+}
+
+/// Evaluates a sheet, loading its includes through `loader`.
+pub fn evaluate(
+    label: &str,
+    source: &str,
+    library: &dyn Library,
+    loader: &mut dyn IncludeLoader,
+) -> Evaluation {
+    let mut loaded = Loaded::default();
+    let main = loaded.sources.add(label, source);
+    loaded.load(
+        main,
+        &mut vec![(loader.main_key(label), label.to_string())],
+        loader,
+    );
+    let Loaded {
+        sources,
+        lines,
+        errors,
+        diagnostics,
+        includes,
+        main_lines,
+    } = loaded;
+    let mut evaluator = Evaluator::new(&sources, &lines, library);
     evaluator
         .diagnostics
-        .extend(parsed.errors.iter().map(Diagnostic::from));
+        .extend(errors.iter().map(Diagnostic::from));
+    evaluator.diagnostics.extend(diagnostics);
+    for (index, file) in includes {
+        evaluator.results[index] = Some(LineResult::Include { file });
+    }
     evaluator.run();
-    evaluator.finish()
+    let mut evaluation = evaluator.finish(main_lines);
+    evaluation.sources = sources;
+    evaluation
+}
+
+/// The lines of a sheet and of everything it includes, before evaluation.
+#[derive(Default)]
+struct Loaded {
+    sources: SourceMap,
+    lines: Vec<Line>,
+    errors: Vec<crate::syntax::SyntaxError>,
+    diagnostics: Vec<Diagnostic>,
+    /// Include lines that loaded, with the label of the sheet they brought in.
+    includes: Vec<(usize, String)>,
+    /// How many of `lines` belong to the main sheet (they come first).
+    main_lines: usize,
+}
+
+impl Loaded {
+    /// Parses file `index`, then the sheets it includes (each once; a cycle is an error).
+    /// `chain` holds the (key, label) of each sheet on the way here.
+    fn load(
+        &mut self,
+        index: usize,
+        chain: &mut Vec<(String, String)>,
+        loader: &mut dyn IncludeLoader,
+    ) {
+        let Some(file) = self.sources.file(index) else {
+            return;
+        };
+        let (label, parsed) = (file.label.clone(), parse_sheet_at(&file.text, file.base));
+        let first = self.lines.len();
+        self.lines.extend(parsed.sheet.lines);
+        self.errors.extend(parsed.errors);
+        if index == 0 {
+            self.main_lines = self.lines.len();
+        }
+        let includes: Vec<(usize, String, Span)> = (first..self.lines.len())
+            .filter_map(|line| match &self.lines[line].kind {
+                LineKind::Include(include) => Some((line, include.path.clone(), include.path_span)),
+                _ => None,
+            })
+            .collect();
+        for (line, path, span) in includes {
+            match loader.load(&path, &label) {
+                Err(message) => {
+                    let error = EvalError::new(EvalErrorKind::Include { message }, span);
+                    self.diagnostics.push(error.to_diagnostic());
+                }
+                Ok(sheet) if chain.iter().any(|(key, _)| *key == sheet.key) => {
+                    let mut cycle: Vec<String> =
+                        chain.iter().map(|(_, label)| label.clone()).collect();
+                    cycle.push(sheet.label);
+                    let error = EvalError::new(EvalErrorKind::IncludeCycle { chain: cycle }, span);
+                    self.diagnostics.push(error.to_diagnostic());
+                }
+                Ok(sheet) => {
+                    self.includes.push((line, sheet.label.clone()));
+                    // A sheet reached twice (two includes of one constants file) loads once.
+                    if self
+                        .sources
+                        .files()
+                        .iter()
+                        .any(|known| known.label == sheet.label)
+                    {
+                        continue;
+                    }
+                    let included = self.sources.add(&sheet.label, &sheet.text);
+                    chain.push((sheet.key, sheet.label));
+                    self.load(included, chain, loader);
+                    chain.pop();
+                }
+            }
+        }
+    }
 }
 
 /// The state of a definition during evaluation.
@@ -133,11 +247,17 @@ impl From<EvalError> for Failure {
 }
 
 struct Evaluator<'a> {
-    source: &'a str,
+    sources: &'a SourceMap,
     lines: &'a [Line],
     library: &'a dyn Library,
     /// Name -> index into `lines` of its (first) definition.
     definitions: HashMap<&'a str, usize>,
+    /// Function name -> index into `lines` of its definition.
+    functions: HashMap<&'a str, usize>,
+    /// Functions refused (recursive): calls to them are skipped quietly.
+    refused_functions: Vec<usize>,
+    /// Parameter values of the user functions being called, innermost last.
+    scopes: Vec<Vec<(&'a str, Quantity)>>,
     slots: Vec<Slot>,
     results: Vec<Option<LineResult>>,
     diagnostics: Vec<Diagnostic>,
@@ -146,12 +266,15 @@ struct Evaluator<'a> {
 }
 
 impl<'a> Evaluator<'a> {
-    fn new(source: &'a str, lines: &'a [Line], library: &'a dyn Library) -> Evaluator<'a> {
+    fn new(sources: &'a SourceMap, lines: &'a [Line], library: &'a dyn Library) -> Evaluator<'a> {
         Evaluator {
-            source,
+            sources,
             lines,
             library,
             definitions: HashMap::new(),
+            functions: HashMap::new(),
+            refused_functions: Vec::new(),
+            scopes: Vec::new(),
             slots: vec![Slot::Pending; lines.len()],
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
@@ -162,6 +285,7 @@ impl<'a> Evaluator<'a> {
 
     fn run(&mut self) {
         self.collect_definitions();
+        self.refuse_recursive_functions();
         let definition_lines: Vec<usize> = self.definitions.values().copied().collect::<Vec<_>>();
         let mut definition_lines = definition_lines;
         definition_lines.sort_unstable();
@@ -175,14 +299,12 @@ impl<'a> Evaluator<'a> {
             .map(|line_index| {
                 let mut needs = Vec::new();
                 if let LineKind::Definition(definition) = &self.lines[*line_index].kind {
-                    definition.expression.for_each_name(&mut |name, _| {
-                        if let Some(line) = self.definitions.get(name) {
-                            let node = node_of[line];
-                            if !needs.contains(&node) {
-                                needs.push(node);
-                            }
+                    for line in self.globals_used(&definition.expression) {
+                        let node = node_of[&line];
+                        if !needs.contains(&node) {
+                            needs.push(node);
                         }
-                    });
+                    }
                 }
                 needs
             })
@@ -209,36 +331,232 @@ impl<'a> Evaluator<'a> {
         }
     }
 
-    /// Records each name's line; a second definition is an error naming both.
+    /// Records each name's line (values and functions share one namespace); a second
+    /// definition is an error naming both.
     fn collect_definitions(&mut self) {
         for (index, line) in self.lines.iter().enumerate() {
-            let LineKind::Definition(definition) = &line.kind else {
-                continue;
+            let (name, is_function) = match &line.kind {
+                LineKind::Definition(definition) => (&definition.name, false),
+                LineKind::Function(function) => (&function.name, true),
+                _ => continue,
             };
-            match self.definitions.get(definition.name.text.as_str()) {
+            let earlier = self
+                .definitions
+                .get(name.text.as_str())
+                .or_else(|| self.functions.get(name.text.as_str()));
+            match earlier {
                 Some(first) => {
                     let first_line = &self.lines[*first];
                     let first_span = match &first_line.kind {
                         LineKind::Definition(first_definition) => first_definition.name.span,
+                        LineKind::Function(first_function) => first_function.name.span,
                         _ => first_line.span,
                     };
+                    let definition = name;
                     let error = EvalError::new(
                         EvalErrorKind::DuplicateDefinition {
-                            name: definition.name.text.clone(),
+                            name: definition.text.clone(),
                             first_line: first_line.number,
                             first_span,
                         },
-                        definition.name.span,
+                        definition.span,
                     );
                     self.diagnostics.push(error.to_diagnostic());
                     self.results[index] = Some(LineResult::Error);
                 }
+                None if is_function => {
+                    self.functions.insert(name.text.as_str(), index);
+                }
                 None => {
-                    self.definitions
-                        .insert(definition.name.text.as_str(), index);
+                    self.definitions.insert(name.text.as_str(), index);
                 }
             }
         }
+    }
+
+    /// A function that calls itself, directly or through others, is refused at its definition.
+    fn refuse_recursive_functions(&mut self) {
+        let mut function_lines: Vec<usize> = self.functions.values().copied().collect();
+        function_lines.sort_unstable();
+        let node_of: HashMap<usize, usize> = function_lines
+            .iter()
+            .enumerate()
+            .map(|(node, line)| (*line, node))
+            .collect();
+        let calls: Vec<Vec<usize>> = function_lines
+            .iter()
+            .map(|line| {
+                let mut called = Vec::new();
+                if let LineKind::Function(function) = &self.lines[*line].kind {
+                    function.body.for_each_call(&mut |name, _| {
+                        if let Some(callee) = self.functions.get(name) {
+                            if !called.contains(&node_of[callee]) {
+                                called.push(node_of[callee]);
+                            }
+                        }
+                    });
+                }
+                called
+            })
+            .collect();
+        let order = dependency_order(&calls);
+        for cycle in &order.cycles {
+            let names: Vec<String> = cycle
+                .iter()
+                .chain(cycle.first())
+                .filter_map(|node| match &self.lines[function_lines[*node]].kind {
+                    LineKind::Function(function) => Some(function.name.text.clone()),
+                    _ => None,
+                })
+                .collect();
+            for node in cycle {
+                let line = function_lines[*node];
+                if let LineKind::Function(function) = &self.lines[line].kind {
+                    let kind = EvalErrorKind::RecursiveFunction {
+                        path: names.clone(),
+                    };
+                    self.diagnostics
+                        .push(EvalError::new(kind, function.name.span).to_diagnostic());
+                }
+                self.results[line] = Some(LineResult::Error);
+            }
+        }
+        self.refused_functions = order
+            .blocked
+            .iter()
+            .map(|node| function_lines[*node])
+            .collect();
+    }
+
+    /// The definitions an expression needs: the names it uses, and those used by the bodies
+    /// of the sheet functions it calls (and of the functions they call).
+    fn globals_used(&self, expression: &'a Expression) -> Vec<usize> {
+        let mut needed = Vec::new();
+        let mut visited_functions = Vec::new();
+        let mut pending: Vec<(&'a Expression, Option<&'a FunctionDefinition>)> =
+            vec![(expression, None)];
+        while let Some((current, inside)) = pending.pop() {
+            current.for_each_name(&mut |name, _| {
+                let is_parameter = inside.is_some_and(|function| {
+                    function
+                        .parameters
+                        .iter()
+                        .any(|parameter| parameter.name.text == name)
+                });
+                if let (false, Some(line)) = (is_parameter, self.definitions.get(name)) {
+                    if !needed.contains(line) {
+                        needed.push(*line);
+                    }
+                }
+            });
+            current.for_each_call(&mut |name, _| {
+                if let Some(line) = self.functions.get(name) {
+                    if !visited_functions.contains(line) {
+                        visited_functions.push(*line);
+                        if let LineKind::Function(function) = &self.lines[*line].kind {
+                            pending.push((&function.body, Some(function)));
+                        }
+                    }
+                }
+            });
+        }
+        needed
+    }
+
+    /// Resolves a function's declared units once at its definition; returns its signature.
+    fn check_function_units(
+        &mut self,
+        function: &'a FunctionDefinition,
+    ) -> Result<String, EvalError> {
+        let mut parameters = Vec::new();
+        for parameter in &function.parameters {
+            match &parameter.unit {
+                Some(unit) => {
+                    self.unit(unit)?;
+                    parameters.push(format!("{} [{}]", parameter.name.text, unit.text));
+                }
+                None => parameters.push(parameter.name.text.clone()),
+            }
+        }
+        let mut signature = format!("{}({})", function.name.text, parameters.join(", "));
+        if let Some(unit) = &function.result_unit {
+            self.unit(unit)?;
+            signature.push_str(&format!(" [{}]", unit.text));
+        }
+        Ok(signature)
+    }
+
+    /// Calls a function defined in the sheet: arguments checked against declared dimensions,
+    /// the body evaluated with the parameters bound, errors pointing at call and definition.
+    fn call_sheet_function(
+        &mut self,
+        name: &'a crate::syntax::Name,
+        arguments: &'a [Expression],
+        span: Span,
+    ) -> Result<Quantity, Failure> {
+        let Some(&index) = self.functions.get(name.text.as_str()) else {
+            return Err(Failure::Upstream(name.text.clone()));
+        };
+        let LineKind::Function(definition) = &self.lines[index].kind else {
+            return Err(Failure::Upstream(name.text.clone()));
+        };
+        if self.refused_functions.contains(&index)
+            || matches!(self.results[index], Some(LineResult::Error))
+        {
+            return Err(Failure::Upstream(name.text.clone()));
+        }
+        let defined_here =
+            |error: EvalError| error.with_label(definition.name.span, "defined here");
+        if arguments.len() != definition.parameters.len() {
+            let kind = EvalErrorKind::SheetFunctionArguments {
+                function: name.text.clone(),
+                expected: definition.parameters.len(),
+                found: arguments.len(),
+            };
+            return Err(defined_here(EvalError::new(kind, span)).into());
+        }
+        let mut bound = Vec::with_capacity(arguments.len());
+        for (argument, parameter) in arguments.iter().zip(&definition.parameters) {
+            let value = self.expression(argument)?;
+            if let Some(unit) = &parameter.unit {
+                let unit = self.unit(unit)?;
+                if unit.dimension != value.dimension {
+                    let kind = EvalErrorKind::ParameterDimension {
+                        function: name.text.clone(),
+                        parameter: parameter.name.text.clone(),
+                        expected: unit.dimension,
+                        found: value.dimension,
+                    };
+                    let error = EvalError::new(kind, argument.span)
+                        .with_label(parameter.name.span, "declared here");
+                    return Err(error.into());
+                }
+            }
+            bound.push((parameter.name.text.as_str(), value));
+        }
+        self.scopes.push(bound);
+        let result = self.expression(&definition.body);
+        self.scopes.pop();
+        let value = result.map_err(|failure| match failure {
+            Failure::Error(error) => {
+                Failure::Error(error.with_label(span, format!("in this call of `{}`", name.text)))
+            }
+            upstream => upstream,
+        })?;
+        if let Some(unit) = &definition.result_unit {
+            let unit = self.unit(unit)?;
+            if unit.dimension != value.dimension {
+                let kind = EvalErrorKind::ResultDimension {
+                    function: name.text.clone(),
+                    expected: unit.dimension,
+                    found: value.dimension,
+                };
+                return Err(EvalError::new(kind, span)
+                    .with_label(unit_span(definition), "declared here")
+                    .into());
+            }
+        }
+        Ok(value)
     }
 
     fn report_cycle(&mut self, members: Vec<usize>) {
@@ -314,7 +632,14 @@ impl<'a> Evaluator<'a> {
             LineKind::Blank => LineResult::Blank,
             LineKind::Comment => LineResult::Comment,
             LineKind::Heading(text) => LineResult::Heading(text.clone()),
-            LineKind::Invalid | LineKind::Definition(_) => LineResult::Error,
+            LineKind::Invalid | LineKind::Definition(_) | LineKind::Include(_) => LineResult::Error,
+            LineKind::Function(function) => match self.check_function_units(function) {
+                Ok(signature) => LineResult::Function { signature },
+                Err(error) => {
+                    self.diagnostics.push(error.to_diagnostic());
+                    LineResult::Error
+                }
+            },
             LineKind::Display(display) => {
                 let outcome = self.expression(&display.expression).and_then(|quantity| {
                     self.shown(quantity, display.display_unit.as_ref(), &display.expression)
@@ -354,21 +679,26 @@ impl<'a> Evaluator<'a> {
         }
     }
 
-    fn finish(self) -> Evaluation {
-        let source = self.source;
+    fn finish(self, main_lines: usize) -> Evaluation {
+        let sources = self.sources;
         let lines = self
             .lines
             .iter()
             .zip(self.results)
+            .take(main_lines)
             .map(|(line, result)| {
                 let (name, expression) = match &line.kind {
                     LineKind::Definition(definition) => (
                         Some(definition.name.text.clone()),
-                        text_of(source, definition.expression.span),
+                        text_of(sources, definition.expression.span),
                     ),
-                    LineKind::Display(display) => (None, text_of(source, display.expression.span)),
-                    LineKind::Check(_) | LineKind::Invalid => {
-                        (None, text_of(source, line.span).trim().to_string())
+                    LineKind::Display(display) => (None, text_of(sources, display.expression.span)),
+                    LineKind::Function(function) => (
+                        Some(function.name.text.clone()),
+                        text_of(sources, function.body.span),
+                    ),
+                    LineKind::Check(_) | LineKind::Invalid | LineKind::Include(_) => {
+                        (None, text_of(sources, line.span).trim().to_string())
                     }
                     _ => (None, String::new()),
                 };
@@ -385,6 +715,7 @@ impl<'a> Evaluator<'a> {
         diagnostics.sort_by_key(|diagnostic| diagnostic.span.start);
         Evaluation {
             lines,
+            sources: SourceMap::default(),
             diagnostics,
             provenance: self.provenance,
         }
@@ -399,6 +730,12 @@ impl<'a> Evaluator<'a> {
                 self.literal(digits, unit.as_ref(), span)?
             }
             ExpressionKind::Name(name) => self.name(name, span)?,
+            ExpressionKind::Call {
+                function,
+                arguments,
+            } if self.functions.contains_key(function.text.as_str()) => {
+                self.call_sheet_function(function, arguments, span)?
+            }
             ExpressionKind::Call {
                 function,
                 arguments,
@@ -499,6 +836,11 @@ impl<'a> Evaluator<'a> {
     }
 
     fn name(&mut self, name: &str, span: Span) -> Result<Quantity, Failure> {
+        if let Some(scope) = self.scopes.last() {
+            if let Some((_, value)) = scope.iter().find(|(parameter, _)| *parameter == name) {
+                return Ok(*value);
+            }
+        }
         if let Some(index) = self.definitions.get(name) {
             return match &self.slots[*index] {
                 Slot::Ready(shown) => Ok(shown.quantity),
@@ -560,6 +902,14 @@ impl<'a> Evaluator<'a> {
                 },
                 None,
             ) => Some(unit),
+            // A call of a sheet function that declares its result unit shows in that unit.
+            (ExpressionKind::Call { function, .. }, None) => self
+                .functions
+                .get(function.text.as_str())
+                .and_then(|index| match &self.lines[*index].kind {
+                    LineKind::Function(definition) => definition.result_unit.as_ref(),
+                    _ => None,
+                }),
             _ => None,
         };
         let Some(unit_expression) = written else {
@@ -671,14 +1021,14 @@ impl<'a> Evaluator<'a> {
             tolerance: check
                 .tolerance
                 .as_ref()
-                .map(|tolerance| text_of(self.source, tolerance.span)),
+                .map(|tolerance| text_of(self.sources, tolerance.span)),
             message: check.message.clone(),
         })
     }
 }
 
-fn text_of(source: &str, span: Span) -> String {
-    source.get(span.range()).unwrap_or_default().to_string()
+fn text_of(sources: &SourceMap, span: Span) -> String {
+    sources.text_of(span).to_string()
 }
 
 /// Builds a unit from its written form. A lone absolute scale keeps its offset; anything
@@ -901,4 +1251,12 @@ fn simple_fraction(value: f64) -> Option<Exponent> {
 /// A dimension's unit for messages and defaults, re-exported for front ends.
 pub fn preferred_unit(dimension: &Dimension) -> String {
     dimension.preferred_si_unit()
+}
+
+/// Where a function declares its result unit (or its name, if it declares none).
+fn unit_span(function: &FunctionDefinition) -> Span {
+    function
+        .result_unit
+        .as_ref()
+        .map_or(function.name.span, |unit| unit.span)
 }

@@ -8,10 +8,14 @@ pub mod error;
 pub mod evaluate;
 pub mod function;
 pub mod order;
+pub mod sources;
 pub mod value;
 
 pub use diagnostic::{Diagnostic, Severity};
 pub use error::{EvalError, EvalErrorKind};
-pub use evaluate::{evaluate_sheet, CheckOutcome, Evaluation, LineOutcome, LineResult, ShownValue};
+pub use evaluate::{
+    evaluate, evaluate_sheet, CheckOutcome, Evaluation, LineOutcome, LineResult, ShownValue,
+};
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
+pub use sources::{IncludeLoader, LoadedSheet, NoIncludes, SourceFile, SourceMap};
 pub use value::{Quantity, TemperatureKind};

@@ -1195,48 +1195,4 @@ mod tests {
             worst[3]
         );
     }
-
-    /// Release-mode timing; run with `cargo test --release -- --ignored --nocapture timing`.
-    /// Only in-range states are timed: the error path formats a message and is not the hot
-    /// path.
-    #[test]
-    #[ignore]
-    fn timing_density_plus_viscosity() {
-        use std::hint::black_box;
-        use std::time::Instant;
-        let mut states = Vec::new();
-        for k in 0..4096u32 {
-            let t = 280.0 + f64::from(k % 337);
-            let p = 1.0e6 * (1.0 + f64::from(k % 97));
-            if check_region1(&IF97_REGION1, t, p).is_ok() {
-                states.push((kelvins(t), pa(p)));
-            }
-        }
-        let rounds = 500;
-        let calls = (rounds * states.len()) as f64;
-        let time = |label: &str, f: &dyn Fn(ThermodynamicTemperature, Pressure) -> f64| {
-            let start = Instant::now();
-            let mut acc = 0.0;
-            for _ in 0..rounds {
-                for &(t, p) in &states {
-                    acc += f(black_box(t), black_box(p));
-                }
-            }
-            let ns = start.elapsed().as_secs_f64() / calls * 1e9;
-            println!("{label}: {ns:.1} ns per call (checksum {acc:e})");
-        };
-        time("density", &|t, p| density(t, p).map_or(0.0, |r| r.value));
-        time("viscosity(t, p)", &|t, p| {
-            viscosity(t, p).map_or(0.0, |m| m.value)
-        });
-        time("density + viscosity", &|t, p| {
-            density(t, p).map_or(0.0, |r| r.value) + viscosity(t, p).map_or(0.0, |m| m.value)
-        });
-        time("specific_heat", &|t, p| {
-            specific_heat(t, p).map_or(0.0, |c| c.value)
-        });
-        time("saturation_pressure", &|t, _| {
-            saturation_pressure(t).map_or(0.0, |p| p.value)
-        });
-    }
 }

@@ -1,8 +1,8 @@
 //! JSON output. Serializable mirror types live here, at the edge, so the JSON contract in
 //! DESIGN.md does not freeze the evaluator's internal types.
 
-use super::snippet::locate;
-use crate::eval::{Diagnostic, Evaluation, LineResult, ShownValue};
+use super::snippet::{locate, place};
+use crate::eval::{Diagnostic, Evaluation, LineResult, ShownValue, SourceMap};
 use serde::Serialize;
 
 #[derive(Serialize)]
@@ -77,19 +77,18 @@ pub fn value_json(shown: &ShownValue) -> ValueJson {
     }
 }
 
-pub fn diagnostics_json(
-    file: Option<&str>,
-    source: &str,
-    diagnostics: &[Diagnostic],
-) -> Vec<DiagnosticJson> {
+/// Diagnostics with file, line and column; the file is omitted for a sheet with no file.
+pub fn diagnostics_json(sources: &SourceMap, diagnostics: &[Diagnostic]) -> Vec<DiagnosticJson> {
     diagnostics
         .iter()
         .map(|diagnostic| {
-            let (line, column) = locate(source, diagnostic.span.start);
-            let (end_line, end_column) = locate(source, diagnostic.span.end);
+            let (file, label, range) = place(sources, diagnostic.span);
+            let text = sources.file(file).map_or("", |source| source.text.as_str());
+            let (line, column) = locate(text, range.start);
+            let (end_line, end_column) = locate(text, range.end);
             DiagnosticJson {
                 severity: diagnostic.severity.word(),
-                file: file.map(str::to_string),
+                file: (!label.starts_with('<')).then(|| label.to_string()),
                 line,
                 column,
                 end_line,
@@ -101,7 +100,7 @@ pub fn diagnostics_json(
         .collect()
 }
 
-pub fn sheet_json(file: Option<&str>, source: &str, evaluation: &Evaluation) -> SheetJson {
+pub fn sheet_json(file: Option<&str>, evaluation: &Evaluation) -> SheetJson {
     let mut lines = Vec::new();
     let mut checks = Vec::new();
     for line in &evaluation.lines {
@@ -127,7 +126,7 @@ pub fn sheet_json(file: Option<&str>, source: &str, evaluation: &Evaluation) -> 
         file: file.map(str::to_string),
         lines,
         checks,
-        diagnostics: diagnostics_json(file, source, &evaluation.diagnostics),
+        diagnostics: diagnostics_json(&evaluation.sources, &evaluation.diagnostics),
         formulations: evaluation
             .provenance
             .formulations()

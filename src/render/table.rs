@@ -95,6 +95,18 @@ fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
                 unit: String::new(),
                 expression: check_text(check, digits),
             })),
+            LineResult::Function { signature } => entries.push(row(
+                "function".to_string(),
+                String::new(),
+                format!("{signature} = {}", line.expression),
+            )),
+            LineResult::Include { file } => entries.push(Entry::Row(Row {
+                line: line.number.to_string(),
+                name: "include".to_string(),
+                value: String::new(),
+                unit: String::new(),
+                expression: file.clone(),
+            })),
             LineResult::Error => entries.push(row(
                 "error".to_string(),
                 String::new(),

@@ -30,6 +30,8 @@ pub enum LineKind {
     Definition(Definition),
     Display(Display),
     Check(Check),
+    Function(FunctionDefinition),
+    Include(Include),
     /// A line that failed to parse; its error is in the parse result.
     Invalid,
 }
@@ -40,6 +42,29 @@ pub struct Definition {
     pub name: Name,
     pub display_unit: Option<UnitExpression>,
     pub expression: Expression,
+}
+
+/// `name(parameters) [unit] = body`
+#[derive(Debug, Clone, PartialEq)]
+pub struct FunctionDefinition {
+    pub name: Name,
+    pub parameters: Vec<Parameter>,
+    pub result_unit: Option<UnitExpression>,
+    pub body: Expression,
+}
+
+/// A function parameter, optionally with the unit whose dimension it must have.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Parameter {
+    pub name: Name,
+    pub unit: Option<UnitExpression>,
+}
+
+/// `include "path"`
+#[derive(Debug, Clone, PartialEq)]
+pub struct Include {
+    pub path: String,
+    pub path_span: Span,
 }
 
 /// A bare `expression [unit]`.
@@ -150,6 +175,27 @@ pub enum UnitExpressionKind {
 }
 
 impl Expression {
+    /// Calls `visit` on the name of every function this expression calls.
+    pub fn for_each_call<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
+        match &self.kind {
+            ExpressionKind::Quantity { .. } | ExpressionKind::Name(_) => {}
+            ExpressionKind::Call {
+                function,
+                arguments,
+            } => {
+                visit(&function.text, function.span);
+                for argument in arguments {
+                    argument.for_each_call(visit);
+                }
+            }
+            ExpressionKind::Negate(inner) => inner.for_each_call(visit),
+            ExpressionKind::Binary { left, right, .. } => {
+                left.for_each_call(visit);
+                right.for_each_call(visit);
+            }
+        }
+    }
+
     /// Calls `visit` on every sheet name this expression refers to (not function names).
     pub fn for_each_name<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
         match &self.kind {

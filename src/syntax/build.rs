@@ -26,9 +26,15 @@ pub struct ParsedSheet {
 
 /// Parses a whole sheet, one line at a time.
 pub fn parse_sheet(source: &str) -> ParsedSheet {
+    parse_sheet_at(source, 0)
+}
+
+/// Parses a sheet whose text starts at byte `base` of a larger offset space (an included
+/// sheet laid after the one that includes it).
+pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
     let mut lines = Vec::new();
     let mut errors = Vec::new();
-    let mut offset = 0;
+    let mut offset = base;
     for (index, raw_line) in source.split('\n').enumerate() {
         let text = raw_line.strip_suffix('\r').unwrap_or(raw_line);
         match parse_line(text, index + 1, offset) {
@@ -80,6 +86,31 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
                     .map(|inner| inner.as_str().trim().to_string());
             }
             Rule::definition => kind = LineKind::Definition(builder.definition(pair)?),
+            Rule::function_definition => {
+                kind = LineKind::Function(builder.function_definition(pair)?)
+            }
+            Rule::include_line => {
+                for inner in pair.into_inner() {
+                    match inner.as_rule() {
+                        Rule::quoted_path => {
+                            let path_span = builder.span(&inner);
+                            let path = inner
+                                .into_inner()
+                                .next()
+                                .map(|text| text.as_str().to_string())
+                                .unwrap_or_default();
+                            kind = LineKind::Include(Include { path, path_span });
+                        }
+                        Rule::comment => {
+                            comment = inner
+                                .into_inner()
+                                .next()
+                                .map(|text| text.as_str().trim().to_string());
+                        }
+                        _ => {}
+                    }
+                }
+            }
             Rule::display => kind = LineKind::Display(builder.display(pair)?),
             Rule::check_line => {
                 let (check, check_comment) = builder.check(pair)?;
@@ -204,6 +235,51 @@ impl Builder {
                 name,
                 display_unit,
                 expression,
+            }),
+            _ => Err(internal(fallback.start)),
+        }
+    }
+
+    fn function_definition(&self, pair: Pair<Rule>) -> Result<FunctionDefinition, SyntaxError> {
+        let fallback = self.span(&pair);
+        let mut name = None;
+        let mut parameters = Vec::new();
+        let mut result_unit = None;
+        let mut body = None;
+        for inner in pair.into_inner() {
+            match inner.as_rule() {
+                Rule::name => {
+                    name = Some(Name {
+                        text: inner.as_str().to_string(),
+                        span: self.span(&inner),
+                    })
+                }
+                Rule::parameter => {
+                    let mut parts = inner.into_inner();
+                    let parameter_name = parts.next().ok_or_else(|| internal(fallback.start))?;
+                    let unit = match parts.next() {
+                        Some(unit) => Some(self.display_unit(unit)?),
+                        None => None,
+                    };
+                    parameters.push(Parameter {
+                        name: Name {
+                            text: parameter_name.as_str().to_string(),
+                            span: self.span(&parameter_name),
+                        },
+                        unit,
+                    });
+                }
+                Rule::display_unit => result_unit = Some(self.display_unit(inner)?),
+                Rule::expression => body = Some(self.expression(inner)?),
+                _ => {}
+            }
+        }
+        match (name, body) {
+            (Some(name), Some(body)) => Ok(FunctionDefinition {
+                name,
+                parameters,
+                result_unit,
+                body,
             }),
             _ => Err(internal(fallback.start)),
         }
@@ -543,7 +619,9 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::message => "a quoted message",
         Rule::comment => "a `#` comment",
         Rule::EOI => "the end of the line",
-        Rule::definition | Rule::display | Rule::check_line => "a line",
+        Rule::definition | Rule::display | Rule::check_line | Rule::function_definition => "a line",
+        Rule::quoted_path => "a quoted path",
+        Rule::parameter => "a parameter name",
         _ => return None,
     })
 }
@@ -668,6 +746,32 @@ mod tests {
         let deep = format!("x = {}1{}", "(".repeat(100_000), ")".repeat(100_000));
         let error = parse_line(&deep, 1, 0).unwrap_err();
         assert!(matches!(error.kind, SyntaxErrorKind::NestingTooDeep { .. }));
+    }
+
+    #[test]
+    fn functions_and_includes() {
+        let line = parse_line("leak(K [m/s], h) [m/d] = K * h / 1 m", 1, 0).unwrap();
+        let LineKind::Function(function) = line.kind else {
+            panic!("{:?}", line.kind)
+        };
+        assert_eq!(function.name.text, "leak");
+        assert_eq!(function.parameters.len(), 2);
+        assert!(function.parameters[0].unit.is_some() && function.parameters[1].unit.is_none());
+        assert!(function.result_unit.is_some());
+        // A call shown in a unit is a display line, not a definition.
+        assert!(matches!(
+            parse_line("leak(a, b) [m/d]", 1, 0).unwrap().kind,
+            LineKind::Display(_)
+        ));
+        let include = parse_line("include \"shared/site.fxs\" # constants", 1, 0).unwrap();
+        assert!(
+            matches!(include.kind, LineKind::Include(Include { ref path, .. }) if path == "shared/site.fxs")
+        );
+        assert_eq!(include.comment.as_deref(), Some("constants"));
+        assert!(matches!(
+            parse_line("include_depth = 3 m", 1, 0).unwrap().kind,
+            LineKind::Definition(_)
+        ));
     }
 
     #[test]

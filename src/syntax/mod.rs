@@ -10,7 +10,9 @@ pub mod error;
 pub mod span;
 
 pub use ast::*;
-pub use build::{parse_expression, parse_line, parse_sheet, parse_unit, ParsedSheet};
+pub use build::{
+    parse_expression, parse_line, parse_sheet, parse_sheet_at, parse_unit, ParsedSheet,
+};
 pub use error::SyntaxError;
 pub use span::Span;
 

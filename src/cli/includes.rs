@@ -1,0 +1,91 @@
+//! Loading included sheets from disk, with the sandbox rule: a path is resolved from the
+//! including sheet's folder and may not leave the main sheet's folder tree (no absolute paths,
+//! no `..` above it, no symbolic link out of it) unless the user passes `--allow-outside`, so
+//! running a colleague's sheet cannot read arbitrary files.
+
+use crate::eval::{IncludeLoader, LoadedSheet};
+use std::collections::HashMap;
+use std::path::{Path, PathBuf};
+
+pub struct FileIncludeLoader {
+    /// The main sheet's folder, canonical: the sandbox.
+    root: PathBuf,
+    /// The main sheet's canonical path, for include cycles back to it.
+    main_key: Option<String>,
+    allow_outside: bool,
+    /// Folder of each loaded sheet, by label, to resolve its own includes.
+    folders: HashMap<String, PathBuf>,
+}
+
+impl FileIncludeLoader {
+    /// A loader for the sheet `label` found at `path` (`None` for standard input: the current
+    /// folder is the root then).
+    pub fn new(label: &str, path: Option<&Path>, allow_outside: bool) -> FileIncludeLoader {
+        let folder = path
+            .and_then(|path| path.parent())
+            .map(|parent| {
+                if parent.as_os_str().is_empty() {
+                    Path::new(".")
+                } else {
+                    parent
+                }
+            })
+            .unwrap_or(Path::new("."));
+        let root = std::fs::canonicalize(folder).unwrap_or_else(|_| folder.to_path_buf());
+        let mut folders = HashMap::new();
+        folders.insert(label.to_string(), folder.to_path_buf());
+        let main_key = path
+            .and_then(|path| std::fs::canonicalize(path).ok())
+            .map(|path| path.to_string_lossy().into_owned());
+        FileIncludeLoader {
+            root,
+            main_key,
+            allow_outside,
+            folders,
+        }
+    }
+}
+
+impl IncludeLoader for FileIncludeLoader {
+    fn main_key(&self, label: &str) -> String {
+        self.main_key.clone().unwrap_or_else(|| label.to_string())
+    }
+
+    fn load(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String> {
+        let requested = Path::new(path);
+        if requested.is_absolute() && !self.allow_outside {
+            return Err(format!(
+                "`{path}` is an absolute path; includes are relative to the sheet (pass --allow-outside to allow it)"
+            ));
+        }
+        let folder = self
+            .folders
+            .get(from)
+            .cloned()
+            .unwrap_or_else(|| PathBuf::from("."));
+        let joined = folder.join(requested);
+        let canonical = std::fs::canonicalize(&joined)
+            .map_err(|error| format!("cannot read `{path}`: {error}"))?;
+        if !self.allow_outside && !canonical.starts_with(&self.root) {
+            return Err(format!(
+                "`{path}` is outside the sheet's folder; pass --allow-outside to include it anyway"
+            ));
+        }
+        let bytes =
+            std::fs::read(&canonical).map_err(|error| format!("cannot read `{path}`: {error}"))?;
+        let text = String::from_utf8(bytes)
+            .map_err(|_| format!("cannot read `{path}`: it is not UTF-8 text"))?;
+        let label = joined.to_string_lossy().replace("/./", "/");
+        let label = label.strip_prefix("./").unwrap_or(&label).to_string();
+        let parent = joined
+            .parent()
+            .map(Path::to_path_buf)
+            .unwrap_or_else(|| PathBuf::from("."));
+        self.folders.insert(label.clone(), parent);
+        Ok(LoadedSheet {
+            label,
+            key: canonical.to_string_lossy().into_owned(),
+            text,
+        })
+    }
+}

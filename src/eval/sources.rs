@@ -1,0 +1,94 @@
+//! The sources of an evaluation: the main sheet and the sheets it includes, laid end to end in
+//! one offset space (each file has a base offset), so a `Span` stays two integers and still
+//! says which file it is in. Loading included files is the front end's job, behind the
+//! `IncludeLoader` trait: the evaluator itself never touches the file system.
+
+use crate::syntax::Span;
+
+/// One source text and where it starts in the shared offset space.
+#[derive(Debug, Clone)]
+pub struct SourceFile {
+    /// What to call it in messages: a path as the user gave it, or `<stdin>`.
+    pub label: String,
+    pub text: String,
+    pub base: usize,
+}
+
+/// All sources of one evaluation; the first is the main sheet.
+#[derive(Debug, Clone, Default)]
+pub struct SourceMap {
+    files: Vec<SourceFile>,
+}
+
+impl SourceMap {
+    /// Adds a file after the last one; returns its index.
+    pub fn add(&mut self, label: &str, text: &str) -> usize {
+        let base = self
+            .files
+            .last()
+            .map_or(0, |last| last.base + last.text.len() + 1);
+        self.files.push(SourceFile {
+            label: label.to_string(),
+            text: text.to_string(),
+            base,
+        });
+        self.files.len() - 1
+    }
+
+    pub fn files(&self) -> &[SourceFile] {
+        &self.files
+    }
+
+    pub fn file(&self, index: usize) -> Option<&SourceFile> {
+        self.files.get(index)
+    }
+
+    /// The index of the file holding `offset`.
+    pub fn file_index_of(&self, offset: usize) -> usize {
+        self.files
+            .iter()
+            .rposition(|file| file.base <= offset)
+            .unwrap_or(0)
+    }
+
+    /// The text under a span (empty if the span is not in one file).
+    pub fn text_of(&self, span: Span) -> &str {
+        let Some(file) = self.files.get(self.file_index_of(span.start)) else {
+            return "";
+        };
+        let start = span.start - file.base;
+        let end = span.end.saturating_sub(file.base);
+        file.text.get(start..end).unwrap_or_default()
+    }
+}
+
+/// A sheet brought in by `include`.
+#[derive(Debug, Clone)]
+pub struct LoadedSheet {
+    /// The label for messages (the path as resolved, relative where possible).
+    pub label: String,
+    /// A key that is the same however the file is reached (its canonical path), for cycles.
+    pub key: String,
+    pub text: String,
+}
+
+/// Loads included sheets for the evaluator, applying the front end's rules (paths relative to
+/// the including sheet, no leaving its folder tree unless allowed).
+pub trait IncludeLoader {
+    /// Loads `path` as written in an include line of the sheet labelled `from`.
+    fn load(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String>;
+
+    /// The cycle key of the main sheet (labelled `label`), comparable with `LoadedSheet::key`.
+    fn main_key(&self, label: &str) -> String {
+        label.to_string()
+    }
+}
+
+/// For sheets with no file behind them (`eval`, tests): every include is refused.
+pub struct NoIncludes;
+
+impl IncludeLoader for NoIncludes {
+    fn load(&mut self, _path: &str, _from: &str) -> Result<LoadedSheet, String> {
+        Err("includes are only available in sheets read from a file".to_string())
+    }
+}
