@@ -90,7 +90,10 @@ pub enum Operation {
 
 impl EvalError {
     pub fn new(kind: EvalErrorKind, span: Span) -> EvalError {
-        EvalError { kind: Box::new(kind), span }
+        EvalError {
+            kind: Box::new(kind),
+            span,
+        }
     }
 
     /// The diagnostic: message, extra labels and a help line where one helps.

@@ -6,6 +6,8 @@
 pub mod constants;
 pub mod formulation;
 pub mod math;
+pub mod transport;
+pub mod wells;
 
 use crate::eval::{CallError, Constant, Formulation, Function, Library, Provenance, Quantity};
 use std::collections::HashMap;
@@ -62,7 +64,10 @@ impl Function for Builtin {
 
 /// Every built-in function, by family.
 fn all_functions() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
-    math::FUNCTIONS.iter()
+    math::FUNCTIONS
+        .iter()
+        .chain(transport::FUNCTIONS.iter())
+        .chain(wells::FUNCTIONS.iter())
 }
 
 /// The standard library handed to the evaluator.
