@@ -8,11 +8,13 @@
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robustness`: generated input never panics; hostile nesting is refused.
+//! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 
 mod cli;
 mod errors;
 mod properties;
 mod reference;
 mod robustness;
+mod transport;
 mod util;
 mod worksheets;

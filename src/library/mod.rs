@@ -1,5 +1,7 @@
 //! Built-in functions and constants: mathematics, fluid properties (`water`, `brine`, `air`
-//! formulations typed with `uom`, exposed through `properties`), and constants. One entry per function: signature, summary, formulations, and the body.
+//! formulations typed with `uom`, exposed through `properties`), the transport laws and the
+//! relations around them (`transport`, `wells`), and constants. One entry per function:
+//! signature, summary, formulations, and the body.
 //!
 //! `library` implements `eval::Library`; it knows nothing of syntax, files or output.
 
@@ -9,7 +11,9 @@ pub mod constants;
 pub mod formulation;
 pub mod math;
 pub mod properties;
+pub mod transport;
 pub mod water;
+pub mod wells;
 
 use crate::eval::{CallError, Constant, Formulation, Function, Library, Provenance, Quantity};
 use std::collections::HashMap;
@@ -66,7 +70,11 @@ impl Function for Builtin {
 
 /// Every built-in function, by family.
 fn all_functions() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
-    math::FUNCTIONS.iter().chain(properties::FUNCTIONS)
+    math::FUNCTIONS
+        .iter()
+        .chain(properties::FUNCTIONS)
+        .chain(transport::FUNCTIONS.iter())
+        .chain(wells::FUNCTIONS.iter())
 }
 
 /// The standard library handed to the evaluator.
