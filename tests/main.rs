@@ -12,6 +12,7 @@
 
 mod cli;
 mod errors;
+mod includes;
 mod properties;
 mod reference;
 mod robustness;

@@ -159,3 +159,132 @@ fn sand_aquifer_seepage_pins() {
         "Q in gpm",
     );
 }
+
+/// Water at the Eastfield groundwater temperature (11 degC, 1 atm) from `seuif97`.
+fn eastfield_water() -> (f64, f64) {
+    use seuif97::{pt, OD, ODV};
+    (pt(0.101325, 11.0, (OD, 1)), pt(0.101325, 11.0, (ODV, 1)))
+}
+
+/// K = k rho g0 / mu (the shared sheet's `site_K`), liner leakage q = K (h + t)/t, and Fick's
+/// law in a porous medium J = n tau D0 dc/dx, all recomputed here.
+#[test]
+fn clay_liner_leakage_pins() {
+    let json = run_json(&worksheet("clay_liner_leakage.fxs"));
+    let (density, viscosity) = eastfield_water();
+    let conductivity = 0.012e-15 / 1.01325 * density * 9.80665 / viscosity;
+    assert_close(value(&json, "K_liner"), conductivity, 1e-11, "K_liner");
+    let flux = conductivity * (0.3 + 0.9) / 0.9; // m/s
+    let year = 365.25 * 86400.0;
+    assert_close(value(&json, "q_leak"), flux * year, 1e-11, "q_leak");
+    assert_close(
+        value(&json, "Q_leak"),
+        flux * year * 24_000.0,
+        1e-11,
+        "Q_leak",
+    );
+    assert_close(
+        value(&json, "Q_leak_daily"),
+        flux * 86400.0 * 24_000.0 * 1000.0,
+        1e-11,
+        "L/d",
+    );
+    let diffusion = 0.33 * 2.03e-9;
+    assert_close(value(&json, "D_eff"), diffusion, 1e-14, "D_eff");
+    let chloride_flux = 0.38 * diffusion * (1500.0 - 20.0) * 1e-3 / 0.9; // kg/(m^2 s), mg/L = 1e-3 kg/m^3
+    assert_close(
+        value(&json, "J_cl"),
+        chloride_flux * 1000.0 * year,
+        1e-12,
+        "J_cl",
+    );
+}
+
+/// E1 by its convergent series, independent of the library's own evaluation.
+fn exponential_integral(u: f64) -> f64 {
+    let mut sum = -0.577_215_664_901_532_9 - u.ln();
+    let mut term = 1.0;
+    for n in 1..200 {
+        term *= -u / n as f64;
+        sum -= term / n as f64;
+    }
+    sum
+}
+
+/// Thiem Q = 2 pi T s / ln(R/r), Theis s = Q/(4 pi T) W(u), Cooper-Jacob, recomputed here.
+#[test]
+fn excavation_dewatering_pins() {
+    let json = run_json(&worksheet("excavation_dewatering.fxs"));
+    let (density, viscosity) = eastfield_water();
+    let conductivity = 35.0e-12 / 1.01325 * density * 9.80665 / viscosity;
+    let transmissivity = conductivity * 12.0; // m^2/s
+    assert_close(value(&json, "T_aq"), transmissivity * 86400.0, 1e-11, "T");
+    let inflow = 2.0 * std::f64::consts::PI * transmissivity * 3.5 / (180.0f64 / 0.3).ln();
+    assert_close(value(&json, "Q_sump"), inflow * 3600.0, 1e-11, "Q_sump");
+    let u = 25.0f64 * 25.0 * 2e-4 / (4.0 * transmissivity * 86400.0);
+    assert_close(value(&json, "u_obs"), u, 1e-11, "u");
+    assert_close(
+        value(&json, "W_obs"),
+        exponential_integral(u),
+        1e-10,
+        "W(u)",
+    );
+    let drawdown = 0.015 / (4.0 * std::f64::consts::PI * transmissivity) * exponential_integral(u);
+    assert_close(value(&json, "s_obs"), drawdown, 1e-10, "Theis");
+    let jacob = 0.015 / (4.0 * std::f64::consts::PI * transmissivity) * (-0.5772 - u.ln());
+    assert_close(
+        value(&json, "s_jacob"),
+        jacob,
+        1e-4,
+        "Cooper-Jacob (Euler's constant to 4 digits)",
+    );
+}
+
+/// lambda = lambda_s^(1-n) lambda_w^n with lambda_w from `seuif97`; q = -lambda dT/dz.
+#[test]
+fn ground_heat_flux_pins() {
+    use seuif97::{pt, OTC};
+    let json = run_json(&worksheet("ground_heat_flux.fxs"));
+    let water = pt(0.101325, 8.0, (OTC, 1));
+    assert_close(value(&json, "lambda_water"), water, 1e-11, "lambda_water");
+    let soil = 3.0f64.powf(0.65) * water.powf(0.35);
+    assert_close(value(&json, "lambda_soil"), soil, 1e-11, "lambda_soil");
+    let flux = soil * (18.0 - 7.0) / 1.5;
+    assert_close(value(&json, "q_heat"), flux, 1e-11, "q_heat");
+    assert_close(
+        value(&json, "P_loss"),
+        flux * 1800.0 / 1000.0,
+        1e-11,
+        "P_loss",
+    );
+    let energy_joule = flux * 1800.0 * 365.25 * 86400.0;
+    assert_close(
+        value(&json, "E_year"),
+        energy_joule / 3.6e9,
+        1e-11,
+        "E_year",
+    );
+    assert_close(
+        value(&json, "E_year_btu"),
+        energy_joule / 1055.05585262,
+        1e-11,
+        "BTU",
+    );
+}
+
+/// Archie (1942): n = (a rho_w / rho_b)^(1/m), F = a n^-m; Ohm j = -sigma dV/dx.
+#[test]
+fn resistivity_porosity_pins() {
+    let json = run_json(&worksheet("resistivity_porosity.fxs"));
+    let water_resistivity = 1.0 / (650e-6 / 1e-2); // uS/cm -> S/m
+    assert_close(value(&json, "rho_w"), water_resistivity, 1e-12, "rho_w");
+    let porosity = (water_resistivity / 85.0f64).powf(1.0 / 1.3);
+    assert_close(value(&json, "n_archie"), porosity, 1e-12, "n");
+    assert_close(value(&json, "F"), porosity.powf(-1.3), 1e-12, "F");
+    assert_close(
+        value(&json, "j"),
+        0.12 / 85.0 * 1000.0,
+        1e-12,
+        "j in mA/m^2",
+    );
+}
