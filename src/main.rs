@@ -4,6 +4,11 @@ use clap::Parser;
 use fluxsheet::cli::{self, exit};
 use std::process::ExitCode;
 
+/// A sheet allocates many small, short-lived nodes; mimalloc handles that pattern markedly
+/// faster than the system allocator (see the benchmark in `benches/engine.rs`).
+#[global_allocator]
+static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
+
 fn main() -> ExitCode {
     let command_line = match cli::CommandLine::try_parse() {
         Ok(command_line) => command_line,

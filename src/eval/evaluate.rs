@@ -15,7 +15,7 @@ use crate::syntax::{
     FunctionDefinition, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
 use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
-use std::collections::HashMap;
+use rustc_hash::FxHashMap as HashMap;
 
 /// Relative tolerance of `==` and `!=` checks written without `within`.
 pub const DEFAULT_EQUALITY_TOLERANCE: f64 = 1e-9;
@@ -271,15 +271,15 @@ impl<'a> Evaluator<'a> {
             sources,
             lines,
             library,
-            definitions: HashMap::new(),
-            functions: HashMap::new(),
+            definitions: HashMap::default(),
+            functions: HashMap::default(),
             refused_functions: Vec::new(),
             scopes: Vec::new(),
             slots: vec![Slot::Pending; lines.len()],
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
             provenance: Provenance::default(),
-            unit_cache: HashMap::new(),
+            unit_cache: HashMap::default(),
         }
     }
 
@@ -1101,11 +1101,11 @@ pub fn show_in(
             span,
         ));
     }
-    Ok(ShownValue {
-        quantity,
-        unit: unit_text.to_string(),
-        value: unit.from_si(quantity.value),
-    })
+    let value = unit.from_si(quantity.value);
+    if !value.is_finite() {
+        return Err(EvalError::new(EvalErrorKind::NotFinite, span));
+    }
+    Ok(ShownValue { quantity, unit: unit_text.to_string(), value })
 }
 
 fn binary(

@@ -1,5 +1,5 @@
 //! Builds the syntax tree from pest pairs. Operator precedence and associativity live in one
-//! Pratt table here, not in the grammar. `expect_*` helpers would be user errors; a pair shape
+//! table here (`binding_power`), not in the grammar. `expect_*` helpers would be user errors; a pair shape
 //! the grammar rules out is reported as `internal`, never a panic.
 
 use super::ast::*;
@@ -7,9 +7,7 @@ use super::error::{SyntaxError, SyntaxErrorKind};
 use super::parser::{Rule, WorksheetParser};
 use super::span::Span;
 use pest::iterators::{Pair, Pairs};
-use pest::pratt_parser::{Assoc, Op, PrattParser};
 use pest::Parser;
-use std::sync::OnceLock;
 
 /// Deepest nesting of `(`/`[` accepted on one line; keeps parsing and evaluation off the stack's
 /// edge for hostile input.
@@ -85,10 +83,7 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
                     .next()
                     .map(|inner| inner.as_str().trim().to_string());
             }
-            Rule::definition => kind = LineKind::Definition(builder.definition(pair)?),
-            Rule::function_definition => {
-                kind = LineKind::Function(builder.function_definition(pair)?)
-            }
+            Rule::definition => kind = builder.definition(pair)?,
             Rule::include_line => {
                 for inner in pair.into_inner() {
                     match inner.as_rule() {
@@ -191,15 +186,24 @@ fn guard_against_deep_input(text: &str, offset: usize) -> Result<(), SyntaxError
     Ok(())
 }
 
-fn pratt() -> &'static PrattParser<Rule> {
-    static PRATT: OnceLock<PrattParser<Rule>> = OnceLock::new();
-    PRATT.get_or_init(|| {
-        PrattParser::new()
-            .op(Op::infix(Rule::add, Assoc::Left) | Op::infix(Rule::subtract, Assoc::Left))
-            .op(Op::infix(Rule::multiply, Assoc::Left) | Op::infix(Rule::divide, Assoc::Left))
-            .op(Op::prefix(Rule::negate) | Op::prefix(Rule::plus_sign))
-            .op(Op::infix(Rule::power, Assoc::Right))
-    })
+/// Binding power and right-associativity of each binary operator; a sign binds between `*`
+/// and `^`, so `-2^2` is -(2^2) and `2^-1` is 2^(-1).
+fn binding_power(operator: BinaryOperator) -> (u8, bool) {
+    match operator {
+        BinaryOperator::Add | BinaryOperator::Subtract => (1, false),
+        BinaryOperator::Multiply | BinaryOperator::Divide => (2, false),
+        BinaryOperator::Power => (4, true),
+    }
+}
+
+/// The binding power of a unary sign.
+const SIGN_POWER: u8 = 3;
+
+/// One element of an expression's flat pair list.
+enum Token {
+    Sign { negative: bool, span: Span },
+    Operand(Expression),
+    Operator(BinaryOperator),
 }
 
 struct Builder {
@@ -212,9 +216,11 @@ impl Builder {
         Span::new(span.start() + self.offset, span.end() + self.offset)
     }
 
-    fn definition(&self, pair: Pair<Rule>) -> Result<Definition, SyntaxError> {
+    /// A named line, or a sheet function when the name is followed by parameters.
+    fn definition(&self, pair: Pair<Rule>) -> Result<LineKind, SyntaxError> {
         let fallback = self.span(&pair);
         let mut name = None;
+        let mut parameters = None;
         let mut display_unit = None;
         let mut expression = None;
         for inner in pair.into_inner() {
@@ -225,64 +231,49 @@ impl Builder {
                         span: self.span(&inner),
                     })
                 }
+                Rule::parameters => parameters = Some(self.parameters(inner)?),
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
                 Rule::expression => expression = Some(self.expression(inner)?),
                 _ => {}
             }
         }
-        match (name, expression) {
-            (Some(name), Some(expression)) => Ok(Definition {
+        let (Some(name), Some(expression)) = (name, expression) else {
+            return Err(internal(fallback.start));
+        };
+        Ok(match parameters {
+            Some(parameters) => LineKind::Function(FunctionDefinition {
+                name,
+                parameters,
+                result_unit: display_unit,
+                body: expression,
+            }),
+            None => LineKind::Definition(Definition {
                 name,
                 display_unit,
                 expression,
             }),
-            _ => Err(internal(fallback.start)),
-        }
+        })
     }
 
-    fn function_definition(&self, pair: Pair<Rule>) -> Result<FunctionDefinition, SyntaxError> {
+    fn parameters(&self, pair: Pair<Rule>) -> Result<Vec<Parameter>, SyntaxError> {
         let fallback = self.span(&pair);
-        let mut name = None;
         let mut parameters = Vec::new();
-        let mut result_unit = None;
-        let mut body = None;
-        for inner in pair.into_inner() {
-            match inner.as_rule() {
-                Rule::name => {
-                    name = Some(Name {
-                        text: inner.as_str().to_string(),
-                        span: self.span(&inner),
-                    })
-                }
-                Rule::parameter => {
-                    let mut parts = inner.into_inner();
-                    let parameter_name = parts.next().ok_or_else(|| internal(fallback.start))?;
-                    let unit = match parts.next() {
-                        Some(unit) => Some(self.display_unit(unit)?),
-                        None => None,
-                    };
-                    parameters.push(Parameter {
-                        name: Name {
-                            text: parameter_name.as_str().to_string(),
-                            span: self.span(&parameter_name),
-                        },
-                        unit,
-                    });
-                }
-                Rule::display_unit => result_unit = Some(self.display_unit(inner)?),
-                Rule::expression => body = Some(self.expression(inner)?),
-                _ => {}
-            }
+        for parameter in pair.into_inner() {
+            let mut parts = parameter.into_inner();
+            let parameter_name = parts.next().ok_or_else(|| internal(fallback.start))?;
+            let unit = match parts.next() {
+                Some(unit) => Some(self.display_unit(unit)?),
+                None => None,
+            };
+            parameters.push(Parameter {
+                name: Name {
+                    text: parameter_name.as_str().to_string(),
+                    span: self.span(&parameter_name),
+                },
+                unit,
+            });
         }
-        match (name, body) {
-            (Some(name), Some(body)) => Ok(FunctionDefinition {
-                name,
-                parameters,
-                result_unit,
-                body,
-            }),
-            _ => Err(internal(fallback.start)),
-        }
+        Ok(parameters)
     }
 
     fn display(&self, pair: Pair<Rule>) -> Result<Display, SyntaxError> {
@@ -377,54 +368,25 @@ impl Builder {
     }
 
     fn operations(&self, pairs: Pairs<Rule>) -> Result<Expression, SyntaxError> {
-        pratt()
-            .map_primary(|primary| self.primary(primary))
-            .map_prefix(|operator, operand| {
-                let operand = operand?;
-                let span = self.span(&operator).to(operand.span);
-                Ok(match (operator.as_rule(), operand.kind) {
-                    // `-40 degF` is minus forty degrees Fahrenheit, not the negative of 40 degF.
-                    (Rule::negate, ExpressionKind::Quantity { digits, unit })
-                        if !digits.starts_with('-') =>
-                    {
-                        Expression {
-                            kind: ExpressionKind::Quantity {
-                                digits: format!("-{digits}"),
-                                unit,
-                            },
-                            span,
-                        }
-                    }
-                    (Rule::negate, kind) => Expression {
-                        kind: ExpressionKind::Negate(Box::new(Expression {
-                            kind,
-                            span: operand.span,
-                        })),
-                        span,
-                    },
-                    (_, kind) => Expression { kind, span },
-                })
-            })
-            .map_infix(|left, operator, right| {
-                let (left, right) = (left?, right?);
-                let operator = match operator.as_rule() {
-                    Rule::add => BinaryOperator::Add,
-                    Rule::subtract => BinaryOperator::Subtract,
-                    Rule::multiply => BinaryOperator::Multiply,
-                    Rule::divide => BinaryOperator::Divide,
+        let mut tokens = Vec::new();
+        for pair in pairs {
+            let token = match pair.as_rule() {
+                Rule::sign => Token::Sign {
+                    negative: pair.as_str() == "-",
+                    span: self.span(&pair),
+                },
+                Rule::operator => Token::Operator(match pair.as_str() {
+                    "+" => BinaryOperator::Add,
+                    "-" => BinaryOperator::Subtract,
+                    "*" => BinaryOperator::Multiply,
+                    "/" => BinaryOperator::Divide,
                     _ => BinaryOperator::Power,
-                };
-                let span = left.span.to(right.span);
-                Ok(Expression {
-                    kind: ExpressionKind::Binary {
-                        operator,
-                        left: Box::new(left),
-                        right: Box::new(right),
-                    },
-                    span,
-                })
-            })
-            .parse(pairs)
+                }),
+                _ => Token::Operand(self.primary(pair)?),
+            };
+            tokens.push(token);
+        }
+        climb(&mut tokens.into_iter().peekable(), 0).ok_or_else(|| internal(self.offset))
     }
 
     fn primary(&self, pair: Pair<Rule>) -> Result<Expression, SyntaxError> {
@@ -445,18 +407,20 @@ impl Builder {
                     span,
                 })
             }
-            Rule::name => Ok(Expression {
-                kind: ExpressionKind::Name(pair.as_str().to_string()),
-                span,
-            }),
-            Rule::call => {
+            Rule::reference => {
                 let mut inner = pair.into_inner();
-                let function = inner.next().ok_or_else(|| internal(span.start))?;
-                let function = Name {
-                    text: function.as_str().to_string(),
-                    span: self.span(&function),
+                let name = inner.next().ok_or_else(|| internal(span.start))?;
+                let Some(arguments) = inner.next() else {
+                    // The name's own span: the rule's may hold the spaces after it.
+                    let kind = ExpressionKind::Name(name.as_str().to_string());
+                    return Ok(Expression { kind, span: self.span(&name) });
                 };
-                let arguments = inner
+                let function = Name {
+                    text: name.as_str().to_string(),
+                    span: self.span(&name),
+                };
+                let arguments = arguments
+                    .into_inner()
                     .map(|argument| self.expression(argument))
                     .collect::<Result<_, _>>()?;
                 Ok(Expression {
@@ -545,6 +509,59 @@ impl Builder {
     }
 }
 
+/// Precedence climbing over an expression's tokens: operands and operators alternate (the
+/// grammar guarantees it) and signs prefix operands. `None` only if that shape is broken.
+fn climb(
+    tokens: &mut std::iter::Peekable<std::vec::IntoIter<Token>>,
+    minimum: u8,
+) -> Option<Expression> {
+    let mut left = match tokens.next()? {
+        Token::Operand(operand) => operand,
+        Token::Sign { negative, span } => {
+            let operand = climb(tokens, SIGN_POWER)?;
+            let span = span.to(operand.span);
+            match (negative, operand.kind) {
+                // `-40 degF` is minus forty degrees Fahrenheit, not the negative of 40 degF.
+                (true, ExpressionKind::Quantity { digits, unit }) if !digits.starts_with('-') => {
+                    Expression {
+                        kind: ExpressionKind::Quantity {
+                            digits: format!("-{digits}"),
+                            unit,
+                        },
+                        span,
+                    }
+                }
+                (true, kind) => Expression {
+                    kind: ExpressionKind::Negate(Box::new(Expression {
+                        kind,
+                        span: operand.span,
+                    })),
+                    span,
+                },
+                (false, kind) => Expression { kind, span },
+            }
+        }
+        Token::Operator(_) => return None,
+    };
+    while let Some(Token::Operator(operator)) = tokens.peek() {
+        let operator = *operator;
+        let (power, right_associative) = binding_power(operator);
+        if power < minimum {
+            break;
+        }
+        tokens.next();
+        let right = climb(tokens, if right_associative { power } else { power + 1 })?;
+        let span = left.span.to(right.span);
+        let kind = ExpressionKind::Binary {
+            operator,
+            left: Box::new(left),
+            right: Box::new(right),
+        };
+        left = Expression { kind, span };
+    }
+    Some(left)
+}
+
 /// Reads `2`, `-1`, `(1/2)`, `(-3/2)`; `None` for a zero denominator or a huge number.
 fn exponent_value(text: &str) -> Option<(i32, i32)> {
     let inside = text.trim_start_matches('(').trim_end_matches(')');
@@ -607,10 +624,14 @@ fn convert(error: pest::error::Error<Rule>, text: &str, offset: usize) -> Syntax
 
 fn describe(rule: Rule) -> Option<&'static str> {
     Some(match rule {
-        Rule::expression | Rule::quantity | Rule::number | Rule::call | Rule::name => {
-            "an expression"
-        }
-        Rule::add | Rule::subtract | Rule::multiply | Rule::divide | Rule::power => "an operator",
+        Rule::expression
+        | Rule::quantity
+        | Rule::number
+        | Rule::reference
+        | Rule::name
+        | Rule::sign => "an expression",
+        Rule::operator => "an operator",
+        Rule::arguments => "`(`",
         Rule::display_unit => "`[unit]`",
         Rule::unit_expression | Rule::unit_factor | Rule::unit_symbol | Rule::unit_one => "a unit",
         Rule::unit_exponent => "a unit exponent such as 2 or (1/2)",
@@ -619,9 +640,9 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::message => "a quoted message",
         Rule::comment => "a `#` comment",
         Rule::EOI => "the end of the line",
-        Rule::definition | Rule::display | Rule::check_line | Rule::function_definition => "a line",
+        Rule::definition | Rule::display | Rule::check_line => "a line",
         Rule::quoted_path => "a quoted path",
-        Rule::parameter => "a parameter name",
+        Rule::parameter | Rule::parameters => "a parameter name",
         _ => return None,
     })
 }
