@@ -179,3 +179,57 @@ fn digits_sets_significant_figures() {
     let (_, stdout, _) = run(&["eval", "2 / 3", "--digits", "6"]);
     assert_eq!(stdout, "0.666667\n");
 }
+
+/// The temperature rules of the README, each once.
+#[test]
+fn temperature_rules() {
+    let json = eval_json("30 degC - 20 degC");
+    assert_eq!(json["unit"], "K");
+    assert!((json["si_value"].as_f64().unwrap() - 10.0).abs() < 1e-12);
+    let json = eval_json("(30 degC - 20 degC) [delta_degF]");
+    assert!((json["value"].as_f64().unwrap() - 18.0).abs() < 1e-9);
+    let json = eval_json("20 degC + 5 K [degC]");
+    assert!((json["value"].as_f64().unwrap() - 25.0).abs() < 1e-12);
+    let json = eval_json("300 K [degF]");
+    assert!((json["value"].as_f64().unwrap() - 80.33).abs() < 1e-9);
+    // Inside a compound unit a degree is a difference: 1 W/(m*degF) = 1.8 W/(m*K).
+    assert!(
+        (eval_json("1 W/(m*degF) [W/(m*K)]")["value"]
+            .as_f64()
+            .unwrap()
+            - 1.8)
+            .abs()
+            < 1e-12
+    );
+    for refused in [
+        "20 degC [delta_degC]",
+        "5 delta_degC - 20 degC",
+        "20 degC + 20 degF",
+        "(20 degC - 10 degC) [degF]",
+    ] {
+        assert_eq!(run(&["eval", refused]).0, 3, "{refused}");
+    }
+}
+
+/// Rational exponents: powers and roots of units combine exactly.
+#[test]
+fn dimension_algebra_with_rational_exponents() {
+    assert!(
+        (eval_json("sqrt(2 m) * sqrt(8 m) [m]")["value"]
+            .as_f64()
+            .unwrap()
+            - 4.0)
+            .abs()
+            < 1e-15
+    );
+    assert_eq!(eval_json("(4 m)^(3/2)")["dimension"], "L^(3/2)");
+    assert_eq!(eval_json("(9 m^2)^0.5 [m]")["value"].as_f64(), Some(3.0));
+    assert_eq!(
+        eval_json("1 m^(1/2) * 1 m^(1/2) [m]")["value"].as_f64(),
+        Some(1.0)
+    );
+    assert_eq!(eval_json("2 kg*m/s^2 [N]")["value"].as_f64(), Some(2.0));
+    assert_eq!(eval_json("1 1/d [1/s]")["dimension"], "T^-1");
+    assert_eq!(run(&["eval", "sqrt(-4 m^2)"]).0, 3);
+    assert_eq!(run(&["eval", "exp(2 m)"]).0, 3);
+}

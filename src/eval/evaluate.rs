@@ -228,7 +228,8 @@ impl Loaded {
 #[derive(Debug, Clone)]
 enum Slot {
     Pending,
-    Ready(ShownValue),
+    /// Evaluated; the value in SI (its display form is in `results`).
+    Ready(Quantity),
     /// Failed or skipped.
     Failed,
 }
@@ -658,7 +659,7 @@ impl<'a> Evaluator<'a> {
     fn settle(&mut self, index: usize, outcome: Result<ShownValue, Failure>) {
         match outcome {
             Ok(shown) => {
-                self.slots[index] = Slot::Ready(shown.clone());
+                self.slots[index] = Slot::Ready(shown.quantity);
                 self.results[index] = Some(LineResult::Value(shown));
             }
             Err(failure) => {
@@ -843,7 +844,7 @@ impl<'a> Evaluator<'a> {
         }
         if let Some(index) = self.definitions.get(name) {
             return match &self.slots[*index] {
-                Slot::Ready(shown) => Ok(shown.quantity),
+                Slot::Ready(quantity) => Ok(*quantity),
                 Slot::Failed | Slot::Pending => Err(Failure::Upstream(name.to_string())),
             };
         }
@@ -935,10 +936,10 @@ impl<'a> Evaluator<'a> {
                     return self.shown(quantity, None, side)
                 }
                 ExpressionKind::Name(name) => {
-                    if let Some(Slot::Ready(shown)) = self
+                    if let Some(Some(LineResult::Value(shown))) = self
                         .definitions
                         .get(name.as_str())
-                        .map(|index| &self.slots[*index])
+                        .map(|index| &self.results[*index])
                     {
                         let text = shown.unit.clone();
                         if let Ok(expression) = crate::syntax::parse_unit(&text) {
@@ -1105,7 +1106,11 @@ pub fn show_in(
     if !value.is_finite() {
         return Err(EvalError::new(EvalErrorKind::NotFinite, span));
     }
-    Ok(ShownValue { quantity, unit: unit_text.to_string(), value })
+    Ok(ShownValue {
+        quantity,
+        unit: unit_text.to_string(),
+        value,
+    })
 }
 
 fn binary(

@@ -413,7 +413,10 @@ impl Builder {
                 let Some(arguments) = inner.next() else {
                     // The name's own span: the rule's may hold the spaces after it.
                     let kind = ExpressionKind::Name(name.as_str().to_string());
-                    return Ok(Expression { kind, span: self.span(&name) });
+                    return Ok(Expression {
+                        kind,
+                        span: self.span(&name),
+                    });
                 };
                 let function = Name {
                     text: name.as_str().to_string(),

@@ -189,22 +189,21 @@ impl ScientificDecimal {
         .normalized()
     }
 
-    /// Brings the mantissa into [1, 10). `None` for zero (no factor is zero).
-    fn normalized(mut self) -> Option<Self> {
+    /// Brings the mantissa into [1, 10) by moving its decimal point (no division). `None` for
+    /// zero (no factor is zero).
+    fn normalized(self) -> Option<Self> {
         if self.mantissa.is_zero() {
             return None;
         }
-        let ten = Decimal::TEN;
-        while self.mantissa.abs() >= ten {
-            self.mantissa /= ten;
-            self.exponent = self.exponent.checked_add(1)?;
-        }
-        while self.mantissa.abs() < Decimal::ONE {
-            self.mantissa *= ten;
-            self.exponent = self.exponent.checked_sub(1)?;
-        }
-        self.mantissa = self.mantissa.normalize();
-        Some(self)
+        let unscaled = self.mantissa.mantissa();
+        let digits = unscaled.unsigned_abs().ilog10() + 1;
+        // A decimal holds at most 29 digits, so the new scale is at most 28.
+        let new_scale = digits - 1;
+        let shift = new_scale as i32 - self.mantissa.scale() as i32;
+        Some(ScientificDecimal {
+            mantissa: Decimal::from_i128_with_scale(unscaled, new_scale).normalize(),
+            exponent: self.exponent.checked_add(shift)?,
+        })
     }
 
     fn multiply(&self, other: &Self) -> Option<Self> {
@@ -251,13 +250,6 @@ impl fmt::Display for ScientificDecimal {
             write!(formatter, "{}e{}", self.mantissa, self.exponent)
         }
     }
-}
-
-/// Used where a literal cannot be held exactly (too many digits or out of decimal range).
-pub fn f64_from_decimal_text(text: &str) -> Option<f64> {
-    text.parse::<f64>()
-        .ok()
-        .or_else(|| Decimal::from_str(text).ok()?.to_f64())
 }
 
 #[cfg(test)]
