@@ -2,6 +2,7 @@
 //! `units` and `functions`. This and `main.rs` are the only code that reads files or writes to
 //! the terminal; everything else is handed writers.
 
+use crate::eval::warnings::{deny_warnings, evaluate_with_warnings};
 use crate::eval::{evaluate_sheet, Evaluation, LineResult};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, value_json, DiagnosticJson};
@@ -13,7 +14,10 @@ use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
 use std::io::{self, IsTerminal, Read, Write};
 use std::path::Path;
 
+mod against;
+mod check;
 mod properties;
+mod report;
 
 /// Exit codes, as documented in the README.
 pub mod exit {
@@ -68,7 +72,14 @@ pub enum Command {
         /// Sheet files (`-` reads standard input)
         #[arg(required = true)]
         files: Vec<String>,
+        /// Treat warnings as errors (exit code 3)
+        #[arg(long)]
+        deny_warnings: bool,
     },
+    /// Check sheets and folders of sheets: print only errors, warnings and failed checks
+    Check(check::CheckArgs),
+    /// Write a calculation report of a sheet as Markdown or self-contained HTML
+    Report(report::ReportArgs),
     /// Evaluate one expression or line and print its value and unit
     #[command(
         after_help = "Examples:\n  fluxsheet eval '1 acre*ft [m^3]' --digits 15\n  fluxsheet eval 'sqrt(4 m^2)'\n  fluxsheet eval '300 K [degC]'"
@@ -116,7 +127,12 @@ pub fn run(command_line: CommandLine) -> u8 {
     let stdout = io::stdout();
     let mut out = stdout.lock();
     let result = match &command_line.command {
-        Command::Run { files } => run_files(&mut out, files, options),
+        Command::Run {
+            files,
+            deny_warnings,
+        } => run_files(&mut out, files, options, *deny_warnings),
+        Command::Check(arguments) => check::run(&mut out, arguments, options),
+        Command::Report(arguments) => report::run(&mut out, arguments, options),
         Command::Eval { expression } => eval_expression(&mut out, expression, options),
         Command::Units { filter } => {
             list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK)
@@ -185,7 +201,12 @@ fn exit_code_for(evaluation: &Evaluation) -> u8 {
     }
 }
 
-fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> io::Result<u8> {
+fn run_files(
+    out: &mut dyn Write,
+    files: &[String],
+    options: RenderOptions,
+    deny: bool,
+) -> io::Result<u8> {
     let library = Builtins::standard();
     let mut worst = exit::OK;
     let mut json_sheets = Vec::new();
@@ -202,7 +223,10 @@ fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> i
                 continue;
             }
         };
-        let evaluation = evaluate_sheet(&source.text, library);
+        let mut evaluation = evaluate_with_warnings(&source.text, library);
+        if deny {
+            deny_warnings(&mut evaluation);
+        }
         worst = worst.max(exit_code_for(&evaluation));
         if options.format == Format::Json {
             let sheet = sheet_json(Some(&source.label), &source.text, &evaluation);
@@ -244,6 +268,7 @@ fn run_files(out: &mut dyn Write, files: &[String], options: RenderOptions) -> i
 fn unreadable_json(file: &str, message: &str) -> DiagnosticJson {
     DiagnosticJson {
         severity: "error",
+        code: None,
         file: Some(file.to_string()),
         line: 0,
         column: 0,

@@ -3,12 +3,14 @@
 
 //! The single integration-test binary: drives the built `fluxsheet` and the library API.
 //!
+//! - `checker`: check lines, `check` over folders, warnings, reports, `--against`.
 //! - `cli`: commands, formats, exit codes and the JSON contract.
 //! - `errors`: each error class on a small sheet, its exit code and rendered message.
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 
+mod checker;
 mod cli;
 mod errors;
 mod properties;

@@ -11,7 +11,7 @@ use super::order::dependency_order;
 use super::value::{Quantity, TemperatureKind};
 use crate::syntax::{
     parse_sheet, BinaryOperator, Check, Comparison, Expression, ExpressionKind, Line, LineKind,
-    Span, UnitExpression, UnitExpressionKind,
+    ParsedSheet, Span, UnitExpression, UnitExpressionKind,
 };
 use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
 use std::collections::HashMap;
@@ -25,6 +25,19 @@ pub struct Evaluation {
     pub lines: Vec<LineOutcome>,
     pub diagnostics: Vec<Diagnostic>,
     pub provenance: Provenance,
+    /// Every built-in call that got its arguments evaluated, in evaluation order (for checks
+    /// on the values passed, such as the plausibility warnings).
+    pub calls: Vec<CallRecord>,
+}
+
+/// A built-in call and the values of its arguments.
+#[derive(Debug, Clone)]
+pub struct CallRecord {
+    pub function: String,
+    /// The whole call.
+    pub span: Span,
+    /// Each argument's span and value.
+    pub arguments: Vec<(Span, Quantity)>,
 }
 
 impl Evaluation {
@@ -101,7 +114,11 @@ pub struct CheckOutcome {
 
 /// Evaluates a sheet's source text.
 pub fn evaluate_sheet(source: &str, library: &dyn Library) -> Evaluation {
-    let parsed = parse_sheet(source);
+    evaluate_parsed(source, &parse_sheet(source), library)
+}
+
+/// Evaluates a sheet already parsed from `source` (for passes that also need the syntax tree).
+pub fn evaluate_parsed(source: &str, parsed: &ParsedSheet, library: &dyn Library) -> Evaluation {
     let mut evaluator = Evaluator::new(source, &parsed.sheet.lines, library);
     evaluator
         .diagnostics
@@ -142,6 +159,7 @@ struct Evaluator<'a> {
     results: Vec<Option<LineResult>>,
     diagnostics: Vec<Diagnostic>,
     provenance: Provenance,
+    calls: Vec<CallRecord>,
     unit_cache: HashMap<&'a str, Unit>,
 }
 
@@ -156,6 +174,7 @@ impl<'a> Evaluator<'a> {
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
             provenance: Provenance::default(),
+            calls: Vec::new(),
             unit_cache: HashMap::new(),
         }
     }
@@ -387,6 +406,7 @@ impl<'a> Evaluator<'a> {
             lines,
             diagnostics,
             provenance: self.provenance,
+            calls: self.calls,
         }
     }
 
@@ -422,6 +442,15 @@ impl<'a> Evaluator<'a> {
                 for argument in arguments {
                     values.push(self.expression(argument)?);
                 }
+                self.calls.push(CallRecord {
+                    function: function.text.clone(),
+                    span,
+                    arguments: arguments
+                        .iter()
+                        .map(|argument| argument.span)
+                        .zip(values.iter().copied())
+                        .collect(),
+                });
                 callee
                     .call(&values, &mut self.provenance)
                     .map_err(|error| {

@@ -9,9 +9,14 @@ pub mod evaluate;
 pub mod function;
 pub mod order;
 pub mod value;
+pub mod warnings;
 
 pub use diagnostic::{Diagnostic, Severity};
 pub use error::{EvalError, EvalErrorKind};
-pub use evaluate::{evaluate_sheet, CheckOutcome, Evaluation, LineOutcome, LineResult, ShownValue};
+pub use evaluate::{
+    evaluate_parsed, evaluate_sheet, CallRecord, CheckOutcome, Evaluation, LineOutcome, LineResult,
+    ShownValue,
+};
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
 pub use value::{Quantity, TemperatureKind};
+pub use warnings::evaluate_with_warnings;

@@ -49,6 +49,8 @@ pub struct CheckJson {
 pub struct DiagnosticJson {
     pub severity: &'static str,
     #[serde(skip_serializing_if = "Option::is_none")]
+    pub code: Option<&'static str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
     pub file: Option<String>,
     pub line: usize,
     pub column: usize,
@@ -89,6 +91,7 @@ pub fn diagnostics_json(
             let (end_line, end_column) = locate(source, diagnostic.span.end);
             DiagnosticJson {
                 severity: diagnostic.severity.word(),
+                code: diagnostic.code,
                 file: file.map(str::to_string),
                 line,
                 column,
