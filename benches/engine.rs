@@ -1,5 +1,7 @@
 //! Benchmarks: parse + evaluate generated sheets of 10 000 and 100 000 lines (cost must grow
-//! linearly), and the cost of single property calls. Run with `cargo bench`.
+//! linearly), the cost of single property calls, and `fluxsheet check` over a folder of 200
+//! generated 50-line sheets (the pre-commit case, process start included). Run with
+//! `cargo bench`.
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion, Throughput};
 use fluxsheet::eval::evaluate_sheet;
@@ -87,5 +89,65 @@ fn property_calls(criterion: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, sheets, property_calls);
+/// A clean 50-line sheet in five sections: a heading, a comment, inputs, a property call, unit
+/// conversions and a check in each, every line used or displayed (no warnings).
+pub fn checker_sheet(index: usize) -> String {
+    let mut sheet = String::with_capacity(50 * 48);
+    for section in 0..5 {
+        let tag = format!("{index}_{section}");
+        let millidarcy = 10 + (index * 7 + section * 13) % 490;
+        let celsius = 5 + (index + section) % 20;
+        sheet.push_str(&format!("## Core {tag} (generated)\n"));
+        sheet.push_str("# Lab permeability at the groundwater temperature.\n");
+        sheet.push_str(&format!("k_{tag} = {millidarcy} mD\n"));
+        sheet.push_str(&format!("T_{tag} = {celsius} degC\n"));
+        sheet.push_str(&format!(
+            "K_{tag} [m/s] = hydraulic_conductivity(k_{tag}, T_{tag})\n"
+        ));
+        sheet.push_str(&format!("i_{tag} = 0.{} m / 25 m\n", 1 + section));
+        sheet.push_str(&format!("n_{tag} = 0.{}\n", 2 + section % 3));
+        sheet.push_str(&format!("q_{tag} [m/d] = K_{tag} * i_{tag}\n"));
+        sheet.push_str(&format!("v_{tag} [ft/d] = q_{tag} / n_{tag}\n"));
+        sheet.push_str(&format!(
+            "check v_{tag} > q_{tag} \"seepage is faster than the flux\"\n"
+        ));
+    }
+    sheet
+}
+
+fn check_folder(criterion: &mut Criterion) {
+    let folder = tempfile::tempdir().expect("temporary folder");
+    for index in 0..200 {
+        let sub = folder.path().join(format!("site_{}", index % 10));
+        std::fs::create_dir_all(&sub).expect("folder");
+        std::fs::write(
+            sub.join(format!("sheet_{index:03}.fxs")),
+            checker_sheet(index),
+        )
+        .expect("sheet written");
+    }
+    let binary = env!("CARGO_BIN_EXE_fluxsheet");
+    let mut group = criterion.benchmark_group("check_folder");
+    group.sample_size(10);
+    group.throughput(Throughput::Elements(200));
+    group.bench_function("200_sheets_of_50_lines", |bencher| {
+        bencher.iter(|| {
+            let output = std::process::Command::new(binary)
+                .arg("check")
+                .arg(folder.path())
+                .output()
+                .expect("fluxsheet runs");
+            assert_eq!(
+                output.status.code(),
+                Some(0),
+                "{}",
+                String::from_utf8_lossy(&output.stdout)
+            );
+            output
+        })
+    });
+    group.finish();
+}
+
+criterion_group!(benches, sheets, property_calls, check_folder);
 criterion_main!(benches);

@@ -2,6 +2,7 @@
 //! `units` and `functions`. This and `main.rs` are the only code that reads files or writes to
 //! the terminal; everything else is handed writers.
 
+use crate::eval::warnings::deny_warnings;
 use crate::eval::{evaluate, Evaluation, LineResult};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, value_json, DiagnosticJson};
@@ -13,8 +14,11 @@ use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
 use std::io::{self, IsTerminal, Read, Write};
 use std::path::Path;
 
+mod against;
+mod check;
 mod includes;
 mod properties;
+mod report;
 
 /// Exit codes, as documented in the README.
 pub mod exit {
@@ -72,7 +76,14 @@ pub enum Command {
         /// Let `include` lines read files outside the sheet's folder tree
         #[arg(long)]
         allow_outside: bool,
+        /// Treat warnings as errors (exit code 3)
+        #[arg(long)]
+        deny_warnings: bool,
     },
+    /// Check sheets and folders of sheets: print only errors, warnings and failed checks
+    Check(check::CheckArgs),
+    /// Write a calculation report of a sheet as Markdown or self-contained HTML
+    Report(report::ReportArgs),
     /// Evaluate one expression or line and print its value and unit
     #[command(
         after_help = "Examples:\n  fluxsheet eval '1 acre*ft [m^3]' --digits 15\n  fluxsheet eval 'sqrt(4 m^2)'\n  fluxsheet eval '300 K [degC]'"
@@ -123,7 +134,10 @@ pub fn run(command_line: CommandLine) -> u8 {
         Command::Run {
             files,
             allow_outside,
-        } => run_files(&mut out, files, *allow_outside, options),
+            deny_warnings,
+        } => run_files(&mut out, files, options, *allow_outside, *deny_warnings),
+        Command::Check(arguments) => check::run(&mut out, arguments, options),
+        Command::Report(arguments) => report::run(&mut out, arguments, options),
         Command::Eval { expression } => eval_expression(&mut out, expression, options),
         Command::Units { filter } => {
             list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK)
@@ -156,12 +170,12 @@ fn stderr_stream() -> StandardStream {
 }
 
 /// A sheet's text and the name to show for it.
-struct SheetSource {
-    label: String,
-    text: String,
+pub(crate) struct SheetSource {
+    pub label: String,
+    pub text: String,
 }
 
-fn read_sheet(file: &str) -> Result<SheetSource, String> {
+pub(crate) fn read_sheet(file: &str) -> Result<SheetSource, String> {
     if file == "-" {
         let mut text = String::new();
         io::stdin()
@@ -192,13 +206,34 @@ fn exit_code_for(evaluation: &Evaluation) -> u8 {
     }
 }
 
+/// Evaluates a sheet read from a file (or stdin when `path` is `None`) with its includes under
+/// the folder sandbox; warnings become errors with `deny`. Shared by `run`, `check`, `report`.
+pub(crate) fn evaluate_file(
+    source: &SheetSource,
+    path: Option<&Path>,
+    allow_outside: bool,
+    deny: bool,
+) -> Evaluation {
+    let mut loader = includes::FileIncludeLoader::new(&source.label, path, allow_outside);
+    let mut evaluation = evaluate(
+        &source.label,
+        &source.text,
+        Builtins::standard(),
+        &mut loader,
+    );
+    if deny {
+        deny_warnings(&mut evaluation);
+    }
+    evaluation
+}
+
 fn run_files(
     out: &mut dyn Write,
     files: &[String],
-    allow_outside: bool,
     options: RenderOptions,
+    allow_outside: bool,
+    deny: bool,
 ) -> io::Result<u8> {
-    let library = Builtins::standard();
     let mut worst = exit::OK;
     let mut json_sheets = Vec::new();
     for (index, file) in files.iter().enumerate() {
@@ -215,8 +250,7 @@ fn run_files(
             }
         };
         let path = (file != "-").then(|| Path::new(file.as_str()));
-        let mut loader = includes::FileIncludeLoader::new(&source.label, path, allow_outside);
-        let evaluation = evaluate(&source.label, &source.text, library, &mut loader);
+        let evaluation = evaluate_file(&source, path, allow_outside, deny);
         worst = worst.max(exit_code_for(&evaluation));
         if options.format == Format::Json {
             let sheet = sheet_json(Some(&source.label), &evaluation);
@@ -257,6 +291,7 @@ fn run_files(
 fn unreadable_json(file: &str, message: &str) -> DiagnosticJson {
     DiagnosticJson {
         severity: "error",
+        code: None,
         file: Some(file.to_string()),
         line: 0,
         column: 0,

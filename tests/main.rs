@@ -3,6 +3,7 @@
 
 //! The single integration-test binary: drives the built `fluxsheet` and the library API.
 //!
+//! - `checker`: check lines, `check` over folders, warnings, reports, `--against`.
 //! - `cli`: commands, formats, exit codes and the JSON contract.
 //! - `errors`: each error class on a small sheet, its exit code and rendered message.
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
@@ -10,6 +11,7 @@
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 
+mod checker;
 mod cli;
 mod errors;
 mod includes;

@@ -145,7 +145,7 @@ fn sand_aquifer_seepage_pins() {
     assert_close(value(&json, "v"), darcy_flux / 0.28, 1e-12, "v");
     let travel_days = 0.4 * 1609.344 / (darcy_flux / 0.28);
     assert_close(
-        value(&json, "travel_time"),
+        value(&json, "t_travel"),
         travel_days / 365.25,
         1e-12,
         "travel time",
@@ -280,7 +280,7 @@ fn resistivity_porosity_pins() {
     assert_close(value(&json, "rho_w"), water_resistivity, 1e-12, "rho_w");
     let porosity = (water_resistivity / 85.0f64).powf(1.0 / 1.3);
     assert_close(value(&json, "n_archie"), porosity, 1e-12, "n");
-    assert_close(value(&json, "F"), porosity.powf(-1.3), 1e-12, "F");
+    assert_close(value(&json, "F_archie"), porosity.powf(-1.3), 1e-12, "F");
     assert_close(
         value(&json, "j"),
         0.12 / 85.0 * 1000.0,

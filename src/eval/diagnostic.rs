@@ -27,6 +27,8 @@ pub struct Diagnostic {
     /// Other places worth showing (the first definition of a duplicate name, say).
     pub labels: Vec<(Span, String)>,
     pub help: Option<String>,
+    /// A short stable name for the kind of warning (`unused-line`), for filtering and JSON.
+    pub code: Option<&'static str>,
 }
 
 impl Diagnostic {
@@ -37,6 +39,7 @@ impl Diagnostic {
             span,
             labels: Vec::new(),
             help: None,
+            code: None,
         }
     }
 
@@ -47,11 +50,17 @@ impl Diagnostic {
             span,
             labels: Vec::new(),
             help: None,
+            code: None,
         }
     }
 
     pub fn with_label(mut self, span: Span, message: impl Into<String>) -> Diagnostic {
         self.labels.push((span, message.into()));
+        self
+    }
+
+    pub fn with_code(mut self, code: &'static str) -> Diagnostic {
+        self.code = Some(code);
         self
     }
 

@@ -29,6 +29,19 @@ pub struct Evaluation {
     pub sources: SourceMap,
     pub diagnostics: Vec<Diagnostic>,
     pub provenance: Provenance,
+    /// Every built-in call that got its arguments evaluated, in evaluation order (for checks
+    /// on the values passed, such as the plausibility warnings).
+    pub calls: Vec<CallRecord>,
+}
+
+/// A built-in call and the values of its arguments.
+#[derive(Debug, Clone)]
+pub struct CallRecord {
+    pub function: String,
+    /// The whole call.
+    pub span: Span,
+    /// Each argument's span and value.
+    pub arguments: Vec<(Span, Quantity)>,
 }
 
 impl Evaluation {
@@ -149,6 +162,14 @@ pub fn evaluate(
     evaluator.run();
     let mut evaluation = evaluator.finish(main_lines);
     evaluation.sources = sources;
+    // Warnings only on a sheet without errors: an error can hide a use or a value.
+    if !evaluation.has_errors() {
+        let warnings = super::warnings::sheet_warnings(&lines[..main_lines], &evaluation, library);
+        evaluation.diagnostics.extend(warnings);
+        evaluation
+            .diagnostics
+            .sort_by_key(|diagnostic| diagnostic.span.start);
+    }
     evaluation
 }
 
@@ -263,6 +284,7 @@ struct Evaluator<'a> {
     results: Vec<Option<LineResult>>,
     diagnostics: Vec<Diagnostic>,
     provenance: Provenance,
+    calls: Vec<CallRecord>,
     unit_cache: HashMap<&'a str, Unit>,
 }
 
@@ -280,6 +302,7 @@ impl<'a> Evaluator<'a> {
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
             provenance: Provenance::default(),
+            calls: Vec::new(),
             unit_cache: HashMap::default(),
         }
     }
@@ -719,6 +742,7 @@ impl<'a> Evaluator<'a> {
             sources: SourceMap::default(),
             diagnostics,
             provenance: self.provenance,
+            calls: self.calls,
         }
     }
 
@@ -760,6 +784,15 @@ impl<'a> Evaluator<'a> {
                 for argument in arguments {
                     values.push(self.expression(argument)?);
                 }
+                self.calls.push(CallRecord {
+                    function: function.text.clone(),
+                    span,
+                    arguments: arguments
+                        .iter()
+                        .map(|argument| argument.span)
+                        .zip(values.iter().copied())
+                        .collect(),
+                });
                 callee
                     .call(&values, &mut self.provenance)
                     .map_err(|error| {

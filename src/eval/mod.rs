@@ -10,11 +10,13 @@ pub mod function;
 pub mod order;
 pub mod sources;
 pub mod value;
+pub mod warnings;
 
 pub use diagnostic::{Diagnostic, Severity};
 pub use error::{EvalError, EvalErrorKind};
 pub use evaluate::{
-    evaluate, evaluate_sheet, CheckOutcome, Evaluation, LineOutcome, LineResult, ShownValue,
+    evaluate, evaluate_sheet, CallRecord, CheckOutcome, Evaluation, LineOutcome, LineResult,
+    ShownValue,
 };
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
 pub use sources::{IncludeLoader, LoadedSheet, NoIncludes, SourceFile, SourceMap};

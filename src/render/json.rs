@@ -49,6 +49,8 @@ pub struct CheckJson {
 pub struct DiagnosticJson {
     pub severity: &'static str,
     #[serde(skip_serializing_if = "Option::is_none")]
+    pub code: Option<&'static str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
     pub file: Option<String>,
     pub line: usize,
     pub column: usize,
@@ -88,6 +90,7 @@ pub fn diagnostics_json(sources: &SourceMap, diagnostics: &[Diagnostic]) -> Vec<
             let (end_line, end_column) = locate(text, range.end);
             DiagnosticJson {
                 severity: diagnostic.severity.word(),
+                code: diagnostic.code,
                 file: (!label.starts_with('<')).then(|| label.to_string()),
                 line,
                 column,

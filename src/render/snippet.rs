@@ -86,6 +86,10 @@ pub fn write_diagnostics(
         if let Some(help) = &diagnostic.help {
             notes.push(format!("help: {help}"));
         }
+        let snippet = match diagnostic.code {
+            Some(code) => snippet.with_code(code),
+            None => snippet,
+        };
         let snippet = snippet
             .with_message(&diagnostic.message)
             .with_labels(labels)

@@ -52,7 +52,7 @@ fn with_unit(value: f64, unit: &str, digits: u32) -> String {
 }
 
 /// Both sides of a check in one unit, e.g. `4.05e-6 m/s > 9.16e-7 m/s within 1 %`.
-fn check_text(check: &CheckOutcome, digits: u32) -> String {
+pub fn check_text(check: &CheckOutcome, digits: u32) -> String {
     let mut text = format!(
         "{} {} {}",
         with_unit(check.left.value, &check.left.unit, digits),

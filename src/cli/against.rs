@@ -1,0 +1,193 @@
+//! `fluxsheet check --against EARLIER.json`: the values of an earlier `fluxsheet run --format
+//! json` (one sheet object or an array of them), and the comparison of a new evaluation with
+//! them, named line by named line, in SI.
+
+use crate::eval::{Evaluation, LineResult};
+use serde_json::Value;
+use std::path::Path;
+
+/// One named value of an earlier run.
+#[derive(Debug, Clone)]
+pub struct EarlierValue {
+    pub name: String,
+    pub line: u64,
+    pub si_value: f64,
+    pub si_unit: String,
+}
+
+/// One sheet of an earlier run.
+#[derive(Debug, Clone)]
+pub struct EarlierSheet {
+    pub file: Option<String>,
+    pub values: Vec<EarlierValue>,
+}
+
+/// All sheets of an earlier run.
+#[derive(Debug, Clone)]
+pub struct Earlier {
+    pub sheets: Vec<EarlierSheet>,
+}
+
+/// A value that is not what it was.
+#[derive(Debug, Clone)]
+pub struct Moved {
+    pub name: String,
+    /// The line now, or the earlier line when it is gone.
+    pub line: u64,
+    pub old_si_value: f64,
+    pub old_si_unit: String,
+    /// `None` when the line is no longer computed.
+    pub new_si_value: Option<f64>,
+    pub new_si_unit: Option<String>,
+    /// |new - old| / max(|old|, |new|), when both exist in the same SI unit.
+    pub relative_change: Option<f64>,
+}
+
+impl Earlier {
+    /// Reads and checks the earlier JSON; the message says what is wrong.
+    pub fn load(path: &Path) -> Result<Earlier, String> {
+        let shown = path.display();
+        let text = std::fs::read_to_string(path)
+            .map_err(|error| format!("cannot read earlier results `{shown}`: {error}"))?;
+        let document: Value = serde_json::from_str(&text)
+            .map_err(|error| format!("earlier results `{shown}` are not JSON: {error}"))?;
+        let objects: Vec<&Value> = match &document {
+            Value::Array(items) => items.iter().collect(),
+            object @ Value::Object(_) => vec![object],
+            _ => Vec::new(),
+        };
+        if objects.is_empty() {
+            return Err(format!(
+                "earlier results `{shown}` hold no sheet: expected the output of `fluxsheet run --format json`"
+            ));
+        }
+        let sheets = objects
+            .into_iter()
+            .map(|object| sheet_of(object).ok_or_else(|| {
+                format!(
+                    "earlier results `{shown}` are not the output of `fluxsheet run --format json` (a sheet lacks `lines` with `name`, `line`, `si_value` and `si_unit`)"
+                )
+            }))
+            .collect::<Result<Vec<_>, _>>()?;
+        Ok(Earlier { sheets })
+    }
+
+    /// The earlier sheet to compare `label` (read from `path`) with. With one sheet on each side
+    /// they pair whatever their names; otherwise by the same file label, then the same file.
+    pub fn find(&self, label: &str, path: Option<&Path>, checked: usize) -> Option<&EarlierSheet> {
+        if checked == 1 && self.sheets.len() == 1 {
+            return self.sheets.first();
+        }
+        if let Some(sheet) = self
+            .sheets
+            .iter()
+            .find(|sheet| sheet.file.as_deref() == Some(label))
+        {
+            return Some(sheet);
+        }
+        let canonical = path.and_then(|path| path.canonicalize().ok())?;
+        self.sheets.iter().find(|sheet| {
+            sheet
+                .file
+                .as_deref()
+                .and_then(|file| Path::new(file).canonicalize().ok())
+                .is_some_and(|earlier| earlier == canonical)
+        })
+    }
+}
+
+/// A sheet object's named values; `None` when it is not shaped like `run`'s JSON. An object
+/// with only `diagnostics` (a file that could not be read) has no values.
+fn sheet_of(object: &Value) -> Option<EarlierSheet> {
+    let file = object
+        .get("file")
+        .and_then(Value::as_str)
+        .map(str::to_string);
+    let Some(lines) = object.get("lines") else {
+        return object.get("diagnostics").map(|_| EarlierSheet {
+            file,
+            values: Vec::new(),
+        });
+    };
+    let mut values = Vec::new();
+    for line in lines.as_array()? {
+        let name = match line.get("name")? {
+            Value::Null => continue,
+            name => name.as_str()?.to_string(),
+        };
+        values.push(EarlierValue {
+            name,
+            line: line.get("line")?.as_u64()?,
+            si_value: line.get("si_value")?.as_f64()?,
+            si_unit: line.get("si_unit")?.as_str()?.to_string(),
+        });
+    }
+    Some(EarlierSheet { file, values })
+}
+
+/// Every earlier value that the new evaluation does not reproduce within `tolerance`
+/// (relative), in the earlier sheet's order.
+pub fn compare(earlier: &EarlierSheet, evaluation: &Evaluation, tolerance: f64) -> Vec<Moved> {
+    let mut moved = Vec::new();
+    for old in &earlier.values {
+        let now = evaluation
+            .lines
+            .iter()
+            .find(|line| line.name.as_deref() == Some(old.name.as_str()));
+        let value = now.and_then(|line| match &line.result {
+            LineResult::Value(shown) => Some((line.number as u64, shown)),
+            _ => None,
+        });
+        let Some((line, shown)) = value else {
+            moved.push(Moved {
+                name: old.name.clone(),
+                line: now.map_or(old.line, |line| line.number as u64),
+                old_si_value: old.si_value,
+                old_si_unit: old.si_unit.clone(),
+                new_si_value: None,
+                new_si_unit: None,
+                relative_change: None,
+            });
+            continue;
+        };
+        let new_value = shown.quantity.value;
+        let new_unit = shown.quantity.dimension.si_unit_text();
+        let relative = relative_change(old.si_value, new_value);
+        let same_unit = new_unit == old.si_unit;
+        if !same_unit || relative > tolerance {
+            moved.push(Moved {
+                name: old.name.clone(),
+                line,
+                old_si_value: old.si_value,
+                old_si_unit: old.si_unit.clone(),
+                new_si_value: Some(new_value),
+                new_si_unit: Some(new_unit),
+                relative_change: same_unit.then_some(relative),
+            });
+        }
+    }
+    moved
+}
+
+/// |new - old| / max(|old|, |new|); 0 when both are 0.
+pub fn relative_change(old: f64, new: f64) -> f64 {
+    let scale = old.abs().max(new.abs());
+    if scale == 0.0 {
+        0.0
+    } else {
+        (new - old).abs() / scale
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::relative_change;
+
+    #[test]
+    fn relative_change_is_symmetric_and_zero_safe() {
+        assert_eq!(relative_change(0.0, 0.0), 0.0);
+        assert_eq!(relative_change(0.0, 1e-300), 1.0);
+        assert_eq!(relative_change(2.0, 1.0), 0.5);
+        assert_eq!(relative_change(1.0, 2.0), 0.5);
+    }
+}

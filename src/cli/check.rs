@@ -1,0 +1,539 @@
+//! `fluxsheet check FILE|DIR…`: evaluates every sheet in-process (folders searched recursively
+//! for `.fxs`, in sorted order) and prints only what needs attention (errors, warnings, failed
+//! checks, values that moved since an earlier run), then a line per sheet and a total.
+
+use super::against::{compare, Earlier, Moved};
+use super::{exit, exit_code_for, read_sheet, unreadable_json, SheetSource};
+use crate::eval::warnings::warning_count;
+use crate::eval::{Evaluation, LineResult, Severity};
+use crate::render::json::{diagnostics_json, value_json, CheckJson, DiagnosticJson};
+use crate::render::table::check_text;
+use crate::render::{self, Format, RenderOptions};
+use clap::Args;
+use codespan_reporting::term::termcolor::{Ansi, NoColor};
+use serde::Serialize;
+use std::io::{self, IsTerminal, Write};
+use std::path::{Path, PathBuf};
+
+#[derive(Args, Debug)]
+#[command(
+    after_help = "Prints nothing for a clean sheet but its summary line; errors, warnings and failed \
+checks are shown with their line. Exit codes: 0 all sheets ok, 1 a check failed or a value moved, \
+3 a sheet has errors (or, with --deny-warnings, warnings).\n\nExamples:\n  fluxsheet check worksheets\n  \
+fluxsheet check --deny-warnings site/*.fxs\n  fluxsheet check --format json worksheets\n  \
+fluxsheet run --format json site.fxs > earlier.json && fluxsheet check site.fxs --against earlier.json"
+)]
+pub struct CheckArgs {
+    /// Sheet files and folders (searched recursively for `.fxs`); `-` reads standard input
+    #[arg(required = true, value_name = "FILE|DIR")]
+    pub paths: Vec<String>,
+    /// Treat warnings as errors (exit code 3)
+    #[arg(long)]
+    pub deny_warnings: bool,
+    /// Let `include` lines read files outside each sheet's folder tree
+    #[arg(long)]
+    pub allow_outside: bool,
+    /// Compare every named value with this earlier `fluxsheet run --format json` output
+    #[arg(long, value_name = "EARLIER.json")]
+    pub against: Option<PathBuf>,
+    /// Relative change beyond which a value counts as moved (with --against)
+    #[arg(long, requires = "against", value_parser = parse_tolerance, value_name = "RELATIVE")]
+    pub tolerance: Option<f64>,
+}
+
+/// Default of `--tolerance`.
+pub const DEFAULT_TOLERANCE: f64 = 1e-9;
+
+fn parse_tolerance(text: &str) -> Result<f64, String> {
+    match text.trim().parse::<f64>() {
+        Ok(value) if value.is_finite() && value >= 0.0 => Ok(value),
+        _ => Err("expected a relative tolerance, a number >= 0 such as 1e-6".to_string()),
+    }
+}
+
+/// A sheet to check: its label and, unless it is standard input, its path.
+struct Target {
+    label: String,
+    path: Option<PathBuf>,
+    /// Why it cannot be checked at all (a path that does not exist, an unreadable folder).
+    problem: Option<String>,
+}
+
+/// Expands the arguments into sheets, in argument order, folders sorted and recursive.
+fn targets(paths: &[String]) -> Vec<Target> {
+    let mut targets = Vec::new();
+    for argument in paths {
+        if argument == "-" {
+            targets.push(Target {
+                label: "<stdin>".to_string(),
+                path: None,
+                problem: None,
+            });
+            continue;
+        }
+        let path = PathBuf::from(argument);
+        if path.is_dir() {
+            let mut found = Vec::new();
+            let mut problems = Vec::new();
+            walk(&path, &mut found, &mut problems);
+            found.sort();
+            targets.extend(found.into_iter().map(|path| Target {
+                label: path.display().to_string(),
+                path: Some(path),
+                problem: None,
+            }));
+            targets.extend(problems);
+        } else {
+            targets.push(Target {
+                label: argument.clone(),
+                path: Some(path),
+                problem: None,
+            });
+        }
+    }
+    targets
+}
+
+/// Collects `.fxs` files under `directory`. Symbolic links to folders are not followed (no
+/// loops); links to files are.
+fn walk(directory: &Path, found: &mut Vec<PathBuf>, problems: &mut Vec<Target>) {
+    let entries = match std::fs::read_dir(directory) {
+        Ok(entries) => entries,
+        Err(error) => {
+            problems.push(Target {
+                label: directory.display().to_string(),
+                path: None,
+                problem: Some(format!(
+                    "cannot read folder `{}`: {error}",
+                    directory.display()
+                )),
+            });
+            return;
+        }
+    };
+    for entry in entries.flatten() {
+        let path = entry.path();
+        let Ok(kind) = entry.file_type() else {
+            continue;
+        };
+        if kind.is_dir() {
+            walk(&path, found, problems);
+        } else if path.extension().is_some_and(|extension| extension == "fxs")
+            && (kind.is_file() || path.is_file())
+        {
+            found.push(path);
+        }
+    }
+}
+
+/// Reads a sheet from its path (or standard input).
+fn read_target(target: &Target) -> Result<SheetSource, String> {
+    if let Some(problem) = &target.problem {
+        return Err(problem.clone());
+    }
+    let Some(path) = &target.path else {
+        return read_sheet("-");
+    };
+    let label = &target.label;
+    let bytes = std::fs::read(path).map_err(|error| format!("cannot read `{label}`: {error}"))?;
+    let text = String::from_utf8(bytes)
+        .map_err(|_| format!("cannot read `{label}`: it is not UTF-8 text"))?;
+    Ok(SheetSource {
+        label: label.clone(),
+        text,
+    })
+}
+
+/// What became of one sheet.
+struct SheetReport {
+    label: String,
+    evaluation: Option<Evaluation>,
+    unreadable: Option<String>,
+    moved: Vec<Moved>,
+    /// `--against` was given.
+    compared: bool,
+    /// `--against` was given but the earlier run has no such sheet.
+    no_earlier: bool,
+    code: u8,
+}
+
+impl SheetReport {
+    fn counts(&self) -> Counts {
+        let Some(evaluation) = &self.evaluation else {
+            return Counts {
+                errors: 1,
+                ..Counts::default()
+            };
+        };
+        let mut counts = Counts::default();
+        for line in &evaluation.lines {
+            match &line.result {
+                LineResult::Value(_) => counts.values += 1,
+                LineResult::Check(check) => {
+                    counts.checks += 1;
+                    if check.passed {
+                        counts.passed += 1;
+                    }
+                }
+                _ => {}
+            }
+        }
+        counts.warnings = warning_count(evaluation);
+        counts.errors = evaluation
+            .diagnostics
+            .iter()
+            .filter(|diagnostic| diagnostic.severity == Severity::Error)
+            .count();
+        counts.moved = self.moved.len() + usize::from(self.no_earlier);
+        counts
+    }
+
+    fn status(&self) -> &'static str {
+        match self.code {
+            exit::OK => "ok",
+            exit::CHECK_FAILED => "failed",
+            _ => "error",
+        }
+    }
+}
+
+#[derive(Default, Clone, Copy)]
+struct Counts {
+    values: usize,
+    checks: usize,
+    passed: usize,
+    errors: usize,
+    warnings: usize,
+    moved: usize,
+}
+
+/// An SI value in full (shortest text that reads back to the same double), in exponent form
+/// when it is very small or large.
+fn exact(value: f64) -> String {
+    let magnitude = value.abs();
+    if magnitude == 0.0 || (1e-3..1e7).contains(&magnitude) {
+        format!("{value}")
+    } else {
+        format!("{value:e}")
+    }
+}
+
+fn plural(count: usize, one: &str, many: &str) -> String {
+    format!("{count} {}", if count == 1 { one } else { many })
+}
+
+/// Runs `check`; returns the exit code.
+pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -> io::Result<u8> {
+    let earlier = match &arguments.against {
+        Some(path) => match Earlier::load(path) {
+            Ok(earlier) => Some(earlier),
+            Err(message) => {
+                eprintln!("error: {message}");
+                return Ok(exit::SHEET_ERROR);
+            }
+        },
+        None => None,
+    };
+    let tolerance = arguments.tolerance.unwrap_or(DEFAULT_TOLERANCE);
+    let targets = targets(&arguments.paths);
+    let json = options.format == Format::Json;
+    let color = !json && io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
+    let mut reports = Vec::with_capacity(targets.len());
+    for target in &targets {
+        let read = read_target(target);
+        let report = match read {
+            Err(message) => SheetReport {
+                label: target.label.clone(),
+                evaluation: None,
+                unreadable: Some(message),
+                moved: Vec::new(),
+                compared: false,
+                no_earlier: false,
+                code: exit::SHEET_ERROR,
+            },
+            Ok(source) => {
+                let evaluation = super::evaluate_file(
+                    &source,
+                    target.path.as_deref(),
+                    arguments.allow_outside,
+                    arguments.deny_warnings,
+                );
+                let mut code = exit_code_for(&evaluation);
+                let (moved, no_earlier) = match &earlier {
+                    None => (Vec::new(), false),
+                    Some(earlier) => {
+                        match earlier.find(&target.label, target.path.as_deref(), targets.len()) {
+                            Some(sheet) => (compare(sheet, &evaluation, tolerance), false),
+                            None => (Vec::new(), true),
+                        }
+                    }
+                };
+                if (!moved.is_empty() || no_earlier) && code == exit::OK {
+                    code = exit::CHECK_FAILED;
+                }
+                SheetReport {
+                    label: target.label.clone(),
+                    evaluation: Some(evaluation),
+                    unreadable: None,
+                    moved,
+                    compared: earlier.is_some(),
+                    no_earlier,
+                    code,
+                }
+            }
+        };
+        if !json {
+            write_text(out, &report, options, color, tolerance)?;
+        }
+        reports.push(report);
+    }
+    let worst = reports
+        .iter()
+        .map(|report| report.code)
+        .max()
+        .unwrap_or(exit::OK);
+    let total = Total::of(&reports);
+    if json {
+        let document = CheckDocument {
+            sheets: reports.iter().map(sheet_json).collect(),
+            total,
+            exit_code: worst,
+        };
+        writeln!(
+            out,
+            "{}",
+            serde_json::to_string_pretty(&document).map_err(io::Error::other)?
+        )?;
+    } else {
+        writeln!(out, "{}", total.line(earlier.is_some()))?;
+    }
+    Ok(worst)
+}
+
+fn write_text(
+    out: &mut dyn Write,
+    report: &SheetReport,
+    options: RenderOptions,
+    color: bool,
+    tolerance: f64,
+) -> io::Result<()> {
+    let label = &report.label;
+    if let Some(message) = &report.unreadable {
+        writeln!(out, "error: {message}")?;
+        writeln!(out, "{label}: error (not checked)")?;
+        return Ok(());
+    }
+    let Some(evaluation) = &report.evaluation else {
+        return Ok(());
+    };
+    if !evaluation.diagnostics.is_empty() {
+        if color {
+            render::write_diagnostics(
+                &mut Ansi::new(&mut *out),
+                &evaluation.sources,
+                &evaluation.diagnostics,
+            )?;
+        } else {
+            render::write_diagnostics(
+                &mut NoColor::new(&mut *out),
+                &evaluation.sources,
+                &evaluation.diagnostics,
+            )?;
+        }
+    }
+    for line in &evaluation.lines {
+        if let LineResult::Check(check) = &line.result {
+            if !check.passed {
+                writeln!(
+                    out,
+                    "{label}:{}: failed check: {}",
+                    line.number,
+                    check_text(check, options.digits)
+                )?;
+            }
+        }
+    }
+    if report.no_earlier {
+        writeln!(
+            out,
+            "{label}: no earlier results for this sheet to compare with"
+        )?;
+    }
+    for moved in &report.moved {
+        let old = exact(moved.old_si_value);
+        let old_unit = &moved.old_si_unit;
+        match (moved.new_si_value, &moved.new_si_unit, moved.relative_change) {
+            (Some(new), _, Some(relative)) => writeln!(
+                out,
+                "{label}:{}: `{}` moved: {old} -> {} {old_unit} (relative change {relative:.3e} > {tolerance:e})",
+                moved.line,
+                moved.name,
+                exact(new)
+            )?,
+            (Some(new), Some(unit), None) => writeln!(
+                out,
+                "{label}:{}: `{}` changed dimension: {old} {old_unit} -> {} {unit}",
+                moved.line,
+                moved.name,
+                exact(new)
+            )?,
+            _ => writeln!(
+                out,
+                "{label}:{}: `{}` is no longer computed (was {old} {old_unit})",
+                moved.line, moved.name
+            )?,
+        }
+    }
+    let counts = report.counts();
+    let mut details = vec![
+        plural(counts.values, "value", "values"),
+        format!("{}/{} checks passed", counts.passed, counts.checks),
+    ];
+    if counts.errors > 0 {
+        details.push(plural(counts.errors, "error", "errors"));
+    }
+    if counts.warnings > 0 {
+        details.push(plural(counts.warnings, "warning", "warnings"));
+    }
+    if counts.moved > 0 {
+        details.push(format!("{} moved", plural(counts.moved, "value", "values")));
+    }
+    writeln!(out, "{label}: {} ({})", report.status(), details.join(", "))
+}
+
+#[derive(Serialize, Default)]
+struct Total {
+    sheets: usize,
+    ok: usize,
+    failed: usize,
+    with_errors: usize,
+    errors: usize,
+    warnings: usize,
+    failed_checks: usize,
+    moved: usize,
+}
+
+impl Total {
+    fn of(reports: &[SheetReport]) -> Total {
+        let mut total = Total {
+            sheets: reports.len(),
+            ..Total::default()
+        };
+        for report in reports {
+            match report.code {
+                exit::OK => total.ok += 1,
+                exit::CHECK_FAILED => total.failed += 1,
+                _ => total.with_errors += 1,
+            }
+            let counts = report.counts();
+            total.errors += counts.errors;
+            total.warnings += counts.warnings;
+            total.failed_checks += counts.checks - counts.passed;
+            total.moved += counts.moved;
+        }
+        total
+    }
+
+    fn line(&self, against: bool) -> String {
+        let mut details = vec![
+            plural(self.errors, "error", "errors"),
+            plural(self.warnings, "warning", "warnings"),
+            plural(self.failed_checks, "failed check", "failed checks"),
+        ];
+        if against {
+            details.push(format!("{} moved", plural(self.moved, "value", "values")));
+        }
+        format!(
+            "total: {}: {} ok, {} failed, {} with errors ({})",
+            plural(self.sheets, "sheet", "sheets"),
+            self.ok,
+            self.failed,
+            self.with_errors,
+            details.join(", ")
+        )
+    }
+}
+
+#[derive(Serialize)]
+struct CheckDocument {
+    sheets: Vec<SheetCheckJson>,
+    total: Total,
+    exit_code: u8,
+}
+
+#[derive(Serialize)]
+struct SheetCheckJson {
+    file: String,
+    status: &'static str,
+    values: usize,
+    checks: usize,
+    passed_checks: usize,
+    failed_checks: Vec<CheckJson>,
+    diagnostics: Vec<DiagnosticJson>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    moved: Option<Vec<MovedJson>>,
+    #[serde(skip_serializing_if = "std::ops::Not::not")]
+    no_earlier_results: bool,
+}
+
+#[derive(Serialize)]
+struct MovedJson {
+    name: String,
+    line: u64,
+    old_si_value: f64,
+    old_si_unit: String,
+    new_si_value: Option<f64>,
+    new_si_unit: Option<String>,
+    relative_change: Option<f64>,
+}
+
+fn sheet_json(report: &SheetReport) -> SheetCheckJson {
+    let counts = report.counts();
+    let mut failed_checks = Vec::new();
+    let mut diagnostics = Vec::new();
+    if let Some(evaluation) = &report.evaluation {
+        for line in &evaluation.lines {
+            if let LineResult::Check(check) = &line.result {
+                if !check.passed {
+                    failed_checks.push(CheckJson {
+                        line: line.number,
+                        passed: false,
+                        text: line.expression.clone(),
+                        left: value_json(&check.left),
+                        right: value_json(&check.right),
+                        message: check.message.clone(),
+                    });
+                }
+            }
+        }
+        diagnostics = diagnostics_json(&evaluation.sources, &evaluation.diagnostics);
+    }
+    if let Some(message) = &report.unreadable {
+        diagnostics.push(unreadable_json(&report.label, message));
+    }
+    SheetCheckJson {
+        file: report.label.clone(),
+        status: report.status(),
+        values: counts.values,
+        checks: counts.checks,
+        passed_checks: counts.passed,
+        failed_checks,
+        diagnostics,
+        moved: report.compared.then(|| {
+            report
+                .moved
+                .iter()
+                .map(|moved| MovedJson {
+                    name: moved.name.clone(),
+                    line: moved.line,
+                    old_si_value: moved.old_si_value,
+                    old_si_unit: moved.old_si_unit.clone(),
+                    new_si_value: moved.new_si_value,
+                    new_si_unit: moved.new_si_unit.clone(),
+                    relative_change: moved.relative_change,
+                })
+                .collect()
+        }),
+        no_earlier_results: report.no_earlier,
+    }
+}
