@@ -12,6 +12,25 @@ pub struct SourceFile {
     pub label: String,
     pub text: String,
     pub base: usize,
+    /// Byte offset (within `text`) where each line starts, for line and column look-ups.
+    line_starts: Vec<usize>,
+}
+
+impl SourceFile {
+    /// 1-based line and column (in characters) of a byte offset within this file's text.
+    pub fn line_column(&self, offset: usize) -> (usize, usize) {
+        let offset = offset.min(self.text.len());
+        let line = self
+            .line_starts
+            .partition_point(|start| *start <= offset)
+            .max(1);
+        let start = self.line_starts[line - 1];
+        let column = self
+            .text
+            .get(start..offset)
+            .map_or(1, |before| before.chars().count() + 1);
+        (line, column)
+    }
 }
 
 /// All sources of one evaluation; the first is the main sheet.
@@ -27,10 +46,14 @@ impl SourceMap {
             .files
             .last()
             .map_or(0, |last| last.base + last.text.len() + 1);
+        let line_starts = std::iter::once(0)
+            .chain(text.match_indices('\n').map(|(position, _)| position + 1))
+            .collect();
         self.files.push(SourceFile {
             label: label.to_string(),
             text: text.to_string(),
             base,
+            line_starts,
         });
         self.files.len() - 1
     }
@@ -49,6 +72,17 @@ impl SourceMap {
             .iter()
             .rposition(|file| file.base <= offset)
             .unwrap_or(0)
+    }
+
+    /// File label, line and column of an offset of the shared space.
+    pub fn locate(&self, offset: usize) -> (&str, usize, usize) {
+        match self.files.get(self.file_index_of(offset)) {
+            Some(file) => {
+                let (line, column) = file.line_column(offset - file.base);
+                (file.label.as_str(), line, column)
+            }
+            None => ("", 1, 1),
+        }
     }
 
     /// The text under a span (empty if the span is not in one file).
@@ -90,5 +124,26 @@ pub struct NoIncludes;
 impl IncludeLoader for NoIncludes {
     fn load(&mut self, _path: &str, _from: &str) -> Result<LoadedSheet, String> {
         Err("includes are only available in sheets read from a file".to_string())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::SourceMap;
+
+    #[test]
+    fn lines_and_columns_are_one_based_characters_in_each_file() {
+        let mut sources = SourceMap::default();
+        sources.add("main.fxs", "a = 1\nρ = 2 m\n");
+        let second = sources.add("shared.fxs", "b = 3\n");
+        assert_eq!(sources.locate(0), ("main.fxs", 1, 1));
+        assert_eq!(sources.locate(6), ("main.fxs", 2, 1));
+        // `=` after the two-byte ρ and a space is the third character.
+        assert_eq!(sources.locate(9), ("main.fxs", 2, 3));
+        let base = sources
+            .file(second)
+            .map(|file| file.base)
+            .unwrap_or_default();
+        assert_eq!(sources.locate(base + 4), ("shared.fxs", 1, 5));
     }
 }

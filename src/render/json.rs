@@ -1,7 +1,6 @@
 //! JSON output. Serializable mirror types live here, at the edge, so the JSON contract in
 //! DESIGN.md does not freeze the evaluator's internal types.
 
-use super::snippet::{locate, place};
 use crate::eval::{Diagnostic, Evaluation, LineResult, ShownValue, SourceMap};
 use serde::Serialize;
 
@@ -84,10 +83,9 @@ pub fn diagnostics_json(sources: &SourceMap, diagnostics: &[Diagnostic]) -> Vec<
     diagnostics
         .iter()
         .map(|diagnostic| {
-            let (file, label, range) = place(sources, diagnostic.span);
-            let text = sources.file(file).map_or("", |source| source.text.as_str());
-            let (line, column) = locate(text, range.start);
-            let (end_line, end_column) = locate(text, range.end);
+            let (label, line, column) = sources.locate(diagnostic.span.start);
+            let end = diagnostic.span.end.max(diagnostic.span.start);
+            let (_, end_line, end_column) = sources.locate(end);
             DiagnosticJson {
                 severity: diagnostic.severity.word(),
                 code: diagnostic.code,

@@ -8,7 +8,7 @@ pub mod snippet;
 pub mod table;
 
 pub use number::format_significant;
-pub use snippet::{locate, write_diagnostics};
+pub use snippet::write_diagnostics;
 
 /// Output formats of `--format`.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -8,7 +8,6 @@
 //! writer points to the HTML report. Sheets have no plots yet, so nothing makes a figure today;
 //! a plotting feature only has to produce `Block::Figure`s.
 
-use super::snippet::locate;
 use super::table::check_text;
 use super::{format_significant, CAUTION};
 use crate::eval::{Evaluation, LineResult, Severity};
@@ -340,7 +339,7 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
     if !evaluation.diagnostics.is_empty() {
         writeln!(out, "## Errors and warnings\n")?;
         for diagnostic in &evaluation.diagnostics {
-            let (line, column) = locate(context.source, diagnostic.span.start);
+            let (_, line, column) = evaluation.sources.locate(diagnostic.span.start);
             writeln!(
                 out,
                 "- line {line}, column {column}, {}: {}",
@@ -501,7 +500,7 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
             "<section class=\"diagnostics\">\n<h2>Errors and warnings</h2>\n<ul>"
         )?;
         for diagnostic in &evaluation.diagnostics {
-            let (line, column) = locate(context.source, diagnostic.span.start);
+            let (_, line, column) = evaluation.sources.locate(diagnostic.span.start);
             writeln!(
                 out,
                 "<li>line {line}, column {column}, {}: {}</li>",

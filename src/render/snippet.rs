@@ -1,5 +1,5 @@
 //! Diagnostics drawn as source snippets (file:line:column, the line, an underline) through
-//! codespan-reporting, and the line/column arithmetic shared with JSON output. Spans may point
+//! codespan-reporting. Spans may point
 //! into any file of the evaluation's `SourceMap` (an included sheet, say).
 
 use crate::eval::{Diagnostic, Severity, SourceMap};
@@ -10,16 +10,6 @@ use codespan_reporting::term::{self, termcolor::WriteColor, Config};
 
 /// Lines longer than this (in bytes) are not drawn in snippets.
 const LONGEST_LINE_SHOWN: usize = 1_000;
-
-/// 1-based line and column (in characters) of a byte offset within one text.
-pub fn locate(source: &str, offset: usize) -> (usize, usize) {
-    let offset = offset.min(source.len());
-    let before = source.get(..offset).unwrap_or(source);
-    let line = before.matches('\n').count() + 1;
-    let line_start = before.rfind('\n').map_or(0, |position| position + 1);
-    let column = before[line_start..].chars().count() + 1;
-    (line, column)
-}
 
 /// Where a span of the shared offset space is: file index, label, and the span within it.
 pub fn place(sources: &SourceMap, span: Span) -> (usize, &str, std::ops::Range<usize>) {
@@ -72,7 +62,7 @@ pub fn write_diagnostics(
         let text = sources.file(file).map_or("", |source| source.text.as_str());
         if line_length_at(text, range.start) > LONGEST_LINE_SHOWN {
             // Drawing a huge line helps no one and is slow; say where it is instead.
-            let (line, column) = locate(text, range.start);
+            let (_, line, column) = sources.locate(diagnostic.span.start);
             notes.push(format!(
                 "at {label}:{line}:{column} (line too long to show)"
             ));
@@ -98,18 +88,4 @@ pub fn write_diagnostics(
             .map_err(|error| std::io::Error::other(error.to_string()))?;
     }
     Ok(())
-}
-
-#[cfg(test)]
-mod tests {
-    use super::locate;
-
-    #[test]
-    fn lines_and_columns_are_one_based_characters() {
-        let source = "a = 1\nρ = 2 m\n";
-        assert_eq!(locate(source, 0), (1, 1));
-        assert_eq!(locate(source, 6), (2, 1));
-        // `=` after the two-byte ρ and a space is the third character.
-        assert_eq!(locate(source, 9), (2, 3));
-    }
 }
