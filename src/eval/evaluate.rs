@@ -86,7 +86,8 @@ pub enum LineResult {
     Comment,
     Heading(String),
     Value(ShownValue),
-    Check(CheckOutcome),
+    /// Boxed: a check outcome is the largest result and the rarest.
+    Check(Box<CheckOutcome>),
     /// The line has an error of its own (reported in the diagnostics).
     Error,
     /// Not evaluated because a line it needs has an error; names that line.
@@ -672,7 +673,7 @@ impl<'a> Evaluator<'a> {
                 return self.settle(index, outcome);
             }
             LineKind::Check(check) => match self.check(check) {
-                Ok(outcome) => LineResult::Check(outcome),
+                Ok(outcome) => LineResult::Check(Box::new(outcome)),
                 Err(failure) => self.failure_result(failure),
             },
         };

@@ -29,7 +29,8 @@ pub enum LineKind {
     Heading(String),
     Definition(Definition),
     Display(Display),
-    Check(Check),
+    /// Boxed: a check is the largest line and the rarest.
+    Check(Box<Check>),
     Function(FunctionDefinition),
     Include(Include),
     /// A line that failed to parse; its error is in the parse result.

@@ -109,7 +109,7 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
             Rule::display => kind = LineKind::Display(builder.display(pair)?),
             Rule::check_line => {
                 let (check, check_comment) = builder.check(pair)?;
-                kind = LineKind::Check(check);
+                kind = LineKind::Check(Box::new(check));
                 comment = check_comment;
             }
             _ => {}
