@@ -8,6 +8,10 @@ use fluxsheet::eval::evaluate_sheet;
 use fluxsheet::library::Builtins;
 use std::hint::black_box;
 
+/// The same allocator as the `fluxsheet` binary, so the figures are the product's.
+#[global_allocator]
+static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
+
 /// A sheet of `lines` lines in the shape of real work: unit literals, references to earlier
 /// lines, display conversions and function calls, in groups of five.
 pub fn generated_sheet(lines: usize) -> String {
@@ -22,7 +26,7 @@ pub fn generated_sheet(lines: usize) -> String {
             "q_{group} [m/d] = K_{group} * (h_{group} + 0.6 m) / 0.6 m\n"
         ));
         sheet.push_str(&format!(
-            "r_{group} = sqrt(q_{group} * 2 d * 1 m) + ln(3) * 1 mm\n"
+            "r_{group} [mm] = sqrt(q_{group} * 2 d * 1 m) + ln(3) * 1 mm\n"
         ));
     }
     sheet
