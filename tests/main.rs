@@ -8,11 +8,13 @@
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robustness`: generated input never panics; hostile nesting is refused.
+//! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
 
 mod cli;
 mod errors;
 mod properties;
 mod reference;
+mod repl;
 mod robustness;
 mod util;
 mod worksheets;

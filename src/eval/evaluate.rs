@@ -120,7 +120,7 @@ enum Slot {
 }
 
 /// Why an expression produced no value.
-enum Failure {
+pub(crate) enum Failure {
     Error(EvalError),
     /// A line it needs failed; that line's name.
     Upstream(String),
@@ -132,17 +132,57 @@ impl From<EvalError> for Failure {
     }
 }
 
+/// The names an expression can refer to besides built-ins: a sheet's definitions, or a
+/// session's lines.
+pub(crate) trait Scope {
+    /// `None` if no line defines `name`; `Some(None)` if one does but it has no value (it failed
+    /// or is not evaluated yet).
+    fn lookup(&self, name: &str) -> Option<Option<&ShownValue>>;
+    /// Every defined name, for "did you mean".
+    fn for_each_defined(&self, visit: &mut dyn FnMut(&str));
+}
+
+/// A sheet's definitions during one run.
+struct SheetScope<'s, 'a> {
+    definitions: &'s HashMap<&'a str, usize>,
+    slots: &'s [Slot],
+}
+
+impl Scope for SheetScope<'_, '_> {
+    fn lookup(&self, name: &str) -> Option<Option<&ShownValue>> {
+        self.definitions
+            .get(name)
+            .map(|index| match &self.slots[*index] {
+                Slot::Ready(shown) => Some(shown),
+                Slot::Failed | Slot::Pending => None,
+            })
+    }
+
+    fn for_each_defined(&self, visit: &mut dyn FnMut(&str)) {
+        for name in self.definitions.keys() {
+            visit(name);
+        }
+    }
+}
+
+/// Evaluates expressions, shows values in units and decides checks against a `Scope`. It keeps
+/// the provenance of the calls it made and a cache of resolved units, so it is reused across
+/// the lines of a sheet or the entries of a session.
+pub(crate) struct Calculator<'l> {
+    library: &'l dyn Library,
+    pub(crate) provenance: Provenance,
+    unit_cache: HashMap<String, Unit>,
+}
+
 struct Evaluator<'a> {
     source: &'a str,
     lines: &'a [Line],
-    library: &'a dyn Library,
     /// Name -> index into `lines` of its (first) definition.
     definitions: HashMap<&'a str, usize>,
     slots: Vec<Slot>,
     results: Vec<Option<LineResult>>,
     diagnostics: Vec<Diagnostic>,
-    provenance: Provenance,
-    unit_cache: HashMap<&'a str, Unit>,
+    calculator: Calculator<'a>,
 }
 
 impl<'a> Evaluator<'a> {
@@ -150,13 +190,11 @@ impl<'a> Evaluator<'a> {
         Evaluator {
             source,
             lines,
-            library,
             definitions: HashMap::new(),
             slots: vec![Slot::Pending; lines.len()],
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
-            provenance: Provenance::default(),
-            unit_cache: HashMap::new(),
+            calculator: Calculator::new(library),
         }
     }
 
@@ -295,34 +333,48 @@ impl<'a> Evaluator<'a> {
         let LineKind::Definition(definition) = &self.lines[index].kind else {
             return;
         };
+        let scope = SheetScope {
+            definitions: &self.definitions,
+            slots: &self.slots,
+        };
         let outcome = self
-            .expression(&definition.expression)
+            .calculator
+            .expression(&definition.expression, &scope)
             .and_then(|quantity| {
-                self.shown(
-                    quantity,
-                    definition.display_unit.as_ref(),
-                    &definition.expression,
-                )
-                .map_err(Failure::from)
+                self.calculator
+                    .shown(
+                        quantity,
+                        definition.display_unit.as_ref(),
+                        &definition.expression,
+                    )
+                    .map_err(Failure::from)
             });
         self.settle(index, outcome);
     }
 
     fn evaluate_other(&mut self, index: usize) {
         let line = &self.lines[index];
+        let scope = SheetScope {
+            definitions: &self.definitions,
+            slots: &self.slots,
+        };
         let result = match &line.kind {
             LineKind::Blank => LineResult::Blank,
             LineKind::Comment => LineResult::Comment,
             LineKind::Heading(text) => LineResult::Heading(text.clone()),
             LineKind::Invalid | LineKind::Definition(_) => LineResult::Error,
             LineKind::Display(display) => {
-                let outcome = self.expression(&display.expression).and_then(|quantity| {
-                    self.shown(quantity, display.display_unit.as_ref(), &display.expression)
-                        .map_err(Failure::from)
-                });
+                let outcome = self
+                    .calculator
+                    .expression(&display.expression, &scope)
+                    .and_then(|quantity| {
+                        self.calculator
+                            .shown(quantity, display.display_unit.as_ref(), &display.expression)
+                            .map_err(Failure::from)
+                    });
                 return self.settle(index, outcome);
             }
-            LineKind::Check(check) => match self.check(check) {
+            LineKind::Check(check) => match self.calculator.check(check, self.source, &scope) {
                 Ok(outcome) => LineResult::Check(outcome),
                 Err(failure) => self.failure_result(failure),
             },
@@ -386,25 +438,38 @@ impl<'a> Evaluator<'a> {
         Evaluation {
             lines,
             diagnostics,
-            provenance: self.provenance,
+            provenance: self.calculator.provenance,
+        }
+    }
+}
+
+impl<'l> Calculator<'l> {
+    pub(crate) fn new(library: &'l dyn Library) -> Calculator<'l> {
+        Calculator {
+            library,
+            provenance: Provenance::default(),
+            unit_cache: HashMap::new(),
         }
     }
 
-    // ----- expressions -----
-
-    fn expression(&mut self, expression: &'a Expression) -> Result<Quantity, Failure> {
+    /// The value of an expression; names resolve through `scope`, then the library.
+    pub(crate) fn expression(
+        &mut self,
+        expression: &Expression,
+        scope: &dyn Scope,
+    ) -> Result<Quantity, Failure> {
         let span = expression.span;
         let quantity = match &expression.kind {
             ExpressionKind::Quantity { digits, unit } => {
                 self.literal(digits, unit.as_ref(), span)?
             }
-            ExpressionKind::Name(name) => self.name(name, span)?,
+            ExpressionKind::Name(name) => self.name(name, span, scope)?,
             ExpressionKind::Call {
                 function,
                 arguments,
             } => {
                 let Some(callee) = self.library.function(&function.text) else {
-                    let kind = if self.definitions.contains_key(function.text.as_str())
+                    let kind = if scope.lookup(&function.text).is_some()
                         || self.library.constant(&function.text).is_some()
                     {
                         EvalErrorKind::NameCalledAsFunction {
@@ -413,14 +478,14 @@ impl<'a> Evaluator<'a> {
                     } else {
                         EvalErrorKind::UnknownFunction {
                             name: function.text.clone(),
-                            suggestion: self.suggest(&function.text),
+                            suggestion: self.suggest(&function.text, scope),
                         }
                     };
                     return Err(EvalError::new(kind, function.span).into());
                 };
                 let mut values = Vec::with_capacity(arguments.len());
                 for argument in arguments {
-                    values.push(self.expression(argument)?);
+                    values.push(self.expression(argument, scope)?);
                 }
                 callee
                     .call(&values, &mut self.provenance)
@@ -444,7 +509,7 @@ impl<'a> Evaluator<'a> {
                     })?
             }
             ExpressionKind::Negate(inner) => {
-                let value = self.expression(inner)?;
+                let value = self.expression(inner, scope)?;
                 let temperature = match value.temperature {
                     TemperatureKind::Difference => TemperatureKind::Difference,
                     _ => TemperatureKind::Unspecified,
@@ -460,8 +525,8 @@ impl<'a> Evaluator<'a> {
                 left,
                 right,
             } => {
-                let left_value = self.expression(left)?;
-                let right_value = self.expression(right)?;
+                let left_value = self.expression(left, scope)?;
+                let right_value = self.expression(right, scope)?;
                 binary(*operator, left_value, right_value, span, right.span)?
             }
         };
@@ -474,7 +539,7 @@ impl<'a> Evaluator<'a> {
     fn literal(
         &mut self,
         digits: &str,
-        unit: Option<&'a UnitExpression>,
+        unit: Option<&UnitExpression>,
         span: Span,
     ) -> Result<Quantity, Failure> {
         let number: f64 = digits.parse().unwrap_or(f64::INFINITY);
@@ -498,11 +563,11 @@ impl<'a> Evaluator<'a> {
         })
     }
 
-    fn name(&mut self, name: &str, span: Span) -> Result<Quantity, Failure> {
-        if let Some(index) = self.definitions.get(name) {
-            return match &self.slots[*index] {
-                Slot::Ready(shown) => Ok(shown.quantity),
-                Slot::Failed | Slot::Pending => Err(Failure::Upstream(name.to_string())),
+    fn name(&mut self, name: &str, span: Span, scope: &dyn Scope) -> Result<Quantity, Failure> {
+        if let Some(slot) = scope.lookup(name) {
+            return match slot {
+                Some(shown) => Ok(shown.quantity),
+                None => Err(Failure::Upstream(name.to_string())),
             };
         }
         if let Some(constant) = self.library.constant(name) {
@@ -515,42 +580,45 @@ impl<'a> Evaluator<'a> {
         } else {
             EvalErrorKind::UnknownName {
                 name: name.to_string(),
-                suggestion: self.suggest(name),
+                suggestion: self.suggest(name, scope),
             }
         };
         Err(EvalError::new(kind, span).into())
     }
 
     /// The closest sheet or built-in name, for "did you mean".
-    fn suggest(&self, name: &str) -> Option<String> {
-        let library_names = self.library.names();
-        self.definitions
-            .keys()
-            .copied()
-            .chain(library_names.iter().copied())
-            .map(|candidate| (strsim::jaro_winkler(name, candidate), candidate))
-            .filter(|(score, _)| *score > 0.8)
-            .max_by(|left, right| left.0.total_cmp(&right.0))
-            .map(|(_, candidate)| candidate.to_string())
+    fn suggest(&self, name: &str, scope: &dyn Scope) -> Option<String> {
+        let mut best: Option<(f64, String)> = None;
+        let mut consider = |candidate: &str| {
+            let score = strsim::jaro_winkler(name, candidate);
+            if score > 0.8 && best.as_ref().is_none_or(|(top, _)| score >= *top) {
+                best = Some((score, candidate.to_string()));
+            }
+        };
+        scope.for_each_defined(&mut consider);
+        for candidate in self.library.names() {
+            consider(candidate);
+        }
+        best.map(|(_, candidate)| candidate)
     }
 
-    fn unit(&mut self, expression: &'a UnitExpression) -> Result<Unit, EvalError> {
+    fn unit(&mut self, expression: &UnitExpression) -> Result<Unit, EvalError> {
         if let Some(unit) = self.unit_cache.get(expression.text.as_str()) {
             return Ok(unit.clone());
         }
         let unit = resolve_unit(expression)?;
         self.unit_cache
-            .insert(expression.text.as_str(), unit.clone());
+            .insert(expression.text.clone(), unit.clone());
         Ok(unit)
     }
 
     /// Converts a value to its display unit: the declared one (checked), a literal's own unit,
     /// or the preferred SI unit.
-    fn shown(
+    pub(crate) fn shown(
         &mut self,
         quantity: Quantity,
-        declared: Option<&'a UnitExpression>,
-        expression: &'a Expression,
+        declared: Option<&UnitExpression>,
+        expression: &Expression,
     ) -> Result<ShownValue, EvalError> {
         let written = match (&expression.kind, declared) {
             (_, Some(declared)) => Some(declared),
@@ -577,7 +645,8 @@ impl<'a> Evaluator<'a> {
     fn shown_for_check(
         &mut self,
         quantity: Quantity,
-        sides: [&'a Expression; 2],
+        sides: [&Expression; 2],
+        scope: &dyn Scope,
     ) -> Result<ShownValue, EvalError> {
         for side in sides {
             match &side.kind {
@@ -585,11 +654,7 @@ impl<'a> Evaluator<'a> {
                     return self.shown(quantity, None, side)
                 }
                 ExpressionKind::Name(name) => {
-                    if let Some(Slot::Ready(shown)) = self
-                        .definitions
-                        .get(name.as_str())
-                        .map(|index| &self.slots[*index])
-                    {
+                    if let Some(Some(shown)) = scope.lookup(name) {
                         let text = shown.unit.clone();
                         if let Ok(expression) = crate::syntax::parse_unit(&text) {
                             if let Ok(unit) = resolve_unit(&expression) {
@@ -610,9 +675,15 @@ impl<'a> Evaluator<'a> {
         })
     }
 
-    fn check(&mut self, check: &'a Check) -> Result<CheckOutcome, Failure> {
-        let left = self.expression(&check.left)?;
-        let right = self.expression(&check.right)?;
+    /// Decides a check line; `source` is the text its spans point into.
+    pub(crate) fn check(
+        &mut self,
+        check: &Check,
+        source: &str,
+        scope: &dyn Scope,
+    ) -> Result<CheckOutcome, Failure> {
+        let left = self.expression(&check.left, scope)?;
+        let right = self.expression(&check.right, scope)?;
         if left.dimension != right.dimension {
             return Err(EvalError::new(
                 EvalErrorKind::DimensionMismatch {
@@ -630,7 +701,7 @@ impl<'a> Evaluator<'a> {
             }
             None => 0.0,
             Some(tolerance) => {
-                let value = self.expression(tolerance)?;
+                let value = self.expression(tolerance, scope)?;
                 if value.value < 0.0 {
                     return Err(
                         EvalError::new(EvalErrorKind::NegativeTolerance, tolerance.span).into(),
@@ -661,8 +732,8 @@ impl<'a> Evaluator<'a> {
             Comparison::Equal => (l - r).abs() <= allowance,
             Comparison::NotEqual => (l - r).abs() > allowance,
         };
-        let right_shown = self.shown_for_check(right, [&check.right, &check.left])?;
-        let left_shown = self.shown_for_check(left, [&check.right, &check.left])?;
+        let right_shown = self.shown_for_check(right, [&check.right, &check.left], scope)?;
+        let left_shown = self.shown_for_check(left, [&check.right, &check.left], scope)?;
         Ok(CheckOutcome {
             passed,
             comparison: check.comparison,
@@ -671,7 +742,7 @@ impl<'a> Evaluator<'a> {
             tolerance: check
                 .tolerance
                 .as_ref()
-                .map(|tolerance| text_of(self.source, tolerance.span)),
+                .map(|tolerance| text_of(source, tolerance.span)),
             message: check.message.clone(),
         })
     }
@@ -751,10 +822,15 @@ pub fn show_in(
             span,
         ));
     }
+    let value = unit.from_si(quantity.value);
+    if !value.is_finite() {
+        // Finite in SI, but too large in this unit (`21e308 mD`).
+        return Err(EvalError::new(EvalErrorKind::NotFinite, span));
+    }
     Ok(ShownValue {
         quantity,
         unit: unit_text.to_string(),
-        value: unit.from_si(quantity.value),
+        value,
     })
 }
 
