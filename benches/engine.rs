@@ -1,7 +1,7 @@
 //! Benchmarks: parse + evaluate generated sheets of 10 000 and 100 000 lines (cost must grow
-//! linearly), the cost of single property calls, and `fluxsheet check` over a folder of 200
-//! generated 50-line sheets (the pre-commit case, process start included). Run with
-//! `cargo bench`.
+//! linearly), the cost of single property calls, `fluxsheet check` over a folder of 200
+//! generated 50-line sheets (the pre-commit case, process start included), and session
+//! entries. Run with `cargo bench`.
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion, Throughput};
 use fluxsheet::eval::evaluate_sheet;
@@ -153,5 +153,52 @@ fn check_folder(criterion: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, sheets, property_calls, check_folder);
+/// An interactive session: one entry into a session of 1 000 lines (parse and evaluate one
+/// line), and redefining an input that 100 lines depend on (directly and through each other).
+fn session(criterion: &mut Criterion) {
+    use fluxsheet::eval::session::{Outcome, Session};
+    let library = Builtins::standard();
+    let mut group = criterion.benchmark_group("session");
+    let mut loaded = Session::new(library);
+    loaded.load(&generated_sheet(1_000));
+    assert_eq!(loaded.lines().len(), 1_000);
+    let mut flip = false;
+    group.bench_function("entry_in_1000_lines", |bencher| {
+        bencher.iter(|| {
+            // The first entry adds `probe`, the others replace it: the session stays 1 001 lines.
+            flip = !flip;
+            let entry = if flip {
+                "probe [m/d] = q_100 * 2 + K_7 * 0.5 + 1 mm/d"
+            } else {
+                "probe [m/d] = q_101 * 2 + K_8 * 0.5 + 1 mm/d"
+            };
+            let report = loaded.enter(black_box(entry));
+            assert!(!matches!(report.outcome, Outcome::Refused));
+            report
+        })
+    });
+    let mut chained = Session::new(library);
+    let mut sheet = generated_sheet(1_000);
+    sheet.push_str("h0 = 1 m\n");
+    sheet.push_str("d_0 = h0 * 2\n");
+    for index in 1..100 {
+        sheet.push_str(&format!(
+            "d_{index} = d_{} + h0 * 0.5 + q_{index} * 1 d\n",
+            index - 1
+        ));
+    }
+    chained.load(&sheet);
+    group.bench_function("redefine_input_with_100_dependents", |bencher| {
+        bencher.iter(|| {
+            flip = !flip;
+            let entry = if flip { "h0 = 2 m" } else { "h0 = 1.5 m" };
+            let report = chained.enter(black_box(entry));
+            assert_eq!(report.recomputed.len(), 100);
+            report
+        })
+    });
+    group.finish();
+}
+
+criterion_group!(benches, sheets, property_calls, check_folder, session);
 criterion_main!(benches);

@@ -1,6 +1,6 @@
 //! The command-line front door: argument definitions (clap), and the commands `run`, `eval`,
-//! `units` and `functions`. This and `main.rs` are the only code that reads files or writes to
-//! the terminal; everything else is handed writers.
+//! `units` and `functions`. This, `repl` (the interactive session) and `main.rs` are the only
+//! code that reads files or writes to the terminal; everything else is handed writers.
 
 use crate::eval::warnings::deny_warnings;
 use crate::eval::{evaluate, Evaluation, LineResult};
@@ -41,8 +41,9 @@ analysis and exact unit conversion, printed as a table.\n\nExit codes: 0 all goo
 pub struct CommandLine {
     #[command(flatten)]
     pub output: OutputArgs,
+    /// Without a command, an interactive session starts (`fluxsheet repl`).
     #[command(subcommand)]
-    pub command: Command,
+    pub command: Option<Command>,
 }
 
 #[derive(Args, Debug, Clone, Copy)]
@@ -108,6 +109,14 @@ pub enum Command {
         /// Show only entries whose name contains this text
         filter: Option<String>,
     },
+    /// Start an interactive session (also `fluxsheet` with no command)
+    #[command(
+        after_help = "Enter sheet lines or expressions; `:help` lists the session's commands.\nWithout a terminal, lines are read from standard input (exit 3 if any had an error).\nHistory: $XDG_DATA_HOME/fluxsheet/history (FLUXSHEET_HISTORY=off or =PATH changes it).\n\nExamples:\n  fluxsheet repl worksheets/core_permeability.fxs\n  printf 'k = 420 mD\\nk [m^2]\\n' | fluxsheet repl"
+    )]
+    Repl {
+        /// A sheet to load first (created by `:save` if it does not exist)
+        file: Option<String>,
+    },
 }
 
 impl OutputArgs {
@@ -130,7 +139,10 @@ pub fn run(command_line: CommandLine) -> u8 {
     let options = command_line.output.options();
     let stdout = io::stdout();
     let mut out = stdout.lock();
-    let result = match &command_line.command {
+    let Some(command) = &command_line.command else {
+        return finish(crate::repl::run(None, options, &mut out), &mut out);
+    };
+    let result = match command {
         Command::Run {
             files,
             allow_outside,
@@ -148,7 +160,13 @@ pub fn run(command_line: CommandLine) -> u8 {
         Command::Properties(arguments) => {
             properties::run(&mut out, arguments, &command_line.output)
         }
+        Command::Repl { file } => crate::repl::run(file.as_deref(), options, &mut out),
     };
+    finish(result, &mut out)
+}
+
+/// The exit code of a command's result, after flushing its output.
+fn finish(result: io::Result<u8>, out: &mut dyn Write) -> u8 {
     match result.and_then(|code| out.flush().map(|_| code)) {
         Ok(code) => code,
         // A closed pipe (`| head`) is not a failure of ours.

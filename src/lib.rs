@@ -8,5 +8,6 @@ pub mod cli;
 pub mod eval;
 pub mod library;
 pub mod render;
+pub mod repl;
 pub mod syntax;
 pub mod units;

@@ -10,6 +10,7 @@
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
+//! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
 
 mod checker;
 mod cli;
@@ -17,6 +18,7 @@ mod errors;
 mod includes;
 mod properties;
 mod reference;
+mod repl;
 mod robustness;
 mod transport;
 mod util;

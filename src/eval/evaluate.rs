@@ -250,14 +250,13 @@ impl Loaded {
 #[derive(Debug, Clone)]
 enum Slot {
     Pending,
-    /// Evaluated; the value in SI (its display form is in `results`).
-    Ready(Quantity),
+    Ready(ShownValue),
     /// Failed or skipped.
     Failed,
 }
 
 /// Why an expression produced no value.
-enum Failure {
+pub(crate) enum Failure {
     Error(EvalError),
     /// A line it needs failed; that line's name.
     Upstream(String),
@@ -269,24 +268,98 @@ impl From<EvalError> for Failure {
     }
 }
 
+/// The names an expression can refer to besides built-ins: a sheet's definitions and
+/// functions, or a session's lines.
+pub(crate) trait Scope {
+    /// `None` if no line defines `name`; `Some(None)` if one does but it has no value (it failed
+    /// or is not evaluated yet).
+    fn lookup(&self, name: &str) -> Option<Option<&ShownValue>>;
+    /// Every defined name, for "did you mean".
+    fn for_each_defined(&self, visit: &mut dyn FnMut(&str));
+    /// A function defined by the sheet: `Some(None)` if it exists but was refused.
+    fn sheet_function(&self, _name: &str) -> Option<Option<&FunctionDefinition>> {
+        None
+    }
+}
+
+/// A sheet's definitions and functions during one run.
+struct SheetScope<'s, 'a> {
+    lines: &'a [Line],
+    definitions: &'s HashMap<&'a str, usize>,
+    functions: &'s HashMap<&'a str, usize>,
+    refused_functions: &'s [usize],
+    slots: &'s [Slot],
+    results: &'s [Option<LineResult>],
+}
+
+impl Scope for SheetScope<'_, '_> {
+    fn lookup(&self, name: &str) -> Option<Option<&ShownValue>> {
+        self.definitions
+            .get(name)
+            .map(|index| match &self.slots[*index] {
+                Slot::Ready(shown) => Some(shown),
+                Slot::Failed | Slot::Pending => None,
+            })
+    }
+
+    fn for_each_defined(&self, visit: &mut dyn FnMut(&str)) {
+        for name in self.definitions.keys().chain(self.functions.keys()) {
+            visit(name);
+        }
+    }
+
+    fn sheet_function(&self, name: &str) -> Option<Option<&FunctionDefinition>> {
+        let index = *self.functions.get(name)?;
+        let refused = self.refused_functions.contains(&index)
+            || matches!(self.results[index], Some(LineResult::Error));
+        match &self.lines[index].kind {
+            LineKind::Function(definition) if !refused => Some(Some(definition)),
+            _ => Some(None),
+        }
+    }
+}
+
+/// Evaluates expressions, calls sheet functions, shows values in units and decides checks
+/// against a `Scope`. It keeps the provenance of the calls it made, a record of built-in calls
+/// and a cache of resolved units, so it is reused across the lines of a sheet or the entries of
+/// a session.
+pub(crate) struct Calculator<'l> {
+    library: &'l dyn Library,
+    pub(crate) provenance: Provenance,
+    pub(crate) calls: Vec<CallRecord>,
+    unit_cache: HashMap<String, Unit>,
+    /// Parameter values of the sheet functions being called, innermost last.
+    parameters: Vec<Vec<(String, Quantity)>>,
+}
+
+/// Builds the scope of a sheet from the evaluator's fields (a macro so that the calculator can
+/// be borrowed mutably beside it).
+macro_rules! sheet_scope {
+    ($evaluator:expr) => {
+        SheetScope {
+            lines: $evaluator.lines,
+            definitions: &$evaluator.definitions,
+            functions: &$evaluator.functions,
+            refused_functions: &$evaluator.refused_functions,
+            slots: &$evaluator.slots,
+            results: &$evaluator.results,
+        }
+    };
+}
+
 struct Evaluator<'a> {
     sources: &'a SourceMap,
     lines: &'a [Line],
-    library: &'a dyn Library,
     /// Name -> index into `lines` of its (first) definition.
     definitions: HashMap<&'a str, usize>,
     /// Function name -> index into `lines` of its definition.
     functions: HashMap<&'a str, usize>,
     /// Functions refused (recursive): calls to them are skipped quietly.
     refused_functions: Vec<usize>,
-    /// Parameter values of the user functions being called, innermost last.
-    scopes: Vec<Vec<(&'a str, Quantity)>>,
     slots: Vec<Slot>,
     results: Vec<Option<LineResult>>,
     diagnostics: Vec<Diagnostic>,
-    provenance: Provenance,
-    calls: Vec<CallRecord>,
-    unit_cache: HashMap<&'a str, Unit>,
+    calculator: Calculator<'a>,
 }
 
 impl<'a> Evaluator<'a> {
@@ -294,17 +367,13 @@ impl<'a> Evaluator<'a> {
         Evaluator {
             sources,
             lines,
-            library,
             definitions: HashMap::default(),
             functions: HashMap::default(),
             refused_functions: Vec::new(),
-            scopes: Vec::new(),
             slots: vec![Slot::Pending; lines.len()],
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
-            provenance: Provenance::default(),
-            calls: Vec::new(),
-            unit_cache: HashMap::default(),
+            calculator: Calculator::new(library),
         }
     }
 
@@ -489,101 +558,6 @@ impl<'a> Evaluator<'a> {
     }
 
     /// Resolves a function's declared units once at its definition; returns its signature.
-    fn check_function_units(
-        &mut self,
-        function: &'a FunctionDefinition,
-    ) -> Result<String, EvalError> {
-        let mut parameters = Vec::new();
-        for parameter in &function.parameters {
-            match &parameter.unit {
-                Some(unit) => {
-                    self.unit(unit)?;
-                    parameters.push(format!("{} [{}]", parameter.name.text, unit.text));
-                }
-                None => parameters.push(parameter.name.text.clone()),
-            }
-        }
-        let mut signature = format!("{}({})", function.name.text, parameters.join(", "));
-        if let Some(unit) = &function.result_unit {
-            self.unit(unit)?;
-            signature.push_str(&format!(" [{}]", unit.text));
-        }
-        Ok(signature)
-    }
-
-    /// Calls a function defined in the sheet: arguments checked against declared dimensions,
-    /// the body evaluated with the parameters bound, errors pointing at call and definition.
-    fn call_sheet_function(
-        &mut self,
-        name: &'a crate::syntax::Name,
-        arguments: &'a [Expression],
-        span: Span,
-    ) -> Result<Quantity, Failure> {
-        let Some(&index) = self.functions.get(name.text.as_str()) else {
-            return Err(Failure::Upstream(name.text.clone()));
-        };
-        let LineKind::Function(definition) = &self.lines[index].kind else {
-            return Err(Failure::Upstream(name.text.clone()));
-        };
-        if self.refused_functions.contains(&index)
-            || matches!(self.results[index], Some(LineResult::Error))
-        {
-            return Err(Failure::Upstream(name.text.clone()));
-        }
-        let defined_here =
-            |error: EvalError| error.with_label(definition.name.span, "defined here");
-        if arguments.len() != definition.parameters.len() {
-            let kind = EvalErrorKind::SheetFunctionArguments {
-                function: name.text.clone(),
-                expected: definition.parameters.len(),
-                found: arguments.len(),
-            };
-            return Err(defined_here(EvalError::new(kind, span)).into());
-        }
-        let mut bound = Vec::with_capacity(arguments.len());
-        for (argument, parameter) in arguments.iter().zip(&definition.parameters) {
-            let value = self.expression(argument)?;
-            if let Some(unit) = &parameter.unit {
-                let unit = self.unit(unit)?;
-                if unit.dimension != value.dimension {
-                    let kind = EvalErrorKind::ParameterDimension {
-                        function: name.text.clone(),
-                        parameter: parameter.name.text.clone(),
-                        expected: unit.dimension,
-                        found: value.dimension,
-                    };
-                    let error = EvalError::new(kind, argument.span)
-                        .with_label(parameter.name.span, "declared here");
-                    return Err(error.into());
-                }
-            }
-            bound.push((parameter.name.text.as_str(), value));
-        }
-        self.scopes.push(bound);
-        let result = self.expression(&definition.body);
-        self.scopes.pop();
-        let value = result.map_err(|failure| match failure {
-            Failure::Error(error) => {
-                Failure::Error(error.with_label(span, format!("in this call of `{}`", name.text)))
-            }
-            upstream => upstream,
-        })?;
-        if let Some(unit) = &definition.result_unit {
-            let unit = self.unit(unit)?;
-            if unit.dimension != value.dimension {
-                let kind = EvalErrorKind::ResultDimension {
-                    function: name.text.clone(),
-                    expected: unit.dimension,
-                    found: value.dimension,
-                };
-                return Err(EvalError::new(kind, span)
-                    .with_label(unit_span(definition), "declared here")
-                    .into());
-            }
-        }
-        Ok(value)
-    }
-
     fn report_cycle(&mut self, members: Vec<usize>) {
         let names: Vec<String> = members
             .iter()
@@ -638,15 +612,19 @@ impl<'a> Evaluator<'a> {
         let LineKind::Definition(definition) = &self.lines[index].kind else {
             return;
         };
-        let outcome = self
-            .expression(&definition.expression)
+        let scope = sheet_scope!(self);
+        let calculator = &mut self.calculator;
+        let outcome = calculator
+            .expression(&definition.expression, &scope)
             .and_then(|quantity| {
-                self.shown(
-                    quantity,
-                    definition.display_unit.as_ref(),
-                    &definition.expression,
-                )
-                .map_err(Failure::from)
+                calculator
+                    .shown(
+                        quantity,
+                        definition.display_unit.as_ref(),
+                        &definition.expression,
+                        &scope,
+                    )
+                    .map_err(Failure::from)
             });
         self.settle(index, outcome);
     }
@@ -658,7 +636,7 @@ impl<'a> Evaluator<'a> {
             LineKind::Comment => LineResult::Comment,
             LineKind::Heading(text) => LineResult::Heading(text.clone()),
             LineKind::Invalid | LineKind::Definition(_) | LineKind::Include(_) => LineResult::Error,
-            LineKind::Function(function) => match self.check_function_units(function) {
+            LineKind::Function(function) => match self.calculator.check_function_units(function) {
                 Ok(signature) => LineResult::Function { signature },
                 Err(error) => {
                     self.diagnostics.push(error.to_diagnostic());
@@ -666,13 +644,24 @@ impl<'a> Evaluator<'a> {
                 }
             },
             LineKind::Display(display) => {
-                let outcome = self.expression(&display.expression).and_then(|quantity| {
-                    self.shown(quantity, display.display_unit.as_ref(), &display.expression)
-                        .map_err(Failure::from)
-                });
+                let scope = sheet_scope!(self);
+                let calculator = &mut self.calculator;
+                let outcome =
+                    calculator
+                        .expression(&display.expression, &scope)
+                        .and_then(|quantity| {
+                            calculator
+                                .shown(
+                                    quantity,
+                                    display.display_unit.as_ref(),
+                                    &display.expression,
+                                    &scope,
+                                )
+                                .map_err(Failure::from)
+                        });
                 return self.settle(index, outcome);
             }
-            LineKind::Check(check) => match self.check(check) {
+            LineKind::Check(check) => match self.calculator.check(check, &sheet_scope!(self)) {
                 Ok(outcome) => LineResult::Check(Box::new(outcome)),
                 Err(failure) => self.failure_result(failure),
             },
@@ -683,7 +672,7 @@ impl<'a> Evaluator<'a> {
     fn settle(&mut self, index: usize, outcome: Result<ShownValue, Failure>) {
         match outcome {
             Ok(shown) => {
-                self.slots[index] = Slot::Ready(shown.quantity);
+                self.slots[index] = Slot::Ready(shown.clone());
                 self.results[index] = Some(LineResult::Value(shown));
             }
             Err(failure) => {
@@ -742,32 +731,48 @@ impl<'a> Evaluator<'a> {
             lines,
             sources: SourceMap::default(),
             diagnostics,
-            provenance: self.provenance,
-            calls: self.calls,
+            provenance: self.calculator.provenance,
+            calls: self.calculator.calls,
+        }
+    }
+}
+
+impl<'l> Calculator<'l> {
+    pub(crate) fn new(library: &'l dyn Library) -> Calculator<'l> {
+        Calculator {
+            library,
+            provenance: Provenance::default(),
+            calls: Vec::new(),
+            unit_cache: HashMap::default(),
+            parameters: Vec::new(),
         }
     }
 
-    // ----- expressions -----
-
-    fn expression(&mut self, expression: &'a Expression) -> Result<Quantity, Failure> {
+    /// The value of an expression; names resolve through the parameters of the function being
+    /// called, then `scope`, then the library.
+    pub(crate) fn expression(
+        &mut self,
+        expression: &Expression,
+        scope: &dyn Scope,
+    ) -> Result<Quantity, Failure> {
         let span = expression.span;
         let quantity = match &expression.kind {
             ExpressionKind::Quantity { digits, unit } => {
                 self.literal(digits, unit.as_ref(), span)?
             }
-            ExpressionKind::Name(name) => self.name(name, span)?,
+            ExpressionKind::Name(name) => self.name(name, span, scope)?,
             ExpressionKind::Call {
                 function,
                 arguments,
-            } if self.functions.contains_key(function.text.as_str()) => {
-                self.call_sheet_function(function, arguments, span)?
+            } if scope.sheet_function(&function.text).is_some() => {
+                self.call_sheet_function(function, arguments, span, scope)?
             }
             ExpressionKind::Call {
                 function,
                 arguments,
             } => {
                 let Some(callee) = self.library.function(&function.text) else {
-                    let kind = if self.definitions.contains_key(function.text.as_str())
+                    let kind = if scope.lookup(&function.text).is_some()
                         || self.library.constant(&function.text).is_some()
                     {
                         EvalErrorKind::NameCalledAsFunction {
@@ -776,14 +781,14 @@ impl<'a> Evaluator<'a> {
                     } else {
                         EvalErrorKind::UnknownFunction {
                             name: function.text.clone(),
-                            suggestion: self.suggest(&function.text),
+                            suggestion: self.suggest(&function.text, scope),
                         }
                     };
                     return Err(EvalError::new(kind, function.span).into());
                 };
                 let mut values = Vec::with_capacity(arguments.len());
                 for argument in arguments {
-                    values.push(self.expression(argument)?);
+                    values.push(self.expression(argument, scope)?);
                 }
                 self.calls.push(CallRecord {
                     function: function.text.clone(),
@@ -816,7 +821,7 @@ impl<'a> Evaluator<'a> {
                     })?
             }
             ExpressionKind::Negate(inner) => {
-                let value = self.expression(inner)?;
+                let value = self.expression(inner, scope)?;
                 let temperature = match value.temperature {
                     TemperatureKind::Difference => TemperatureKind::Difference,
                     _ => TemperatureKind::Unspecified,
@@ -832,8 +837,8 @@ impl<'a> Evaluator<'a> {
                 left,
                 right,
             } => {
-                let left_value = self.expression(left)?;
-                let right_value = self.expression(right)?;
+                let left_value = self.expression(left, scope)?;
+                let right_value = self.expression(right, scope)?;
                 binary(*operator, left_value, right_value, span, right.span)?
             }
         };
@@ -846,7 +851,7 @@ impl<'a> Evaluator<'a> {
     fn literal(
         &mut self,
         digits: &str,
-        unit: Option<&'a UnitExpression>,
+        unit: Option<&UnitExpression>,
         span: Span,
     ) -> Result<Quantity, Failure> {
         let number: f64 = digits.parse().unwrap_or(f64::INFINITY);
@@ -870,16 +875,16 @@ impl<'a> Evaluator<'a> {
         })
     }
 
-    fn name(&mut self, name: &str, span: Span) -> Result<Quantity, Failure> {
-        if let Some(scope) = self.scopes.last() {
-            if let Some((_, value)) = scope.iter().find(|(parameter, _)| *parameter == name) {
+    fn name(&mut self, name: &str, span: Span, scope: &dyn Scope) -> Result<Quantity, Failure> {
+        if let Some(parameters) = self.parameters.last() {
+            if let Some((_, value)) = parameters.iter().find(|(parameter, _)| parameter == name) {
                 return Ok(*value);
             }
         }
-        if let Some(index) = self.definitions.get(name) {
-            return match &self.slots[*index] {
-                Slot::Ready(quantity) => Ok(*quantity),
-                Slot::Failed | Slot::Pending => Err(Failure::Upstream(name.to_string())),
+        if let Some(slot) = scope.lookup(name) {
+            return match slot {
+                Some(shown) => Ok(shown.quantity),
+                None => Err(Failure::Upstream(name.to_string())),
             };
         }
         if let Some(constant) = self.library.constant(name) {
@@ -892,42 +897,46 @@ impl<'a> Evaluator<'a> {
         } else {
             EvalErrorKind::UnknownName {
                 name: name.to_string(),
-                suggestion: self.suggest(name),
+                suggestion: self.suggest(name, scope),
             }
         };
         Err(EvalError::new(kind, span).into())
     }
 
     /// The closest sheet or built-in name, for "did you mean".
-    fn suggest(&self, name: &str) -> Option<String> {
-        let library_names = self.library.names();
-        self.definitions
-            .keys()
-            .copied()
-            .chain(library_names.iter().copied())
-            .map(|candidate| (strsim::jaro_winkler(name, candidate), candidate))
-            .filter(|(score, _)| *score > 0.8)
-            .max_by(|left, right| left.0.total_cmp(&right.0))
-            .map(|(_, candidate)| candidate.to_string())
+    fn suggest(&self, name: &str, scope: &dyn Scope) -> Option<String> {
+        let mut best: Option<(f64, String)> = None;
+        let mut consider = |candidate: &str| {
+            let score = strsim::jaro_winkler(name, candidate);
+            if score > 0.8 && best.as_ref().is_none_or(|(top, _)| score >= *top) {
+                best = Some((score, candidate.to_string()));
+            }
+        };
+        scope.for_each_defined(&mut consider);
+        for candidate in self.library.names() {
+            consider(candidate);
+        }
+        best.map(|(_, candidate)| candidate)
     }
 
-    fn unit(&mut self, expression: &'a UnitExpression) -> Result<Unit, EvalError> {
+    fn unit(&mut self, expression: &UnitExpression) -> Result<Unit, EvalError> {
         if let Some(unit) = self.unit_cache.get(expression.text.as_str()) {
             return Ok(unit.clone());
         }
         let unit = resolve_unit(expression)?;
         self.unit_cache
-            .insert(expression.text.as_str(), unit.clone());
+            .insert(expression.text.clone(), unit.clone());
         Ok(unit)
     }
 
     /// Converts a value to its display unit: the declared one (checked), a literal's own unit,
     /// or the preferred SI unit.
-    fn shown(
+    pub(crate) fn shown(
         &mut self,
         quantity: Quantity,
-        declared: Option<&'a UnitExpression>,
-        expression: &'a Expression,
+        declared: Option<&UnitExpression>,
+        expression: &Expression,
+        scope: &dyn Scope,
     ) -> Result<ShownValue, EvalError> {
         let written = match (&expression.kind, declared) {
             (_, Some(declared)) => Some(declared),
@@ -938,13 +947,10 @@ impl<'a> Evaluator<'a> {
                 None,
             ) => Some(unit),
             // A call of a sheet function that declares its result unit shows in that unit.
-            (ExpressionKind::Call { function, .. }, None) => self
-                .functions
-                .get(function.text.as_str())
-                .and_then(|index| match &self.lines[*index].kind {
-                    LineKind::Function(definition) => definition.result_unit.as_ref(),
-                    _ => None,
-                }),
+            (ExpressionKind::Call { function, .. }, None) => scope
+                .sheet_function(&function.text)
+                .flatten()
+                .and_then(|definition| definition.result_unit.as_ref()),
             _ => None,
         };
         let Some(unit_expression) = written else {
@@ -962,19 +968,16 @@ impl<'a> Evaluator<'a> {
     fn shown_for_check(
         &mut self,
         quantity: Quantity,
-        sides: [&'a Expression; 2],
+        sides: [&Expression; 2],
+        scope: &dyn Scope,
     ) -> Result<ShownValue, EvalError> {
         for side in sides {
             match &side.kind {
                 ExpressionKind::Quantity { unit: Some(_), .. } => {
-                    return self.shown(quantity, None, side)
+                    return self.shown(quantity, None, side, scope)
                 }
                 ExpressionKind::Name(name) => {
-                    if let Some(Some(LineResult::Value(shown))) = self
-                        .definitions
-                        .get(name.as_str())
-                        .map(|index| &self.results[*index])
-                    {
+                    if let Some(Some(shown)) = scope.lookup(name) {
                         let text = shown.unit.clone();
                         if let Ok(expression) = crate::syntax::parse_unit(&text) {
                             if let Ok(unit) = resolve_unit(&expression) {
@@ -995,9 +998,14 @@ impl<'a> Evaluator<'a> {
         })
     }
 
-    fn check(&mut self, check: &'a Check) -> Result<CheckOutcome, Failure> {
-        let left = self.expression(&check.left)?;
-        let right = self.expression(&check.right)?;
+    /// Decides a check line.
+    pub(crate) fn check(
+        &mut self,
+        check: &Check,
+        scope: &dyn Scope,
+    ) -> Result<CheckOutcome, Failure> {
+        let left = self.expression(&check.left, scope)?;
+        let right = self.expression(&check.right, scope)?;
         if left.dimension != right.dimension {
             return Err(EvalError::new(
                 EvalErrorKind::DimensionMismatch {
@@ -1015,7 +1023,7 @@ impl<'a> Evaluator<'a> {
             }
             None => 0.0,
             Some(tolerance) => {
-                let value = self.expression(tolerance)?;
+                let value = self.expression(tolerance, scope)?;
                 if value.value < 0.0 {
                     return Err(
                         EvalError::new(EvalErrorKind::NegativeTolerance, tolerance.span).into(),
@@ -1046,21 +1054,111 @@ impl<'a> Evaluator<'a> {
             Comparison::Equal => (l - r).abs() <= allowance,
             Comparison::NotEqual => (l - r).abs() > allowance,
         };
-        let right_shown = self.shown_for_check(right, [&check.right, &check.left])?;
-        let left_shown = self.shown_for_check(left, [&check.right, &check.left])?;
+        let right_shown = self.shown_for_check(right, [&check.right, &check.left], scope)?;
+        let left_shown = self.shown_for_check(left, [&check.right, &check.left], scope)?;
         Ok(CheckOutcome {
             passed,
             comparison: check.comparison,
             left: left_shown,
             right: right_shown,
-            tolerance: check
-                .tolerance
-                .as_ref()
-                .map(|tolerance| text_of(self.sources, tolerance.span)),
+            tolerance: check.tolerance_text.clone(),
             message: check.message.clone(),
         })
     }
+
+    /// Resolves a function's declared units once at its definition; returns its signature.
+    fn check_function_units(&mut self, function: &FunctionDefinition) -> Result<String, EvalError> {
+        let mut parameters = Vec::new();
+        for parameter in &function.parameters {
+            match &parameter.unit {
+                Some(unit) => {
+                    self.unit(unit)?;
+                    parameters.push(format!("{} [{}]", parameter.name.text, unit.text));
+                }
+                None => parameters.push(parameter.name.text.clone()),
+            }
+        }
+        let mut signature = format!("{}({})", function.name.text, parameters.join(", "));
+        if let Some(unit) = &function.result_unit {
+            self.unit(unit)?;
+            signature.push_str(&format!(" [{}]", unit.text));
+        }
+        Ok(signature)
+    }
+
+    /// Calls a function defined in the sheet: arguments checked against declared dimensions,
+    /// the body evaluated with the parameters bound, errors pointing at call and definition.
+    fn call_sheet_function(
+        &mut self,
+        name: &crate::syntax::Name,
+        arguments: &[Expression],
+        span: Span,
+        scope: &dyn Scope,
+    ) -> Result<Quantity, Failure> {
+        let Some(Some(definition)) = scope.sheet_function(&name.text) else {
+            return Err(Failure::Upstream(name.text.clone()));
+        };
+        let defined_here =
+            |error: EvalError| error.with_label(definition.name.span, "defined here");
+        if arguments.len() != definition.parameters.len() {
+            let kind = EvalErrorKind::SheetFunctionArguments {
+                function: name.text.clone(),
+                expected: definition.parameters.len(),
+                found: arguments.len(),
+            };
+            return Err(defined_here(EvalError::new(kind, span)).into());
+        }
+        let mut bound = Vec::with_capacity(arguments.len());
+        for (argument, parameter) in arguments.iter().zip(&definition.parameters) {
+            let value = self.expression(argument, scope)?;
+            if let Some(unit) = &parameter.unit {
+                let unit = self.unit(unit)?;
+                if unit.dimension != value.dimension {
+                    let kind = EvalErrorKind::ParameterDimension {
+                        function: name.text.clone(),
+                        parameter: parameter.name.text.clone(),
+                        expected: unit.dimension,
+                        found: value.dimension,
+                    };
+                    let error = EvalError::new(kind, argument.span)
+                        .with_label(parameter.name.span, "declared here");
+                    return Err(error.into());
+                }
+            }
+            bound.push((parameter.name.text.clone(), value));
+        }
+        if self.parameters.len() >= CALL_DEPTH_LIMIT {
+            return Err(Failure::Upstream(name.text.clone()));
+        }
+        self.parameters.push(bound);
+        let result = self.expression(&definition.body, scope);
+        self.parameters.pop();
+        let value = result.map_err(|failure| match failure {
+            Failure::Error(error) => {
+                Failure::Error(error.with_label(span, format!("in this call of `{}`", name.text)))
+            }
+            upstream => upstream,
+        })?;
+        if let Some(unit) = &definition.result_unit {
+            let unit = self.unit(unit)?;
+            if unit.dimension != value.dimension {
+                let kind = EvalErrorKind::ResultDimension {
+                    function: name.text.clone(),
+                    expected: unit.dimension,
+                    found: value.dimension,
+                };
+                return Err(EvalError::new(kind, span)
+                    .with_label(unit_span(definition), "declared here")
+                    .into());
+            }
+        }
+        Ok(value)
+    }
 }
+
+/// Nesting of sheet-function calls beyond which a call is refused (recursion is refused at
+/// definition, so only a pathological chain of distinct functions reaches it).
+const CALL_DEPTH_LIMIT: usize = 64;
 
 fn text_of(sources: &SourceMap, span: Span) -> String {
     sources.text_of(span).to_string()

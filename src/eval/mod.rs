@@ -8,6 +8,7 @@ pub mod error;
 pub mod evaluate;
 pub mod function;
 pub mod order;
+pub mod session;
 pub mod sources;
 pub mod value;
 pub mod warnings;

@@ -83,6 +83,8 @@ pub struct Check {
     pub comparison_span: Span,
     pub right: Expression,
     pub tolerance: Option<Expression>,
+    /// The tolerance as written (`1 %`), for showing the check.
+    pub tolerance_text: Option<String>,
     pub message: Option<String>,
 }
 

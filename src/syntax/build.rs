@@ -299,6 +299,7 @@ impl Builder {
         let mut expressions = Vec::new();
         let mut comparison = None;
         let mut tolerance = None;
+        let mut tolerance_text = None;
         let mut message = None;
         let mut comment = None;
         for inner in pair.into_inner() {
@@ -320,6 +321,7 @@ impl Builder {
                         .into_inner()
                         .next()
                         .ok_or_else(|| internal(fallback.start))?;
+                    tolerance_text = Some(expression.as_str().trim().to_string());
                     tolerance = Some(self.expression(expression)?);
                 }
                 Rule::message => {
@@ -346,6 +348,7 @@ impl Builder {
                     comparison_span,
                     right,
                     tolerance,
+                    tolerance_text,
                     message,
                 },
                 comment,
