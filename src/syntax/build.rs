@@ -30,34 +30,73 @@ pub fn parse_sheet(source: &str) -> ParsedSheet {
 /// Parses a sheet whose text starts at byte `base` of a larger offset space (an included
 /// sheet laid after the one that includes it).
 pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
-    let mut lines = Vec::new();
-    let mut errors = Vec::new();
+    let mut raw_lines = Vec::new();
     let mut offset = base;
     for (index, raw_line) in source.split('\n').enumerate() {
         let text = raw_line.strip_suffix('\r').unwrap_or(raw_line);
-        match parse_line(text, index + 1, offset) {
-            Ok(line) => lines.push(line),
-            Err(error) => {
-                lines.push(Line {
-                    number: index + 1,
-                    span: Span::new(offset, offset + text.len()),
-                    kind: LineKind::Invalid,
-                    comment: None,
-                });
-                errors.push(error);
-            }
-        }
+        raw_lines.push((index + 1, text, offset));
         offset += raw_line.len() + 1;
     }
     // A final newline does not make a line of its own.
     if source.ends_with('\n') {
-        lines.pop();
+        raw_lines.pop();
+    }
+    let parse = |&(number, text, offset): &(usize, &str, usize)| {
+        parse_line(text, number, offset).map_err(|error| {
+            let invalid = Line {
+                number,
+                span: Span::new(offset, offset + text.len()),
+                kind: LineKind::Invalid,
+                comment: None,
+            };
+            (invalid, error)
+        })
+    };
+    // Lines parse independently, so a long sheet is split across the machine's cores.
+    let workers = std::thread::available_parallelism()
+        .map_or(1, usize::from)
+        .min(8);
+    let results: Vec<Result<Line, (Line, SyntaxError)>> =
+        if workers > 1 && raw_lines.len() >= PARALLEL_PARSE_LINES {
+            let chunk = raw_lines.len().div_ceil(workers);
+            std::thread::scope(|scope| {
+                let handles: Vec<_> = raw_lines
+                    .chunks(chunk)
+                    .map(|lines| scope.spawn(move || lines.iter().map(parse).collect::<Vec<_>>()))
+                    .collect();
+                let mut all = Vec::with_capacity(raw_lines.len());
+                for (handle, lines) in handles.into_iter().zip(raw_lines.chunks(chunk)) {
+                    // A worker that panicked (a bug of ours) has its lines parsed again here.
+                    all.extend(
+                        handle
+                            .join()
+                            .unwrap_or_else(|_| lines.iter().map(parse).collect()),
+                    );
+                }
+                all
+            })
+        } else {
+            raw_lines.iter().map(parse).collect()
+        };
+    let mut lines = Vec::with_capacity(results.len());
+    let mut errors = Vec::new();
+    for result in results {
+        match result {
+            Ok(line) => lines.push(line),
+            Err((invalid, error)) => {
+                lines.push(invalid);
+                errors.push(error);
+            }
+        }
     }
     ParsedSheet {
         sheet: Sheet { lines },
         errors,
     }
 }
+
+/// Sheets shorter than this are parsed on one thread: starting threads would cost more.
+const PARALLEL_PARSE_LINES: usize = 2_000;
 
 /// Parses one line whose text starts at byte `offset` of its file.
 pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, SyntaxError> {
@@ -799,6 +838,37 @@ mod tests {
             parse_line("include_depth = 3 m", 1, 0).unwrap().kind,
             LineKind::Definition(_)
         ));
+    }
+
+    #[test]
+    fn a_long_sheet_parsed_on_several_threads_matches_line_by_line() {
+        let text: String = (0..5_000)
+            .map(|index| {
+                if index % 997 == 0 {
+                    format!("bad_{index} = = 1\n")
+                } else {
+                    format!("x_{index} = {index} m * 2\n")
+                }
+            })
+            .collect();
+        let parsed = parse_sheet(&text);
+        let mut offset = 0;
+        let mut expected_errors = 0;
+        for (index, raw) in text.split_terminator('\n').enumerate() {
+            match parse_line(raw, index + 1, offset) {
+                Ok(line) => assert_eq!(parsed.sheet.lines[index], line),
+                Err(error) => {
+                    assert_eq!(parsed.sheet.lines[index].kind, LineKind::Invalid);
+                    assert_eq!(parsed.errors[expected_errors], error);
+                    expected_errors += 1;
+                }
+            }
+            offset += raw.len() + 1;
+        }
+        assert_eq!(
+            (parsed.sheet.lines.len(), parsed.errors.len()),
+            (5_000, expected_errors)
+        );
     }
 
     #[test]
