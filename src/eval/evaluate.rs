@@ -557,7 +557,6 @@ impl<'a> Evaluator<'a> {
         needed
     }
 
-    /// Resolves a function's declared units once at its definition; returns its signature.
     fn report_cycle(&mut self, members: Vec<usize>) {
         let names: Vec<String> = members
             .iter()
@@ -614,18 +613,11 @@ impl<'a> Evaluator<'a> {
         };
         let scope = sheet_scope!(self);
         let calculator = &mut self.calculator;
-        let outcome = calculator
-            .expression(&definition.expression, &scope)
-            .and_then(|quantity| {
-                calculator
-                    .shown(
-                        quantity,
-                        definition.display_unit.as_ref(),
-                        &definition.expression,
-                        &scope,
-                    )
-                    .map_err(Failure::from)
-            });
+        let outcome = calculator.line_value(
+            &definition.expression,
+            definition.display_unit.as_ref(),
+            &scope,
+        );
         self.settle(index, outcome);
     }
 
@@ -646,19 +638,11 @@ impl<'a> Evaluator<'a> {
             LineKind::Display(display) => {
                 let scope = sheet_scope!(self);
                 let calculator = &mut self.calculator;
-                let outcome =
-                    calculator
-                        .expression(&display.expression, &scope)
-                        .and_then(|quantity| {
-                            calculator
-                                .shown(
-                                    quantity,
-                                    display.display_unit.as_ref(),
-                                    &display.expression,
-                                    &scope,
-                                )
-                                .map_err(Failure::from)
-                        });
+                let outcome = calculator.line_value(
+                    &display.expression,
+                    display.display_unit.as_ref(),
+                    &scope,
+                );
                 return self.settle(index, outcome);
             }
             LineKind::Check(check) => match self.calculator.check(check, &sheet_scope!(self)) {
@@ -927,6 +911,18 @@ impl<'l> Calculator<'l> {
         self.unit_cache
             .insert(expression.text.clone(), unit.clone());
         Ok(unit)
+    }
+
+    /// A line's value in its display unit: the expression evaluated, then shown.
+    pub(crate) fn line_value(
+        &mut self,
+        expression: &Expression,
+        declared: Option<&UnitExpression>,
+        scope: &dyn Scope,
+    ) -> Result<ShownValue, Failure> {
+        let quantity = self.expression(expression, scope)?;
+        self.shown(quantity, declared, expression, scope)
+            .map_err(Failure::from)
     }
 
     /// Converts a value to its display unit: the declared one (checked), a literal's own unit,

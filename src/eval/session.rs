@@ -295,19 +295,11 @@ put them in a sheet and `:load` it or `fluxsheet run` it";
                     lines: &self.lines,
                     by_name: &self.by_name,
                 };
-                let outcome = self
-                    .calculator
-                    .expression(&display.expression, &scope)
-                    .and_then(|quantity| {
-                        self.calculator
-                            .shown(
-                                quantity,
-                                display.display_unit.as_ref(),
-                                &display.expression,
-                                &scope,
-                            )
-                            .map_err(Failure::from)
-                    });
+                let outcome = self.calculator.line_value(
+                    &display.expression,
+                    display.display_unit.as_ref(),
+                    &scope,
+                );
                 match outcome {
                     Ok(value) => {
                         self.last = Some(Last::Value(value.clone()));
@@ -793,30 +785,14 @@ fn evaluate_line(
             return (LineResult::Error, Vec::new())
         }
         LineKind::Definition(definition) => calculator
-            .expression(&definition.expression, scope)
-            .and_then(|quantity| {
-                calculator
-                    .shown(
-                        quantity,
-                        definition.display_unit.as_ref(),
-                        &definition.expression,
-                        scope,
-                    )
-                    .map_err(Failure::from)
-            })
+            .line_value(
+                &definition.expression,
+                definition.display_unit.as_ref(),
+                scope,
+            )
             .map(LineResult::Value),
         LineKind::Display(display) => calculator
-            .expression(&display.expression, scope)
-            .and_then(|quantity| {
-                calculator
-                    .shown(
-                        quantity,
-                        display.display_unit.as_ref(),
-                        &display.expression,
-                        scope,
-                    )
-                    .map_err(Failure::from)
-            })
+            .line_value(&display.expression, display.display_unit.as_ref(), scope)
             .map(LineResult::Value),
         LineKind::Check(check) => calculator
             .check(check, scope)
