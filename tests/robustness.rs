@@ -23,6 +23,8 @@ proptest! {
         Just("("), Just(")"), Just("["), Just("]"), Just("2"), Just("0"), Just("1e308"), Just("m"),
         Just("degC"), Just("mD"), Just(" "), Just("\n"), Just("sqrt("), Just("ln("), Just(","),
         Just("check "), Just("<="), Just("within"), Just("#"), Just("##"), Just("%"), Just("0.5"),
+        Just("f("), Just("g(x) = "), Just("[m/s]"), Just("include \"a.fxs\""), Just("f(x [m]) = x"),
+        Just("water_density("), Just("degF"), Just("-"), Just("^"), Just("(1/2)"),
     ], 0..40)) {
         let text: String = tokens.concat();
         let evaluation = evaluate_sheet(&text, Builtins::standard());
