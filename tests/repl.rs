@@ -328,3 +328,34 @@ fn terminal_session_completes_hints_cancels_and_keeps_history() {
     assert!(kept.contains("x = k_core * 2"), "{kept}");
     assert!(!kept.contains("water_densi"), "{kept}");
 }
+
+/// Sheet functions in a session: defined, called, redefined (callers recomputed), checked at
+/// the call, and refused when recursive; includes are refused with a pointer to `:load`.
+#[test]
+fn sheet_functions_in_a_session() {
+    let script = "leak(K [m/s], h, t [m]) [m/d] = K * (h + t) / t\n\
+q = leak(1e-9 m/s, 0.3 m, 0.6 m)\n\
+leak(K [m/s], h, t [m]) [mm/d] = K * (h + t) / t\n\
+bad = leak(2 m, 1 m, 1 m)\n\
+f(x) = f(x) + 1\n\
+include \"other.fxs\"\n";
+    let (code, stdout, stderr) = session(&["repl"], script);
+    assert_eq!(code, 3, "entries with errors make the exit code 3");
+    assert!(stdout.contains("q = 1.296e-4 m/d"), "{stdout}");
+    assert!(
+        stdout.contains("  q = 0.1296 mm/d"),
+        "callers are recomputed: {stdout}"
+    );
+    assert!(
+        stderr.contains("parameter `K` must be a velocity (m/s), found a length (m)"),
+        "{stderr}"
+    );
+    assert!(
+        stderr.contains("circular definition: `f` -> `f`"),
+        "{stderr}"
+    );
+    assert!(
+        stderr.contains("includes are not available in a session"),
+        "{stderr}"
+    );
+}

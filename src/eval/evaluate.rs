@@ -1063,7 +1063,10 @@ impl<'l> Calculator<'l> {
     }
 
     /// Resolves a function's declared units once at its definition; returns its signature.
-    fn check_function_units(&mut self, function: &FunctionDefinition) -> Result<String, EvalError> {
+    pub(crate) fn check_function_units(
+        &mut self,
+        function: &FunctionDefinition,
+    ) -> Result<String, EvalError> {
         let mut parameters = Vec::new();
         for parameter in &function.parameters {
             match &parameter.unit {

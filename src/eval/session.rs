@@ -19,7 +19,7 @@ use super::error::{EvalError, EvalErrorKind};
 use super::evaluate::{Calculator, Failure, LineResult, Scope, ShownValue};
 use super::function::Library;
 use super::order::dependency_order;
-use crate::syntax::{parse_line, Expression, Line, LineKind, Span};
+use crate::syntax::{parse_line, Expression, FunctionDefinition, Line, LineKind, Span};
 use std::collections::HashMap;
 
 /// The name that holds the last result.
@@ -45,10 +45,7 @@ impl SessionLine {
 
     /// The name it defines, if it is a definition.
     pub fn name(&self) -> Option<&str> {
-        match &self.line.kind {
-            LineKind::Definition(definition) => Some(definition.name.text.as_str()),
-            _ => None,
-        }
+        line_name(&self.line)
     }
 
     pub fn kind(&self) -> &LineKind {
@@ -148,9 +145,20 @@ struct SessionScope<'s> {
 
 impl Scope for SessionScope<'_> {
     fn lookup(&self, name: &str) -> Option<Option<&ShownValue>> {
-        self.by_name
-            .get(name)
-            .map(|index| self.lines.get(*index).and_then(SessionLine::value))
+        let line = self.lines.get(*self.by_name.get(name)?)?;
+        match line.kind() {
+            LineKind::Function(_) => None,
+            _ => Some(line.value()),
+        }
+    }
+
+    fn sheet_function(&self, name: &str) -> Option<Option<&FunctionDefinition>> {
+        let line = self.lines.get(*self.by_name.get(name)?)?;
+        match (line.kind(), line.result()) {
+            (LineKind::Function(_), LineResult::Error) => Some(None),
+            (LineKind::Function(function), _) => Some(Some(function)),
+            _ => None,
+        }
     }
 
     fn for_each_defined(&self, visit: &mut dyn FnMut(&str)) {
@@ -278,9 +286,8 @@ impl<'l> Session<'l> {
         };
         match &line.kind {
             LineKind::Blank | LineKind::Invalid => {}
-            LineKind::Function(_) | LineKind::Include(_) => {
-                let message = "sheet functions and includes are not available in a session yet; \
-put them in a sheet and `:load` it or `fluxsheet run` it";
+            LineKind::Include(_) => {
+                let message = "includes are not available in a session; `:load` the sheet instead";
                 report.outcome = Outcome::Refused;
                 report
                     .diagnostics
@@ -314,8 +321,11 @@ put them in a sheet and `:load` it or `fluxsheet run` it";
                 }
             }
             LineKind::Check(_) => self.keep_new(line, &mut report),
-            LineKind::Definition(definition) => {
-                let name = definition.name.text.clone();
+            LineKind::Definition(_) | LineKind::Function(_) => {
+                let Some((name, name_span)) = line_name_and_span(&line) else {
+                    return report;
+                };
+                let name = name.to_string();
                 if name == LAST_RESULT && !self.by_name.contains_key(LAST_RESULT) {
                     let message = format!(
                         "`{LAST_RESULT}` holds the last result and cannot be defined; choose another name"
@@ -323,13 +333,12 @@ put them in a sheet and `:load` it or `fluxsheet run` it";
                     report.outcome = Outcome::Refused;
                     report
                         .diagnostics
-                        .push(Diagnostic::error(message, definition.name.span));
+                        .push(Diagnostic::error(message, name_span));
                     return report;
                 }
                 if let Some(path) = self.cycle_through(&name, &references_of(&line)) {
                     let mut diagnostic =
-                        EvalError::new(EvalErrorKind::Cycle { path }, definition.name.span)
-                            .to_diagnostic();
+                        EvalError::new(EvalErrorKind::Cycle { path }, name_span).to_diagnostic();
                     if self.by_name.contains_key(&name) {
                         diagnostic = diagnostic
                             .with_help(Some(format!("the definition of `{name}` is unchanged")));
@@ -378,12 +387,7 @@ put them in a sheet and `:load` it or `fluxsheet run` it";
                     continue;
                 }
             };
-            let existing = match &line.kind {
-                LineKind::Definition(definition) => {
-                    self.by_name.get(definition.name.text.as_str()).copied()
-                }
-                _ => None,
-            };
+            let existing = line_name(&line).and_then(|name| self.by_name.get(name).copied());
             let index = match existing {
                 Some(index) => {
                     let name = line_name(&line).unwrap_or_default().to_string();
@@ -592,10 +596,8 @@ put them in a sheet and `:load` it or `fluxsheet run` it";
             for node in cycle {
                 in_cycle[*node] = true;
                 let line = &mut self.lines[members[*node]];
-                let span = match &line.line.kind {
-                    LineKind::Definition(definition) => definition.name.span,
-                    _ => Span::new(0, line.text.len()),
-                };
+                let span = line_name_and_span(&line.line)
+                    .map_or(Span::new(0, line.text.len()), |(_, span)| span);
                 line.result = LineResult::Error;
                 line.diagnostics = vec![EvalError::new(
                     EvalErrorKind::Cycle {
@@ -718,9 +720,17 @@ fn literal_text(value: &ShownValue) -> String {
     }
 }
 
+/// The name a line defines: a value or a sheet function.
 fn line_name(line: &Line) -> Option<&str> {
+    line_name_and_span(line).map(|(name, _)| name)
+}
+
+fn line_name_and_span(line: &Line) -> Option<(&str, Span)> {
     match &line.kind {
-        LineKind::Definition(definition) => Some(definition.name.text.as_str()),
+        LineKind::Definition(definition) => {
+            Some((definition.name.text.as_str(), definition.name.span))
+        }
+        LineKind::Function(function) => Some((function.name.text.as_str(), function.name.span)),
         _ => None,
     }
 }
@@ -758,14 +768,26 @@ fn for_each_expression<'a>(line: &'a Line, visit: &mut impl FnMut(&'a Expression
 }
 
 /// The names a line refers to, without repeats, in order of appearance.
+/// The names and sheet functions a line refers to (a function's own parameters excluded),
+/// without repeats, in order of appearance.
 fn references_of(line: &Line) -> Vec<String> {
+    let parameters: Vec<&str> = match &line.kind {
+        LineKind::Function(function) => function
+            .parameters
+            .iter()
+            .map(|parameter| parameter.name.text.as_str())
+            .collect(),
+        _ => Vec::new(),
+    };
     let mut names: Vec<String> = Vec::new();
+    let mut add = |name: &str| {
+        if !parameters.contains(&name) && !names.iter().any(|known| known == name) {
+            names.push(name.to_string());
+        }
+    };
     for_each_expression(line, &mut |expression| {
-        expression.for_each_name(&mut |name, _| {
-            if !names.iter().any(|known| known == name) {
-                names.push(name.to_string());
-            }
-        })
+        expression.for_each_name(&mut |name, _| add(name));
+        expression.for_each_call(&mut |name, _| add(name));
     });
     names
 }
@@ -780,10 +802,12 @@ fn evaluate_line(
         LineKind::Blank => return (LineResult::Blank, Vec::new()),
         LineKind::Comment => return (LineResult::Comment, Vec::new()),
         LineKind::Heading(heading) => return (LineResult::Heading(heading.clone()), Vec::new()),
-        // Refused on entry; a loaded sheet's functions and includes are not evaluated here.
-        LineKind::Invalid | LineKind::Function(_) | LineKind::Include(_) => {
-            return (LineResult::Error, Vec::new())
-        }
+        // Refused on entry; a loaded sheet's includes are not followed in a session.
+        LineKind::Invalid | LineKind::Include(_) => return (LineResult::Error, Vec::new()),
+        LineKind::Function(function) => calculator
+            .check_function_units(function)
+            .map(|signature| LineResult::Function { signature })
+            .map_err(Failure::from),
         LineKind::Definition(definition) => calculator
             .line_value(
                 &definition.expression,
