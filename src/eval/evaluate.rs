@@ -14,7 +14,7 @@ use crate::syntax::{
     parse_sheet_at, BinaryOperator, Check, Comparison, Expression, ExpressionKind,
     FunctionDefinition, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
-use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
+use crate::units::{Exponent, TemperatureRole, Unit, UnitError};
 use rustc_hash::FxHashMap as HashMap;
 
 /// Relative tolerance of `==` and `!=` checks written without `within`.
@@ -58,15 +58,6 @@ impl Evaluation {
             .count()
     }
 
-    /// The value of a named line, if it evaluated.
-    pub fn value_of(&self, name: &str) -> Option<&ShownValue> {
-        self.lines
-            .iter()
-            .find_map(|line| match (&line.name, &line.result) {
-                (Some(line_name), LineResult::Value(value)) if line_name == name => Some(value),
-                _ => None,
-            })
-    }
 }
 
 /// One source line and what became of it.
@@ -1384,10 +1375,6 @@ fn simple_fraction(value: f64) -> Option<Exponent> {
     })
 }
 
-/// A dimension's unit for messages and defaults, re-exported for front ends.
-pub fn preferred_unit(dimension: &Dimension) -> String {
-    dimension.preferred_si_unit()
-}
 
 /// Where a function declares its result unit (or its name, if it declares none).
 fn unit_span(function: &FunctionDefinition) -> Span {
