@@ -57,7 +57,6 @@ impl Evaluation {
             .filter(|line| matches!(&line.result, LineResult::Check(check) if !check.passed))
             .count()
     }
-
 }
 
 /// One source line and what became of it.
@@ -1374,7 +1373,6 @@ fn simple_fraction(value: f64) -> Option<Exponent> {
             .then(|| Exponent::new(rounded as i32, denominator))
     })
 }
-
 
 /// Where a function declares its result unit (or its name, if it declares none).
 fn unit_span(function: &FunctionDefinition) -> Span {
