@@ -158,7 +158,7 @@ pub enum BinaryOperator {
 pub struct UnitExpression {
     pub kind: UnitExpressionKind,
     pub span: Span,
-    /// The unit's text as written, e.g. `gal/(d*ft^2)`.
+    /// The unit's text as written, e.g. `gal/(d*ft^2)`; empty on the inner nodes of a unit.
     pub text: String,
 }
 

@@ -488,11 +488,13 @@ impl Builder {
         }
     }
 
+    /// A unit tree. Only a whole unit expression keeps its text (for display and as the unit
+    /// cache's key); inner nodes leave it empty, which saves an allocation per node.
     fn unit(&self, pair: Pair<Rule>) -> Result<UnitExpression, SyntaxError> {
         let span = self.span(&pair);
-        let text = pair.as_str().to_string();
         match pair.as_rule() {
             Rule::unit_expression => {
+                let text = pair.as_str().to_string();
                 let mut inner = pair.into_inner();
                 let first = inner.next().ok_or_else(|| internal(span.start))?;
                 let mut result = self.unit(first)?;
@@ -504,11 +506,10 @@ impl Builder {
                     } else {
                         UnitExpressionKind::Product(Box::new(result), Box::new(right))
                     };
-                    let combined_text = text[..combined_span.end - span.start].to_string();
                     result = UnitExpression {
                         kind,
                         span: combined_span,
-                        text: combined_text,
+                        text: String::new(),
                     };
                 }
                 Ok(UnitExpression { text, ..result })
@@ -534,20 +535,20 @@ impl Builder {
                                 denominator,
                             },
                             span,
-                            text,
+                            text: String::new(),
                         })
                     }
                 }
             }
             Rule::unit_symbol => Ok(UnitExpression {
-                kind: UnitExpressionKind::Symbol(text.clone()),
+                kind: UnitExpressionKind::Symbol(pair.as_str().to_string()),
                 span,
-                text,
+                text: String::new(),
             }),
             Rule::unit_one => Ok(UnitExpression {
                 kind: UnitExpressionKind::One,
                 span,
-                text,
+                text: String::new(),
             }),
             _ => Err(internal(span.start)),
         }
