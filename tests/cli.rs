@@ -233,3 +233,22 @@ fn dimension_algebra_with_rational_exponents() {
     assert_eq!(run(&["eval", "sqrt(-4 m^2)"]).0, 3);
     assert_eq!(run(&["eval", "exp(2 m)"]).0, 3);
 }
+
+/// Without `[unit]`: a literal shows in its own unit, a bare name in its line's unit, anything
+/// else in the preferred SI unit.
+#[test]
+fn default_display_units() {
+    let (code, stdout, _) = run_sheet(
+        "k = 420 mD\nj = k\nT = 9 degC\nU = T\nw = k * 2\n",
+        &["--format", "json"],
+    );
+    assert_eq!(code, 0);
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    let units: Vec<&str> = json["lines"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|line| line["unit"].as_str().unwrap())
+        .collect();
+    assert_eq!(units, vec!["mD", "mD", "degC", "degC", "m^2"]);
+}

@@ -940,6 +940,12 @@ impl<'l> Calculator<'l> {
             _ => None,
         };
         let Some(unit_expression) = written else {
+            // A bare name (`y = x`, or `x` alone) shows in the unit its own line shows in.
+            if let ExpressionKind::Name(name) = &expression.kind {
+                if let Some(shown) = shown_like(quantity, name, scope, expression.span) {
+                    return Ok(shown);
+                }
+            }
             return Ok(ShownValue {
                 quantity,
                 unit: quantity.dimension.preferred_si_unit(),
@@ -963,15 +969,8 @@ impl<'l> Calculator<'l> {
                     return self.shown(quantity, None, side, scope)
                 }
                 ExpressionKind::Name(name) => {
-                    if let Some(Some(shown)) = scope.lookup(name) {
-                        let text = shown.unit.clone();
-                        if let Ok(expression) = crate::syntax::parse_unit(&text) {
-                            if let Ok(unit) = resolve_unit(&expression) {
-                                if let Ok(value) = show_in(quantity, &unit, &text, side.span) {
-                                    return Ok(value);
-                                }
-                            }
-                        }
+                    if let Some(shown) = shown_like(quantity, name, scope, side.span) {
+                        return Ok(shown);
                     }
                 }
                 _ => {}
@@ -1143,6 +1142,17 @@ impl<'l> Calculator<'l> {
         }
         Ok(value)
     }
+}
+
+/// `quantity` in the unit the line named `name` shows in, when that works (same dimension and
+/// temperature rules).
+fn shown_like(quantity: Quantity, name: &str, scope: &dyn Scope, span: Span) -> Option<ShownValue> {
+    let Some(Some(line)) = scope.lookup(name) else {
+        return None;
+    };
+    let expression = crate::syntax::parse_unit(&line.unit).ok()?;
+    let unit = resolve_unit(&expression).ok()?;
+    show_in(quantity, &unit, &line.unit, span).ok()
 }
 
 /// Nesting of sheet-function calls beyond which a call is refused (recursion is refused at
