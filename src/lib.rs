@@ -9,5 +9,6 @@ pub mod eval;
 pub mod library;
 pub mod render;
 pub mod repl;
+pub mod suggest;
 pub mod syntax;
 pub mod units;

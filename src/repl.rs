@@ -443,12 +443,8 @@ impl Repl {
             }
             ":quit" => return Ok(Flow::Quit),
             _ => {
-                let closest = COMMANDS
-                    .iter()
-                    .map(|command| (strsim::jaro_winkler(name, command), *command))
-                    .filter(|(score, _)| *score > 0.7)
-                    .max_by(|left, right| left.0.total_cmp(&right.0))
-                    .map(|(_, command)| format!(" (did you mean `{command}`?)"))
+                let closest = crate::suggest::closest(name, COMMANDS.iter().copied(), 0.7)
+                    .map(|command| format!(" (did you mean `{command}`?)"))
                     .unwrap_or_default();
                 self.fail(
                     err,
@@ -658,12 +654,8 @@ impl Repl {
         if !found {
             let mut candidates: Vec<&str> = self.session.names();
             candidates.extend(self.library.names());
-            let closest = candidates
-                .into_iter()
-                .map(|candidate| (strsim::jaro_winkler(name, candidate), candidate))
-                .filter(|(score, _)| *score > 0.8)
-                .max_by(|left, right| left.0.total_cmp(&right.0))
-                .map(|(_, candidate)| format!(" (did you mean `{candidate}`?)"))
+            let closest = crate::suggest::closest(name, candidates, 0.8)
+                .map(|candidate| format!(" (did you mean `{candidate}`?)"))
                 .unwrap_or_default();
             self.fail(
                 err,

@@ -879,18 +879,14 @@ impl<'l> Calculator<'l> {
 
     /// The closest sheet or built-in name, for "did you mean".
     fn suggest(&self, name: &str, scope: &dyn Scope) -> Option<String> {
-        let mut best: Option<(f64, String)> = None;
-        let mut consider = |candidate: &str| {
-            let score = strsim::jaro_winkler(name, candidate);
-            if score > 0.8 && best.as_ref().is_none_or(|(top, _)| score >= *top) {
-                best = Some((score, candidate.to_string()));
-            }
-        };
-        scope.for_each_defined(&mut consider);
-        for candidate in self.library.names() {
-            consider(candidate);
-        }
-        best.map(|(_, candidate)| candidate)
+        let mut defined = Vec::new();
+        scope.for_each_defined(&mut |candidate| defined.push(candidate.to_string()));
+        let library_names = self.library.names();
+        let candidates = defined
+            .iter()
+            .map(String::as_str)
+            .chain(library_names.iter().copied());
+        crate::suggest::closest(name, candidates, 0.8).map(str::to_string)
     }
 
     fn unit(&mut self, expression: &UnitExpression) -> Result<Unit, EvalError> {
