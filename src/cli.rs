@@ -3,9 +3,9 @@
 //! code that reads files or writes to the terminal; everything else is handed writers.
 
 use crate::eval::warnings::deny_warnings;
-use crate::eval::{evaluate, Evaluation, LineResult};
+use crate::eval::{evaluate, Evaluation, LineResult, Shown};
 use crate::library::Builtins;
-use crate::render::json::{diagnostics_json, sheet_json, value_json, DiagnosticJson};
+use crate::render::json::{diagnostics_json, sheet_json, DiagnosticJson};
 use crate::render::{self, Format, RenderOptions};
 use crate::units::unit::{catalog_entries, prefixes};
 use crate::units::Dimension;
@@ -358,13 +358,19 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
                 writeln!(
                     out,
                     "{}",
-                    serde_json::to_string_pretty(&value_json(shown)).map_err(io::Error::other)?
+                    serde_json::to_string_pretty(&render::json::line_value_json(shown))
+                        .map_err(io::Error::other)?
                 )?;
             } else {
-                let value = render::format_significant(shown.value, options.digits);
-                match shown.unit.as_str() {
-                    "1" => writeln!(out, "{value}")?,
-                    unit => writeln!(out, "{value} {unit}")?,
+                match shown {
+                    Shown::Scalar(shown) => {
+                        let value = render::format_significant(shown.value, options.digits);
+                        match shown.unit.as_str() {
+                            "1" => writeln!(out, "{value}")?,
+                            unit => writeln!(out, "{value} {unit}")?,
+                        }
+                    }
+                    _ => render::table::write_sheet(out, &evaluation, options)?,
                 }
             }
             Ok(exit::OK)

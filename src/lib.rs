@@ -7,6 +7,7 @@
 pub mod cli;
 pub mod eval;
 pub mod library;
+pub mod numeric;
 pub mod render;
 pub mod repl;
 pub mod suggest;

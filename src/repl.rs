@@ -9,7 +9,7 @@
 mod complete;
 
 use crate::eval::session::{EntryReport, Outcome, Session, SessionLine, LAST_RESULT};
-use crate::eval::{CheckOutcome, Diagnostic, Library, LineResult, ShownValue};
+use crate::eval::{CheckOutcome, Diagnostic, Library, LineResult, Shown, ShownValue};
 use crate::library::Builtins;
 use crate::render::{format_significant, RenderOptions};
 use crate::units::unit::{catalog_entries, Unit};
@@ -306,7 +306,7 @@ impl Repl {
                 out.flush()?;
                 write_diagnostics(err, &report.text, &report.diagnostics, "")?;
             }
-            Outcome::Shown(value) => writeln!(out, "{}", self.quantity(value))?,
+            Outcome::Shown(value) => writeln!(out, "{}", self.shown(value))?,
             Outcome::Added(index) => {
                 if let Some(line) = self.session.line(*index) {
                     if let Some(text) = self.result_text(line) {
@@ -364,7 +364,7 @@ impl Repl {
             None => line.text().trim().to_string(),
         };
         match line.result() {
-            LineResult::Value(value) => Some(format!("{label} = {}", self.quantity(value))),
+            LineResult::Value(value) => Some(format!("{label} = {}", self.shown(value))),
             LineResult::Check(check) => Some(self.check_text(check)),
             LineResult::Skipped { because_of } if because_of.is_empty() => {
                 Some(format!("{label}: not evaluated"))
@@ -380,8 +380,40 @@ impl Repl {
             )),
             LineResult::Function { signature } => Some(format!("{signature}: function")),
             LineResult::Include { file } => Some(format!("include {file}")),
-            LineResult::Blank | LineResult::Comment | LineResult::Heading(_) => None,
+            LineResult::Blank
+            | LineResult::Comment
+            | LineResult::Heading(_)
+            | LineResult::Plot(_) => None,
         }
+    }
+
+    /// A line's value: one quantity, or a column's first rows and its length.
+    fn shown(&self, value: &Shown) -> String {
+        const SHOWN_ROWS: usize = 8;
+        let (items, unit, rows): (Vec<String>, &str, usize) = match value {
+            Shown::Scalar(value) => return self.quantity(value),
+            Shown::Column(column) => (
+                column
+                    .shown_values()
+                    .take(SHOWN_ROWS)
+                    .map(|item| format_significant(item, self.digits))
+                    .collect(),
+                &column.unit,
+                column.len(),
+            ),
+            Shown::Labels(labels) => (
+                labels.texts.iter().take(SHOWN_ROWS).cloned().collect(),
+                "1",
+                labels.texts.len(),
+            ),
+        };
+        let more = if rows > SHOWN_ROWS { ", …" } else { "" };
+        let unit = if unit == "1" {
+            String::new()
+        } else {
+            format!(" {unit}")
+        };
+        format!("{{{}{more}}}{unit} ({rows} rows)", items.join(", "))
     }
 
     fn quantity(&self, value: &ShownValue) -> String {
@@ -475,7 +507,8 @@ impl Repl {
         for (index, line) in lines.iter().enumerate() {
             let text = line.text();
             let result = match line.result() {
-                LineResult::Value(value) => self.quantity(value),
+                LineResult::Value(value) => self.shown(value),
+                LineResult::Plot(_) => "plot".to_string(),
                 LineResult::Check(check) => {
                     let text = self.check_text(check);
                     text.strip_prefix("check ").unwrap_or(&text).to_string()
@@ -568,7 +601,7 @@ impl Repl {
         if let Some(line) = self.session.definition(name) {
             found = true;
             match line.value() {
-                Some(value) => writeln!(out, "{name} = {}", self.quantity(value))?,
+                Some(value) => writeln!(out, "{name} = {}", self.shown(value))?,
                 None => writeln!(out, "{name}: no value")?,
             }
             writeln!(out, "  defined in the session: {}", line.text())?;
@@ -583,7 +616,7 @@ impl Repl {
         if name == LAST_RESULT && !found {
             found = true;
             match self.session.last_result() {
-                Some(value) => writeln!(out, "_ = {} (the last result)", self.quantity(value))?,
+                Some(value) => writeln!(out, "_ = {} (the last result)", self.shown(value))?,
                 None => writeln!(out, "_ holds the last result; there is none yet")?,
             }
         }

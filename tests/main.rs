@@ -16,6 +16,7 @@ mod checker;
 mod cli;
 mod errors;
 mod includes;
+mod plot;
 mod properties;
 mod reference;
 mod repl;

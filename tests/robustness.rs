@@ -29,8 +29,14 @@ proptest! {
         let text: String = tokens.concat();
         let evaluation = evaluate_sheet(&text, Builtins::standard());
         for line in &evaluation.lines {
-            if let fluxsheet::eval::LineResult::Value(shown) = &line.result {
-                prop_assert!(shown.value.is_finite() && shown.quantity.value.is_finite());
+            match &line.result {
+                fluxsheet::eval::LineResult::Value(fluxsheet::eval::Shown::Scalar(shown)) => {
+                    prop_assert!(shown.value.is_finite() && shown.quantity.value.is_finite());
+                }
+                fluxsheet::eval::LineResult::Value(fluxsheet::eval::Shown::Column(shown)) => {
+                    prop_assert!(shown.shown_values().all(f64::is_finite));
+                }
+                _ => {}
             }
         }
     }

@@ -11,7 +11,9 @@ use std::path::Path;
 pub struct EarlierValue {
     pub name: String,
     pub line: u64,
-    pub si_value: f64,
+    /// One number for a single value, every row for a column.
+    pub si_values: Vec<f64>,
+    pub is_column: bool,
     pub si_unit: String,
 }
 
@@ -34,6 +36,8 @@ pub struct Moved {
     pub name: String,
     /// The line now, or the earlier line when it is gone.
     pub line: u64,
+    /// For a column: the row (1-based) that moved most, which the values are from.
+    pub row: Option<usize>,
     pub old_si_value: f64,
     pub old_si_unit: String,
     /// `None` when the line is no longer computed.
@@ -115,10 +119,21 @@ fn sheet_of(object: &Value) -> Option<EarlierSheet> {
             Value::Null => continue,
             name => name.as_str()?.to_string(),
         };
+        let (si_values, is_column) = match line.get("si_value")? {
+            Value::Array(items) => (
+                items
+                    .iter()
+                    .map(Value::as_f64)
+                    .collect::<Option<Vec<f64>>>()?,
+                true,
+            ),
+            number => (vec![number.as_f64()?], false),
+        };
         values.push(EarlierValue {
             name,
             line: line.get("line")?.as_u64()?,
-            si_value: line.get("si_value")?.as_f64()?,
+            si_values,
+            is_column,
             si_unit: line.get("si_unit")?.as_str()?.to_string(),
         });
     }
@@ -134,15 +149,28 @@ pub fn compare(earlier: &EarlierSheet, evaluation: &Evaluation, tolerance: f64) 
             .lines
             .iter()
             .find(|line| line.name.as_deref() == Some(old.name.as_str()));
+        let old_first = old.si_values.first().copied().unwrap_or(f64::NAN);
         let value = now.and_then(|line| match &line.result {
-            LineResult::Value(shown) => Some((line.number as u64, shown)),
+            LineResult::Value(shown) => match (shown.value(), old.is_column) {
+                (crate::eval::Value::Scalar(quantity), false) => {
+                    Some((line.number as u64, vec![quantity.value], quantity.dimension))
+                }
+                (crate::eval::Value::Column(column), true)
+                    if column.len() == old.si_values.len() =>
+                {
+                    Some((line.number as u64, column.values.to_vec(), column.dimension))
+                }
+                _ => None,
+            },
             _ => None,
         });
-        let Some((line, shown)) = value else {
+        let Some((line, new_values, dimension)) = value else {
+            // Gone, failed, or no longer the same shape (scalar against column, other length).
             moved.push(Moved {
                 name: old.name.clone(),
                 line: now.map_or(old.line, |line| line.number as u64),
-                old_si_value: old.si_value,
+                row: None,
+                old_si_value: old_first,
                 old_si_unit: old.si_unit.clone(),
                 new_si_value: None,
                 new_si_unit: None,
@@ -150,17 +178,32 @@ pub fn compare(earlier: &EarlierSheet, evaluation: &Evaluation, tolerance: f64) 
             });
             continue;
         };
-        let new_value = shown.quantity.value;
-        let new_unit = shown.quantity.dimension.si_unit_text();
-        let relative = relative_change(old.si_value, new_value);
+        let new_unit = dimension.si_unit_text();
+        let (row, relative) = old
+            .si_values
+            .iter()
+            .zip(&new_values)
+            .map(|(old, new)| relative_change(*old, *new))
+            .enumerate()
+            .fold(
+                (0, 0.0),
+                |most, (row, change)| {
+                    if change > most.1 {
+                        (row, change)
+                    } else {
+                        most
+                    }
+                },
+            );
         let same_unit = new_unit == old.si_unit;
         if !same_unit || relative > tolerance {
             moved.push(Moved {
                 name: old.name.clone(),
                 line,
-                old_si_value: old.si_value,
+                row: old.is_column.then_some(row + 1),
+                old_si_value: old.si_values[row],
                 old_si_unit: old.si_unit.clone(),
-                new_si_value: Some(new_value),
+                new_si_value: Some(new_values[row]),
                 new_si_unit: Some(new_unit),
                 relative_change: same_unit.then_some(relative),
             });

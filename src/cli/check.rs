@@ -361,11 +361,15 @@ fn write_text(
     }
     for moved in &report.moved {
         let old = exact(moved.old_si_value);
+        let in_row = moved
+            .row
+            .map(|row| format!(" in row {row}"))
+            .unwrap_or_default();
         let old_unit = &moved.old_si_unit;
         match (moved.new_si_value, &moved.new_si_unit, moved.relative_change) {
             (Some(new), _, Some(relative)) => writeln!(
                 out,
-                "{label}:{}: `{}` moved: {old} -> {} {old_unit} (relative change {relative:.3e} > {tolerance:e})",
+                "{label}:{}: `{}` moved{in_row}: {old} -> {} {old_unit} (relative change {relative:.3e} > {tolerance:e})",
                 moved.line,
                 moved.name,
                 exact(new)
@@ -480,6 +484,8 @@ struct SheetCheckJson {
 struct MovedJson {
     name: String,
     line: u64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    row: Option<usize>,
     old_si_value: f64,
     old_si_unit: String,
     new_si_value: Option<f64>,
@@ -502,6 +508,7 @@ fn sheet_json(report: &SheetReport) -> SheetCheckJson {
                         left: value_json(&check.left),
                         right: value_json(&check.right),
                         message: check.message.clone(),
+                        rows: None,
                     });
                 }
             }
@@ -526,6 +533,7 @@ fn sheet_json(report: &SheetReport) -> SheetCheckJson {
                 .map(|moved| MovedJson {
                     name: moved.name.clone(),
                     line: moved.line,
+                    row: moved.row,
                     old_si_value: moved.old_si_value,
                     old_si_unit: moved.old_si_unit.clone(),
                     new_si_value: moved.new_si_value,

@@ -143,7 +143,7 @@ fn quantity(text: &str, option: &str) -> Result<Quantity, String> {
         return Err(format!("{option} `{text}`: {}", diagnostic.message));
     }
     match evaluation.lines.first().map(|line| &line.result) {
-        Some(LineResult::Value(shown)) => Ok(shown.quantity),
+        Some(LineResult::Value(crate::eval::Shown::Scalar(shown))) => Ok(shown.quantity),
         _ => Err(format!("{option} needs a value with a unit, e.g. `20degC`")),
     }
 }

@@ -14,6 +14,8 @@ pub struct EvalError {
     pub span: Span,
     /// Other places worth showing: a function's definition for an error in a call.
     pub labels: Vec<(Span, String)>,
+    /// The row of a column the error happened in: 1-based row and the column's origin line.
+    pub row: Option<(usize, String)>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -105,6 +107,42 @@ pub enum EvalErrorKind {
     IncludeCycle {
         chain: Vec<String>,
     },
+    /// Two columns of different lengths in one operation.
+    ColumnLengths {
+        left_rows: usize,
+        left_origin: String,
+        right_rows: usize,
+        right_origin: String,
+    },
+    /// A text column (sample names) used as a number.
+    TextInArithmetic {
+        origin: String,
+    },
+    /// A column where one value is needed (a range's end, an exponent with a unit, ...).
+    ScalarNeeded {
+        what: &'static str,
+    },
+    BadRange {
+        message: String,
+    },
+    TooManyRows {
+        rows: f64,
+        limit: usize,
+    },
+    /// A data file that cannot be read, or a bad cell in it.
+    DataFile {
+        message: String,
+    },
+    Solve {
+        message: String,
+    },
+    /// A `--set` override that names no input line, or has the wrong dimension.
+    Override {
+        message: String,
+    },
+    Plot {
+        message: String,
+    },
 }
 
 /// The operation that found two dimensions at odds.
@@ -121,7 +159,16 @@ impl EvalError {
             kind: Box::new(kind),
             span,
             labels: Vec::new(),
+            row: None,
         }
+    }
+
+    /// Marks the error as happening in row `row` (0-based) of the column from `origin`.
+    pub fn in_row(mut self, row: usize, origin: &str) -> EvalError {
+        if self.row.is_none() {
+            self.row = Some((row + 1, origin.to_string()));
+        }
+        self
     }
 
     pub fn with_label(mut self, span: Span, message: impl Into<String>) -> EvalError {
@@ -183,7 +230,17 @@ fn with_unit(dimension: &Dimension) -> String {
 
 impl fmt::Display for EvalError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
-        match self.kind.as_ref() {
+        self.kind.fmt(formatter)?;
+        match &self.row {
+            Some((row, origin)) => write!(formatter, " (in row {row} of `{origin}`)"),
+            None => Ok(()),
+        }
+    }
+}
+
+impl fmt::Display for EvalErrorKind {
+    fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
             EvalErrorKind::UnknownName { name, .. } => write!(formatter, "unknown name `{name}`"),
             EvalErrorKind::UnknownFunction { name, .. } => write!(formatter, "unknown function `{name}`"),
             EvalErrorKind::FunctionUsedAsValue { name } => {
@@ -265,6 +322,23 @@ impl fmt::Display for EvalError {
                 formatter,
                 "include cycle: {}",
                 chain.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" includes ")
+            ),
+            EvalErrorKind::ColumnLengths { left_rows, left_origin, right_rows, right_origin } => write!(
+                formatter,
+                "columns of different lengths: {left_rows} rows (from `{left_origin}`) and {right_rows} rows (from `{right_origin}`)"
+            ),
+            EvalErrorKind::TextInArithmetic { origin } => {
+                write!(formatter, "`{origin}` is a column of text; only numbers take part in calculations")
+            }
+            EvalErrorKind::ScalarNeeded { what } => write!(formatter, "{what} must be a single value, not a column"),
+            EvalErrorKind::BadRange { message }
+            | EvalErrorKind::DataFile { message }
+            | EvalErrorKind::Solve { message }
+            | EvalErrorKind::Override { message }
+            | EvalErrorKind::Plot { message } => formatter.write_str(message),
+            EvalErrorKind::TooManyRows { rows, limit } => write!(
+                formatter,
+                "a column of {rows} rows is longer than the limit of {limit} rows (raise it with `--max-rows`)"
             ),
         }
     }

@@ -4,18 +4,20 @@
 //! cause is already reported), and every other line still evaluates. Nothing here panics on
 //! user input or prints: the result is a value the front ends render.
 
+use super::data::DataTable;
 use super::diagnostic::Diagnostic;
 use super::error::{EvalError, EvalErrorKind, Operation};
 use super::function::{CallError, Library, Provenance};
 use super::order::dependency_order;
 use super::sources::{IncludeLoader, NoIncludes, SourceMap};
-use super::value::{Quantity, TemperatureKind};
+use super::value::{Column, Labels, Quantity, TemperatureKind, Value};
 use crate::syntax::{
-    parse_sheet_at, BinaryOperator, Check, Comparison, Expression, ExpressionKind,
+    parse_sheet_at, BinaryOperator, Check, Comparison, Definition, Expression, ExpressionKind,
     FunctionDefinition, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
-use crate::units::{Exponent, TemperatureRole, Unit, UnitError};
+use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
 use rustc_hash::FxHashMap as HashMap;
+use std::sync::Arc;
 
 /// Relative tolerance of `==` and `!=` checks written without `within`.
 pub const DEFAULT_EQUALITY_TOLERANCE: f64 = 1e-9;
@@ -41,7 +43,7 @@ pub struct CallRecord {
     /// The whole call.
     pub span: Span,
     /// Each argument's span and value.
-    pub arguments: Vec<(Span, Quantity)>,
+    pub arguments: Vec<(Span, Value)>,
 }
 
 impl Evaluation {
@@ -68,6 +70,8 @@ pub struct LineOutcome {
     pub expression: String,
     pub comment: Option<String>,
     pub result: LineResult,
+    /// How the value was found, where that is worth saying (a solve's iterations).
+    pub note: Option<String>,
 }
 
 #[derive(Debug, Clone)]
@@ -75,7 +79,7 @@ pub enum LineResult {
     Blank,
     Comment,
     Heading(String),
-    Value(ShownValue),
+    Value(Shown),
     /// Boxed: a check outcome is the largest result and the rarest.
     Check(Box<CheckOutcome>),
     /// The line has an error of its own (reported in the diagnostics).
@@ -92,9 +96,115 @@ pub enum LineResult {
     Include {
         file: String,
     },
+    /// A plot line's data, ready to draw.
+    Plot(Box<PlotOutcome>),
 }
 
-/// A value with the unit it is shown in.
+/// The data of a `plot` line: columns in display units, with axis labels that carry them.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PlotOutcome {
+    pub title: Option<String>,
+    /// `T_site [degC]`
+    pub x_label: String,
+    /// `K_site [m/s]`, or the unit alone under several series: `[m/s]`
+    pub y_label: String,
+    pub x: Vec<f64>,
+    /// Each series' name and values, all in the first series' unit.
+    pub series: Vec<(String, Vec<f64>)>,
+    pub log_x: bool,
+    pub log_y: bool,
+}
+
+/// A line's value with the unit it is shown in.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Shown {
+    Scalar(ShownValue),
+    Column(ShownColumn),
+    /// A column of text (sample names) from a data file.
+    Labels(Labels),
+}
+
+/// A column with the unit it is shown in. The numbers are converted when read, so showing a
+/// column of a million rows costs no second copy.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ShownColumn {
+    pub column: Column,
+    /// Display unit as written, or the preferred SI unit.
+    pub unit: String,
+    /// The unit's conversion; `None` for SI.
+    conversion: Option<Unit>,
+}
+
+impl ShownColumn {
+    pub fn len(&self) -> usize {
+        self.column.len()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.column.is_empty()
+    }
+
+    /// Row `row` (0-based) in the display unit.
+    pub fn shown(&self, row: usize) -> f64 {
+        let value = self.column.values[row];
+        match &self.conversion {
+            Some(unit) => unit.from_si(value),
+            None => value,
+        }
+    }
+
+    /// Every row in the display unit.
+    pub fn shown_values(&self) -> impl Iterator<Item = f64> + '_ {
+        (0..self.len()).map(|row| self.shown(row))
+    }
+
+    /// Row `row` as a scalar shown value.
+    pub fn row(&self, row: usize) -> ShownValue {
+        ShownValue {
+            quantity: self.column.quantity(row),
+            unit: self.unit.clone(),
+            value: self.shown(row),
+        }
+    }
+}
+
+impl Shown {
+    /// The value in SI.
+    pub fn value(&self) -> Value {
+        match self {
+            Shown::Scalar(shown) => Value::Scalar(shown.quantity),
+            Shown::Column(shown) => Value::Column(shown.column.clone()),
+            Shown::Labels(labels) => Value::Labels(labels.clone()),
+        }
+    }
+
+    pub fn as_scalar(&self) -> Option<&ShownValue> {
+        match self {
+            Shown::Scalar(shown) => Some(shown),
+            _ => None,
+        }
+    }
+
+    /// The unit it is shown in (empty for text).
+    pub fn unit(&self) -> &str {
+        match self {
+            Shown::Scalar(shown) => &shown.unit,
+            Shown::Column(shown) => &shown.unit,
+            Shown::Labels(_) => "",
+        }
+    }
+
+    /// The number of rows: `None` for a scalar.
+    pub fn rows(&self) -> Option<usize> {
+        match self {
+            Shown::Scalar(_) => None,
+            Shown::Column(shown) => Some(shown.len()),
+            Shown::Labels(labels) => Some(labels.texts.len()),
+        }
+    }
+}
+
+/// A single value with the unit it is shown in.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ShownValue {
     pub quantity: Quantity,
@@ -113,6 +223,17 @@ pub struct CheckOutcome {
     /// The tolerance as written (`1 %`), when given.
     pub tolerance: Option<String>,
     pub message: Option<String>,
+    /// For a check over columns: how many rows, how many failed, and which row `left` and
+    /// `right` show (the first that failed, or the closest to failing).
+    pub rows: Option<CheckRows>,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CheckRows {
+    pub total: usize,
+    pub failed: usize,
+    /// 1-based.
+    pub shown_row: usize,
 }
 
 /// Evaluates a sheet that has no file behind it (includes are refused).
@@ -240,7 +361,7 @@ impl Loaded {
 #[derive(Debug, Clone)]
 enum Slot {
     Pending,
-    Ready(ShownValue),
+    Ready(Shown),
     /// Failed or skipped.
     Failed,
 }
@@ -263,7 +384,9 @@ impl From<EvalError> for Failure {
 pub(crate) trait Scope {
     /// `None` if no line defines `name`; `Some(None)` if one does but it has no value (it failed
     /// or is not evaluated yet).
-    fn lookup(&self, name: &str) -> Option<Option<&ShownValue>>;
+    fn lookup(&self, name: &str) -> Option<Option<&Shown>>;
+    /// The definition of a named line, for a solve that re-evaluates it.
+    fn definition(&self, name: &str) -> Option<&Definition>;
     /// Every defined name, for "did you mean".
     fn for_each_defined(&self, visit: &mut dyn FnMut(&str));
     /// A function defined by the sheet: `Some(None)` if it exists but was refused.
@@ -283,7 +406,14 @@ struct SheetScope<'s, 'a> {
 }
 
 impl Scope for SheetScope<'_, '_> {
-    fn lookup(&self, name: &str) -> Option<Option<&ShownValue>> {
+    fn definition(&self, name: &str) -> Option<&Definition> {
+        match &self.lines[*self.definitions.get(name)?].kind {
+            LineKind::Definition(definition) => Some(definition),
+            _ => None,
+        }
+    }
+
+    fn lookup(&self, name: &str) -> Option<Option<&Shown>> {
         self.definitions
             .get(name)
             .map(|index| match &self.slots[*index] {
@@ -319,7 +449,13 @@ pub(crate) struct Calculator<'l> {
     pub(crate) calls: Vec<CallRecord>,
     unit_cache: HashMap<String, Unit>,
     /// Parameter values of the sheet functions being called, innermost last.
-    parameters: Vec<Vec<(String, Quantity)>>,
+    parameters: Vec<Vec<(String, Value)>>,
+    /// The longest column allowed.
+    pub(crate) max_rows: usize,
+    /// The data files the sheet reads, by the span of the path in each `column … from` line.
+    pub(crate) data_files: HashMap<usize, Result<Arc<DataTable>, EvalError>>,
+    /// Notes on how values were found (a solve's iterations), by expression span start.
+    pub(crate) notes: HashMap<usize, String>,
 }
 
 /// Builds the scope of a sheet from the evaluator's fields (a macro so that the calculator can
@@ -639,11 +775,15 @@ impl<'a> Evaluator<'a> {
                 Ok(outcome) => LineResult::Check(Box::new(outcome)),
                 Err(failure) => self.failure_result(failure),
             },
+            LineKind::Plot(plot) => match self.calculator.plot(plot, &sheet_scope!(self)) {
+                Ok(outcome) => LineResult::Plot(Box::new(outcome)),
+                Err(failure) => self.failure_result(failure),
+            },
         };
         self.results[index] = Some(result);
     }
 
-    fn settle(&mut self, index: usize, outcome: Result<ShownValue, Failure>) {
+    fn settle(&mut self, index: usize, outcome: Result<Shown, Failure>) {
         match outcome {
             Ok(shown) => {
                 self.slots[index] = Slot::Ready(shown.clone());
@@ -669,6 +809,7 @@ impl<'a> Evaluator<'a> {
 
     fn finish(self, main_lines: usize) -> Evaluation {
         let sources = self.sources;
+        let notes = &self.calculator.notes;
         let lines = self
             .lines
             .iter()
@@ -685,9 +826,10 @@ impl<'a> Evaluator<'a> {
                         Some(function.name.text.clone()),
                         text_of(sources, function.body.span),
                     ),
-                    LineKind::Check(_) | LineKind::Invalid | LineKind::Include(_) => {
-                        (None, text_of(sources, line.span).trim().to_string())
-                    }
+                    LineKind::Check(_)
+                    | LineKind::Invalid
+                    | LineKind::Include(_)
+                    | LineKind::Plot(_) => (None, text_of(sources, line.span).trim().to_string()),
                     _ => (None, String::new()),
                 };
                 LineOutcome {
@@ -696,6 +838,12 @@ impl<'a> Evaluator<'a> {
                     expression,
                     comment: line.comment.clone(),
                     result: result.unwrap_or(LineResult::Error),
+                    note: match &line.kind {
+                        LineKind::Definition(definition) => {
+                            notes.get(&definition.expression.span.start).cloned()
+                        }
+                        _ => None,
+                    },
                 }
             })
             .collect();
@@ -719,6 +867,9 @@ impl<'l> Calculator<'l> {
             calls: Vec::new(),
             unit_cache: HashMap::default(),
             parameters: Vec::new(),
+            max_rows: super::columns::DEFAULT_MAX_ROWS,
+            data_files: HashMap::default(),
+            notes: HashMap::default(),
         }
     }
 
@@ -728,12 +879,16 @@ impl<'l> Calculator<'l> {
         &mut self,
         expression: &Expression,
         scope: &dyn Scope,
-    ) -> Result<Quantity, Failure> {
+    ) -> Result<Value, Failure> {
         let span = expression.span;
-        let quantity = match &expression.kind {
+        let value = match &expression.kind {
             ExpressionKind::Quantity { digits, unit } => {
-                self.literal(digits, unit.as_ref(), span)?
+                Value::Scalar(self.literal(digits, unit.as_ref(), span)?)
             }
+            ExpressionKind::List { items, unit } => self.list(items, unit.as_ref(), span)?,
+            ExpressionKind::Range(range) => self.range(range, span, scope)?,
+            ExpressionKind::FileColumn { header, .. } => self.file_column(header, span)?,
+            ExpressionKind::Solve(solve) => self.solve(solve, span, scope)?,
             ExpressionKind::Name(name) => self.name(name, span, scope)?,
             ExpressionKind::Call {
                 function,
@@ -744,67 +899,10 @@ impl<'l> Calculator<'l> {
             ExpressionKind::Call {
                 function,
                 arguments,
-            } => {
-                let Some(callee) = self.library.function(&function.text) else {
-                    let kind = if scope.lookup(&function.text).is_some()
-                        || self.library.constant(&function.text).is_some()
-                    {
-                        EvalErrorKind::NameCalledAsFunction {
-                            name: function.text.clone(),
-                        }
-                    } else {
-                        EvalErrorKind::UnknownFunction {
-                            name: function.text.clone(),
-                            suggestion: self.suggest(&function.text, scope),
-                        }
-                    };
-                    return Err(EvalError::new(kind, function.span).into());
-                };
-                let mut values = Vec::with_capacity(arguments.len());
-                for argument in arguments {
-                    values.push(self.expression(argument, scope)?);
-                }
-                self.calls.push(CallRecord {
-                    function: function.text.clone(),
-                    span,
-                    arguments: arguments
-                        .iter()
-                        .map(|argument| argument.span)
-                        .zip(values.iter().copied())
-                        .collect(),
-                });
-                callee
-                    .call(&values, &mut self.provenance)
-                    .map_err(|error| {
-                        let at = match &error {
-                            CallError::WrongDimension { argument, .. } => Some(*argument),
-                            CallError::Domain { argument, .. }
-                            | CallError::OutOfRange { argument, .. } => *argument,
-                            CallError::ArgumentCount { .. } => None,
-                        };
-                        let error_span = at
-                            .and_then(|index| arguments.get(index))
-                            .map_or(span, |argument| argument.span);
-                        EvalError::new(
-                            EvalErrorKind::Call {
-                                function: function.text.clone(),
-                                error,
-                            },
-                            error_span,
-                        )
-                    })?
-            }
+            } => self.call_builtin(function, arguments, span, scope)?,
             ExpressionKind::Negate(inner) => {
                 let value = self.expression(inner, scope)?;
-                let temperature = match value.temperature {
-                    TemperatureKind::Difference => TemperatureKind::Difference,
-                    _ => TemperatureKind::Unspecified,
-                };
-                Quantity {
-                    value: -value.value,
-                    temperature,
-                    ..value
-                }
+                super::columns::negate(value, span)?
             }
             ExpressionKind::Binary {
                 operator,
@@ -813,13 +911,192 @@ impl<'l> Calculator<'l> {
             } => {
                 let left_value = self.expression(left, scope)?;
                 let right_value = self.expression(right, scope)?;
-                binary(*operator, left_value, right_value, span, right.span)?
+                super::columns::combine(*operator, &left_value, &right_value, span, right.span)?
             }
         };
-        if !quantity.value.is_finite() {
-            return Err(EvalError::new(EvalErrorKind::NotFinite, span).into());
+        if let Value::Scalar(quantity) = &value {
+            if !quantity.value.is_finite() {
+                return Err(EvalError::new(EvalErrorKind::NotFinite, span).into());
+            }
         }
-        Ok(quantity)
+        Ok(value)
+    }
+
+    /// An expression that must give one value (a range's ends, a tolerance, a bracket).
+    pub(crate) fn scalar(
+        &mut self,
+        expression: &Expression,
+        what: &'static str,
+        scope: &dyn Scope,
+    ) -> Result<Quantity, Failure> {
+        match self.expression(expression, scope)? {
+            Value::Scalar(quantity) => Ok(quantity),
+            _ => Err(EvalError::new(EvalErrorKind::ScalarNeeded { what }, expression.span).into()),
+        }
+    }
+
+    /// A call of a built-in: whole-column functions get the values as they are; others are
+    /// applied row by row, with the dimensions checked on the first row only.
+    fn call_builtin(
+        &mut self,
+        function: &crate::syntax::Name,
+        arguments: &[Expression],
+        span: Span,
+        scope: &dyn Scope,
+    ) -> Result<Value, Failure> {
+        let Some(callee) = self.library.function(&function.text) else {
+            let kind = if scope.lookup(&function.text).is_some()
+                || self.library.constant(&function.text).is_some()
+            {
+                EvalErrorKind::NameCalledAsFunction {
+                    name: function.text.clone(),
+                }
+            } else {
+                EvalErrorKind::UnknownFunction {
+                    name: function.text.clone(),
+                    suggestion: self.suggest(&function.text, scope),
+                }
+            };
+            return Err(EvalError::new(kind, function.span).into());
+        };
+        let mut values = Vec::with_capacity(arguments.len());
+        for argument in arguments {
+            values.push(self.expression(argument, scope)?);
+        }
+        self.calls.push(CallRecord {
+            function: function.text.clone(),
+            span,
+            arguments: arguments
+                .iter()
+                .map(|argument| argument.span)
+                .zip(values.iter().cloned())
+                .collect(),
+        });
+        let call_error = |error: CallError| {
+            let at = match &error {
+                CallError::WrongDimension { argument, .. } => Some(*argument),
+                CallError::Domain { argument, .. } | CallError::OutOfRange { argument, .. } => {
+                    *argument
+                }
+                CallError::ArgumentCount { .. } => None,
+            };
+            let error_span = at
+                .and_then(|index| arguments.get(index))
+                .map_or(span, |argument| argument.span);
+            EvalError::new(
+                EvalErrorKind::Call {
+                    function: function.text.clone(),
+                    error,
+                },
+                error_span,
+            )
+        };
+        if let Some(result) = callee.call_values(&values, &mut self.provenance) {
+            return result.map_err(|error| call_error(error).into());
+        }
+        let mut rows = None;
+        let mut first_column = 0;
+        for (index, value) in values.iter().enumerate() {
+            if let Value::Labels(labels) = value {
+                let kind = EvalErrorKind::TextInArithmetic {
+                    origin: labels.origin.to_string(),
+                };
+                return Err(EvalError::new(kind, arguments[index].span).into());
+            }
+            if let Some(length) = value.rows() {
+                match rows {
+                    None => (rows, first_column) = (Some(length), index),
+                    Some(earlier) if earlier != length => {
+                        let kind = EvalErrorKind::ColumnLengths {
+                            left_rows: earlier,
+                            left_origin: super::columns::origin(&values[first_column]).to_string(),
+                            right_rows: length,
+                            right_origin: super::columns::origin(value).to_string(),
+                        };
+                        return Err(EvalError::new(kind, arguments[index].span)
+                            .with_label(arguments[first_column].span, format!("{earlier} rows"))
+                            .into());
+                    }
+                    Some(_) => {}
+                }
+            }
+        }
+        let first_row: Vec<Quantity> = values
+            .iter()
+            .map(|value| {
+                value
+                    .quantity_at(0)
+                    .unwrap_or(Quantity::dimensionless(f64::NAN))
+            })
+            .collect();
+        let Some(rows) = rows else {
+            return callee
+                .call(&first_row, &mut self.provenance)
+                .map(Value::Scalar)
+                .map_err(|error| call_error(error).into());
+        };
+        let origin: Arc<str> = Arc::from(super::columns::origin(&values[first_column]));
+        if rows == 0 {
+            return Err(EvalError::new(
+                EvalErrorKind::BadRange {
+                    message: "a column with no rows".to_string(),
+                },
+                span,
+            )
+            .into());
+        }
+        let shape = callee
+            .call(&first_row, &mut self.provenance)
+            .map_err(|error| call_error(error).in_row(0, &origin))?;
+        let columns: Vec<super::columns::Rows> =
+            values.iter().map(super::columns::Rows::of).collect();
+        let mut results = Vec::with_capacity(rows);
+        results.push(shape.value);
+        let mut row_values = first_row;
+        let failed = if let Some(kernel) = callee.row_kernel(&row_values) {
+            let mut numbers: Vec<f64> = row_values.iter().map(|quantity| quantity.value).collect();
+            (1..rows).find_map(|row| {
+                for (number, column) in numbers.iter_mut().zip(&columns) {
+                    *number = column.at(row);
+                }
+                match kernel(&numbers) {
+                    Ok(value) if value.is_finite() => {
+                        results.push(value);
+                        None
+                    }
+                    Ok(_) => Some((row, None)),
+                    Err(error) => Some((row, Some(error))),
+                }
+            })
+        } else {
+            let provenance = &mut self.provenance;
+            (1..rows).find_map(|row| {
+                for (quantity, column) in row_values.iter_mut().zip(&columns) {
+                    quantity.value = column.at(row);
+                }
+                match callee.call(&row_values, provenance) {
+                    Ok(value) if value.value.is_finite() => {
+                        results.push(value.value);
+                        None
+                    }
+                    Ok(_) => Some((row, None)),
+                    Err(error) => Some((row, Some(error))),
+                }
+            })
+        };
+        if let Some((row, error)) = failed {
+            let error = match error {
+                Some(error) => call_error(error),
+                None => EvalError::new(EvalErrorKind::NotFinite, span),
+            };
+            return Err(error.in_row(row, &origin).into());
+        }
+        Ok(Value::Column(Column {
+            values: Arc::new(results),
+            dimension: shape.dimension,
+            temperature: shape.temperature,
+            origin,
+        }))
     }
 
     fn literal(
@@ -849,20 +1126,165 @@ impl<'l> Calculator<'l> {
         })
     }
 
-    fn name(&mut self, name: &str, span: Span, scope: &dyn Scope) -> Result<Quantity, Failure> {
+    /// `{12, 40, 150} mD`: each number converted exactly, like a literal.
+    fn list(
+        &mut self,
+        items: &[String],
+        unit: Option<&UnitExpression>,
+        span: Span,
+    ) -> Result<Value, Failure> {
+        let mut values = Vec::with_capacity(items.len());
+        let mut shape = Quantity::dimensionless(0.0);
+        for item in items {
+            let digits = item.trim_start_matches('+');
+            shape = self.literal(digits, unit, span)?;
+            values.push(shape.value);
+        }
+        Ok(Value::Column(Column {
+            values: Arc::new(values),
+            dimension: shape.dimension,
+            temperature: shape.temperature,
+            origin: Arc::from(""),
+        }))
+    }
+
+    /// `from to to step s` or `from to to count n [log]`.
+    fn range(
+        &mut self,
+        range: &crate::syntax::Range,
+        span: Span,
+        scope: &dyn Scope,
+    ) -> Result<Value, Failure> {
+        use super::columns::{check_rows, spaced, stepped};
+        use crate::syntax::Spacing;
+        let from = self.scalar(&range.from, "the start of a range", scope)?;
+        let to = self.scalar(&range.to, "the end of a range", scope)?;
+        let bad = |message: String, at: Span| -> Failure {
+            EvalError::new(EvalErrorKind::BadRange { message }, at).into()
+        };
+        if from.dimension != to.dimension {
+            return Err(EvalError::new(
+                EvalErrorKind::DimensionMismatch {
+                    operation: Operation::Compare,
+                    left: from.dimension,
+                    right: to.dimension,
+                },
+                range.from.span.to(range.to.span),
+            )
+            .into());
+        }
+        let values = match &range.spacing {
+            Spacing::Step(step_expression) => {
+                let step = self.scalar(step_expression, "the step of a range", scope)?;
+                if step.dimension != from.dimension {
+                    return Err(bad(
+                        format!(
+                            "the step must have the dimension of the ends ({}), found {}",
+                            from.dimension, step.dimension
+                        ),
+                        step_expression.span,
+                    ));
+                }
+                if step.is_absolute_temperature() {
+                    return Err(bad(
+                        "a step is a temperature difference: write `5 K` or `5 delta_degC`"
+                            .to_string(),
+                        step_expression.span,
+                    ));
+                }
+                let span_of_range = to.value - from.value;
+                if step.value == 0.0
+                    || (span_of_range != 0.0 && step.value.signum() != span_of_range.signum())
+                {
+                    return Err(bad(
+                        "the step must be non-zero and go from the start towards the end"
+                            .to_string(),
+                        step_expression.span,
+                    ));
+                }
+                let steps = (span_of_range / step.value * (1.0 + 1e-12) + 1e-9).floor() + 1.0;
+                let rows = check_rows(steps, self.max_rows, span)?;
+                stepped(from.value, to.value, rows, step.value)
+            }
+            Spacing::Count { count, logarithmic } => {
+                let number = self.scalar(count, "the count of a range", scope)?;
+                if !number.dimension.is_dimensionless()
+                    || number.value.fract() != 0.0
+                    || number.value < 2.0
+                {
+                    return Err(bad(
+                        "the count must be a whole number of at least 2".to_string(),
+                        count.span,
+                    ));
+                }
+                let rows = check_rows(number.value, self.max_rows, count.span)?;
+                if *logarithmic && (from.value <= 0.0 || to.value <= 0.0) {
+                    return Err(bad(
+                        "a logarithmic range needs both ends above zero".to_string(),
+                        range.from.span.to(range.to.span),
+                    ));
+                }
+                spaced(from.value, to.value, rows, *logarithmic)
+            }
+        };
+        Ok(Value::Column(Column {
+            values: Arc::new(values),
+            dimension: from.dimension,
+            temperature: from.temperature,
+            origin: Arc::from(""),
+        }))
+    }
+
+    /// `column k from "file.csv"`: the file was read and checked when the sheet loaded.
+    fn file_column(&mut self, header: &crate::syntax::Name, span: Span) -> Result<Value, Failure> {
+        let table = match self.data_files.get(&span.start) {
+            Some(Ok(table)) => table.clone(),
+            Some(Err(error)) => return Err(error.clone().into()),
+            None => {
+                return Err(EvalError::new(
+                    EvalErrorKind::DataFile {
+                        message: "data files are read only in sheets run from a file".to_string(),
+                    },
+                    span,
+                )
+                .into())
+            }
+        };
+        table.column(&header.text).ok_or_else(|| {
+            let names: Vec<String> = table
+                .columns
+                .iter()
+                .map(|column| format!("`{}`", column.name))
+                .collect();
+            EvalError::new(
+                EvalErrorKind::DataFile {
+                    message: format!(
+                        "`{}` has no column `{}`; its columns are {}",
+                        table.label,
+                        header.text,
+                        names.join(", ")
+                    ),
+                },
+                header.span,
+            )
+            .into()
+        })
+    }
+
+    fn name(&mut self, name: &str, span: Span, scope: &dyn Scope) -> Result<Value, Failure> {
         if let Some(parameters) = self.parameters.last() {
             if let Some((_, value)) = parameters.iter().find(|(parameter, _)| parameter == name) {
-                return Ok(*value);
+                return Ok(value.clone());
             }
         }
         if let Some(slot) = scope.lookup(name) {
             return match slot {
-                Some(shown) => Ok(shown.quantity),
+                Some(shown) => Ok(shown.value()),
                 None => Err(Failure::Upstream(name.to_string())),
             };
         }
         if let Some(constant) = self.library.constant(name) {
-            return Ok(constant.quantity);
+            return Ok(Value::Scalar(constant.quantity));
         }
         let kind = if self.library.function(name).is_some() {
             EvalErrorKind::FunctionUsedAsValue {
@@ -905,51 +1327,42 @@ impl<'l> Calculator<'l> {
         expression: &Expression,
         declared: Option<&UnitExpression>,
         scope: &dyn Scope,
-    ) -> Result<ShownValue, Failure> {
-        let quantity = self.expression(expression, scope)?;
-        self.shown(quantity, declared, expression, scope)
+    ) -> Result<Shown, Failure> {
+        let value = self.expression(expression, scope)?;
+        self.shown(value, declared, expression, scope)
             .map_err(Failure::from)
     }
 
     /// Converts a value to its display unit: the declared one (checked), a literal's own unit,
-    /// or the preferred SI unit.
+    /// a bare name's line's unit, or the preferred SI unit.
     pub(crate) fn shown(
         &mut self,
-        quantity: Quantity,
+        value: Value,
         declared: Option<&UnitExpression>,
         expression: &Expression,
         scope: &dyn Scope,
-    ) -> Result<ShownValue, EvalError> {
-        let written = match (&expression.kind, declared) {
-            (_, Some(declared)) => Some(declared),
-            (
-                ExpressionKind::Quantity {
-                    unit: Some(unit), ..
-                },
-                None,
-            ) => Some(unit),
-            // A call of a sheet function that declares its result unit shows in that unit.
-            (ExpressionKind::Call { function, .. }, None) => scope
-                .sheet_function(&function.text)
-                .flatten()
-                .and_then(|definition| definition.result_unit.as_ref()),
+    ) -> Result<Shown, EvalError> {
+        if let Some(unit_expression) = written_unit(expression, declared, scope) {
+            let unit = self.unit(unit_expression)?;
+            return present(
+                value,
+                Some((&unit, &unit_expression.text)),
+                unit_expression.span,
+            );
+        }
+        // A bare name (`y = x`, or `x` alone) shows in the unit its own line shows in, and a
+        // solve's result in its unknown's.
+        let like = match &expression.kind {
+            ExpressionKind::Name(name) => Some(name),
+            ExpressionKind::Solve(solve) => Some(&solve.unknown.text),
             _ => None,
         };
-        let Some(unit_expression) = written else {
-            // A bare name (`y = x`, or `x` alone) shows in the unit its own line shows in.
-            if let ExpressionKind::Name(name) = &expression.kind {
-                if let Some(shown) = shown_like(quantity, name, scope, expression.span) {
-                    return Ok(shown);
-                }
+        if let Some(name) = like {
+            if let Some(shown) = shown_like(&value, name, scope, expression.span) {
+                return Ok(shown);
             }
-            return Ok(ShownValue {
-                quantity,
-                unit: quantity.dimension.preferred_si_unit(),
-                value: quantity.value,
-            });
-        };
-        let unit = self.unit(unit_expression)?;
-        show_in(quantity, &unit, &unit_expression.text, unit_expression.span)
+        }
+        present(value, None, expression.span)
     }
 
     /// The unit a check shows both sides in: the right side's if it has one of its own.
@@ -959,17 +1372,18 @@ impl<'l> Calculator<'l> {
         sides: [&Expression; 2],
         scope: &dyn Scope,
     ) -> Result<ShownValue, EvalError> {
+        let value = Value::Scalar(quantity);
         for side in sides {
-            match &side.kind {
-                ExpressionKind::Quantity { unit: Some(_), .. } => {
-                    return self.shown(quantity, None, side, scope)
+            let shown = match &side.kind {
+                ExpressionKind::Quantity { unit: Some(_), .. }
+                | ExpressionKind::List { unit: Some(_), .. } => {
+                    Some(self.shown(value.clone(), None, side, scope)?)
                 }
-                ExpressionKind::Name(name) => {
-                    if let Some(shown) = shown_like(quantity, name, scope, side.span) {
-                        return Ok(shown);
-                    }
-                }
-                _ => {}
+                ExpressionKind::Name(name) => shown_like(&value, name, scope, side.span),
+                _ => None,
+            };
+            if let Some(Shown::Scalar(shown)) = shown {
+                return Ok(shown);
             }
         }
         Ok(ShownValue {
@@ -979,7 +1393,8 @@ impl<'l> Calculator<'l> {
         })
     }
 
-    /// Decides a check line.
+    /// Decides a check line. Over columns, every row must pass; the outcome shows the first
+    /// row that failed, or the row closest to failing.
     pub(crate) fn check(
         &mut self,
         check: &Check,
@@ -987,38 +1402,38 @@ impl<'l> Calculator<'l> {
     ) -> Result<CheckOutcome, Failure> {
         let left = self.expression(&check.left, scope)?;
         let right = self.expression(&check.right, scope)?;
-        if left.dimension != right.dimension {
+        let both = check.left.span.to(check.right.span);
+        let rows = super::columns::common_rows(&left, &right, both)?;
+        let (left_dimension, right_dimension) = (left.dimension(), right.dimension());
+        if left_dimension != right_dimension {
             return Err(EvalError::new(
                 EvalErrorKind::DimensionMismatch {
                     operation: Operation::Compare,
-                    left: left.dimension,
-                    right: right.dimension,
+                    left: left_dimension.unwrap_or(Dimension::dimensionless()),
+                    right: right_dimension.unwrap_or(Dimension::dimensionless()),
                 },
-                check.left.span.to(check.right.span),
+                both,
             )
             .into());
         }
-        let allowance = match &check.tolerance {
-            None if matches!(check.comparison, Comparison::Equal | Comparison::NotEqual) => {
-                DEFAULT_EQUALITY_TOLERANCE * right.value.abs().max(left.value.abs())
-            }
-            None => 0.0,
+        let tolerance = match &check.tolerance {
+            None => None,
             Some(tolerance) => {
-                let value = self.expression(tolerance, scope)?;
+                let value = self.scalar(tolerance, "a tolerance", scope)?;
                 if value.value < 0.0 {
                     return Err(
                         EvalError::new(EvalErrorKind::NegativeTolerance, tolerance.span).into(),
                     );
                 }
                 if value.dimension.is_dimensionless() {
-                    value.value * right.value.abs()
-                } else if value.dimension == right.dimension {
-                    value.value
+                    Some((value.value, true))
+                } else if Some(value.dimension) == right_dimension {
+                    Some((value.value, false))
                 } else {
                     return Err(EvalError::new(
                         EvalErrorKind::ToleranceDimension {
                             found: value.dimension,
-                            sides: right.dimension,
+                            sides: right_dimension.unwrap_or(Dimension::dimensionless()),
                         },
                         tolerance.span,
                     )
@@ -1026,17 +1441,70 @@ impl<'l> Calculator<'l> {
                 }
             }
         };
-        let (l, r) = (left.value, right.value);
-        let passed = match check.comparison {
-            Comparison::Less => l < r + allowance,
-            Comparison::LessOrEqual => l <= r + allowance,
-            Comparison::Greater => l > r - allowance,
-            Comparison::GreaterOrEqual => l >= r - allowance,
-            Comparison::Equal => (l - r).abs() <= allowance,
-            Comparison::NotEqual => (l - r).abs() > allowance,
+        // How far row values are from failing: a check passes at a margin of zero or more
+        // (strict comparisons need more than zero).
+        let comparison = check.comparison;
+        let margin = |l: f64, r: f64| {
+            let allowance = match tolerance {
+                None if matches!(comparison, Comparison::Equal | Comparison::NotEqual) => {
+                    DEFAULT_EQUALITY_TOLERANCE * r.abs().max(l.abs())
+                }
+                None => 0.0,
+                Some((fraction, true)) => fraction * r.abs(),
+                Some((absolute, false)) => absolute,
+            };
+            match comparison {
+                Comparison::Less | Comparison::LessOrEqual => r + allowance - l,
+                Comparison::Greater | Comparison::GreaterOrEqual => l - (r - allowance),
+                Comparison::Equal => allowance - (l - r).abs(),
+                Comparison::NotEqual => (l - r).abs() - allowance,
+            }
         };
-        let right_shown = self.shown_for_check(right, [&check.right, &check.left], scope)?;
-        let left_shown = self.shown_for_check(left, [&check.right, &check.left], scope)?;
+        let passes = |margin: f64| match comparison {
+            Comparison::Less | Comparison::Greater | Comparison::NotEqual => margin > 0.0,
+            _ => margin >= 0.0,
+        };
+        let (a, b) = (
+            super::columns::Rows::of(&left),
+            super::columns::Rows::of(&right),
+        );
+        let (shown_row, summary) = match rows {
+            None => (0, None),
+            Some(total) => {
+                let mut failed = 0;
+                let mut first_failed = None;
+                let mut closest = (0, f64::INFINITY);
+                for row in 0..total {
+                    let row_margin = margin(a.at(row), b.at(row));
+                    if !passes(row_margin) {
+                        failed += 1;
+                        first_failed.get_or_insert(row);
+                    }
+                    if row_margin < closest.1 {
+                        closest = (row, row_margin);
+                    }
+                }
+                let shown_row = first_failed.unwrap_or(closest.0);
+                let summary = CheckRows {
+                    total,
+                    failed,
+                    shown_row: shown_row + 1,
+                };
+                (shown_row, Some(summary))
+            }
+        };
+        let passed = match summary {
+            Some(summary) => summary.failed == 0,
+            None => passes(margin(a.at(0), b.at(0))),
+        };
+        let sides = [&check.right, &check.left];
+        let (Some(left_row), Some(right_row)) =
+            (left.quantity_at(shown_row), right.quantity_at(shown_row))
+        else {
+            return Err(EvalError::new(EvalErrorKind::NotFinite, both).into());
+        };
+        let right_shown = self.shown_for_check(right_row, sides, scope)?;
+        let left_shown = self.shown_for_check(left_row, sides, scope)?;
         Ok(CheckOutcome {
             passed,
             comparison: check.comparison,
@@ -1044,6 +1512,117 @@ impl<'l> Calculator<'l> {
             right: right_shown,
             tolerance: check.tolerance_text.clone(),
             message: check.message.clone(),
+            rows: summary,
+        })
+    }
+
+    /// Gathers a plot line's columns: every series the length of the x column, all series of one
+    /// dimension (shown in the first series' unit).
+    pub(crate) fn plot(
+        &mut self,
+        plot: &crate::syntax::Plot,
+        scope: &dyn Scope,
+    ) -> Result<PlotOutcome, Failure> {
+        let column = |name: &crate::syntax::Name| -> Result<ShownColumn, Failure> {
+            match scope.lookup(&name.text) {
+                None => Err(EvalError::new(
+                    EvalErrorKind::UnknownName {
+                        name: name.text.clone(),
+                        suggestion: None,
+                    },
+                    name.span,
+                )
+                .into()),
+                Some(None) => Err(Failure::Upstream(name.text.clone())),
+                Some(Some(Shown::Column(column))) => Ok(column.clone()),
+                Some(Some(_)) => Err(EvalError::new(
+                    EvalErrorKind::Plot {
+                        message: format!(
+                            "`{}` is not a column of numbers; a plot draws columns",
+                            name.text
+                        ),
+                    },
+                    name.span,
+                )
+                .into()),
+            }
+        };
+        let x = column(&plot.against)?;
+        let mut series: Vec<(String, Vec<f64>)> = Vec::new();
+        let mut first: Option<(ShownColumn, Unit)> = None;
+        for name in &plot.series {
+            let shown = column(name)?;
+            if shown.len() != x.len() {
+                return Err(EvalError::new(
+                    EvalErrorKind::ColumnLengths {
+                        left_rows: shown.len(),
+                        left_origin: name.text.clone(),
+                        right_rows: x.len(),
+                        right_origin: plot.against.text.clone(),
+                    },
+                    name.span,
+                )
+                .into());
+            }
+            let values = match &first {
+                None => {
+                    let unit = crate::syntax::parse_unit(&shown.unit)
+                        .ok()
+                        .and_then(|expression| resolve_unit(&expression).ok())
+                        .unwrap_or_else(Unit::dimensionless);
+                    let values = shown.shown_values().collect();
+                    first = Some((shown, unit));
+                    values
+                }
+                Some((reference, unit)) => {
+                    if reference.column.dimension != shown.column.dimension {
+                        return Err(EvalError::new(
+                            EvalErrorKind::Plot {
+                                message: format!(
+                                    "`{}` is {} but `{}` is {}: series on one chart share a dimension",
+                                    name.text,
+                                    super::function::describe_dimension(&shown.column.dimension),
+                                    plot.series[0].text,
+                                    super::function::describe_dimension(&reference.column.dimension)
+                                ),
+                            },
+                            name.span,
+                        )
+                        .into());
+                    }
+                    if reference.unit == shown.unit {
+                        shown.shown_values().collect()
+                    } else {
+                        shown
+                            .column
+                            .values
+                            .iter()
+                            .map(|value| unit.from_si(*value))
+                            .collect()
+                    }
+                }
+            };
+            series.push((name.text.clone(), values));
+        }
+        let y_unit = first
+            .as_ref()
+            .map_or(String::new(), |(shown, _)| shown.unit.clone());
+        let with_unit = |name: &str, unit: &str| match unit {
+            "1" | "" => name.to_string(),
+            unit => format!("{name} [{unit}]"),
+        };
+        let y_label = match series.as_slice() {
+            [(name, _)] => with_unit(name, &y_unit),
+            _ => with_unit("", &y_unit).trim().to_string(),
+        };
+        Ok(PlotOutcome {
+            title: plot.title.clone(),
+            x_label: with_unit(&plot.against.text, &x.unit),
+            y_label,
+            x: x.shown_values().collect(),
+            series,
+            log_x: plot.log_x,
+            log_y: plot.log_y,
         })
     }
 
@@ -1078,7 +1657,7 @@ impl<'l> Calculator<'l> {
         arguments: &[Expression],
         span: Span,
         scope: &dyn Scope,
-    ) -> Result<Quantity, Failure> {
+    ) -> Result<Value, Failure> {
         let Some(Some(definition)) = scope.sheet_function(&name.text) else {
             return Err(Failure::Upstream(name.text.clone()));
         };
@@ -1097,12 +1676,12 @@ impl<'l> Calculator<'l> {
             let value = self.expression(argument, scope)?;
             if let Some(unit) = &parameter.unit {
                 let unit = self.unit(unit)?;
-                if unit.dimension != value.dimension {
+                if Some(unit.dimension) != value.dimension() {
                     let kind = EvalErrorKind::ParameterDimension {
                         function: name.text.clone(),
                         parameter: parameter.name.text.clone(),
                         expected: unit.dimension,
-                        found: value.dimension,
+                        found: value.dimension().unwrap_or(Dimension::dimensionless()),
                     };
                     let error = EvalError::new(kind, argument.span)
                         .with_label(parameter.name.span, "declared here");
@@ -1125,11 +1704,11 @@ impl<'l> Calculator<'l> {
         })?;
         if let Some(unit) = &definition.result_unit {
             let unit = self.unit(unit)?;
-            if unit.dimension != value.dimension {
+            if Some(unit.dimension) != value.dimension() {
                 let kind = EvalErrorKind::ResultDimension {
                     function: name.text.clone(),
                     expected: unit.dimension,
-                    found: value.dimension,
+                    found: value.dimension().unwrap_or(Dimension::dimensionless()),
                 };
                 return Err(EvalError::new(kind, span)
                     .with_label(unit_span(definition), "declared here")
@@ -1140,15 +1719,80 @@ impl<'l> Calculator<'l> {
     }
 }
 
-/// `quantity` in the unit the line named `name` shows in, when that works (same dimension and
+/// `value` in the unit the line named `name` shows in, when that works (same dimension and
 /// temperature rules).
-fn shown_like(quantity: Quantity, name: &str, scope: &dyn Scope, span: Span) -> Option<ShownValue> {
+fn shown_like(value: &Value, name: &str, scope: &dyn Scope, span: Span) -> Option<Shown> {
     let Some(Some(line)) = scope.lookup(name) else {
         return None;
     };
-    let expression = crate::syntax::parse_unit(&line.unit).ok()?;
+    let text = line.unit();
+    let expression = crate::syntax::parse_unit(text).ok()?;
     let unit = resolve_unit(&expression).ok()?;
-    show_in(quantity, &unit, &line.unit, span).ok()
+    present(value.clone(), Some((&unit, text)), span).ok()
+}
+
+/// The unit written for a value: the declared one, a literal's or list's own, a range's start's,
+/// or the result unit of the sheet function it calls.
+fn written_unit<'e>(
+    expression: &'e Expression,
+    declared: Option<&'e UnitExpression>,
+    scope: &'e dyn Scope,
+) -> Option<&'e UnitExpression> {
+    if declared.is_some() {
+        return declared;
+    }
+    match &expression.kind {
+        ExpressionKind::Quantity { unit, .. } | ExpressionKind::List { unit, .. } => unit.as_ref(),
+        ExpressionKind::Range(range) => written_unit(&range.from, None, scope),
+        ExpressionKind::Call { function, .. } => scope
+            .sheet_function(&function.text)
+            .flatten()
+            .and_then(|definition| definition.result_unit.as_ref()),
+        _ => None,
+    }
+}
+
+/// A value in a unit (`None`: the preferred SI unit), with the dimension and temperature rules
+/// enforced once and every shown number checked to be finite.
+fn present(value: Value, unit: Option<(&Unit, &str)>, span: Span) -> Result<Shown, EvalError> {
+    match value {
+        Value::Scalar(quantity) => Ok(Shown::Scalar(match unit {
+            Some((unit, text)) => show_in(quantity, unit, text, span)?,
+            None => ShownValue {
+                quantity,
+                unit: quantity.dimension.preferred_si_unit(),
+                value: quantity.value,
+            },
+        })),
+        Value::Column(column) => {
+            let (unit_text, conversion) = match unit {
+                Some((unit, text)) => {
+                    show_in(column.shape(), unit, text, span)?;
+                    (text.to_string(), Some(unit.clone()))
+                }
+                None => (column.dimension.preferred_si_unit(), None),
+            };
+            let shown = ShownColumn {
+                column,
+                unit: unit_text,
+                conversion,
+            };
+            if let Some(row) = (0..shown.len()).find(|row| !shown.shown(*row).is_finite()) {
+                let origin = shown.column.origin.to_string();
+                return Err(EvalError::new(EvalErrorKind::NotFinite, span).in_row(row, &origin));
+            }
+            Ok(Shown::Column(shown))
+        }
+        Value::Labels(labels) => match unit {
+            Some(_) => Err(EvalError::new(
+                EvalErrorKind::TextInArithmetic {
+                    origin: labels.origin.to_string(),
+                },
+                span,
+            )),
+            None => Ok(Shown::Labels(labels)),
+        },
+    }
 }
 
 /// Nesting of sheet-function calls beyond which a call is refused (recursion is refused at
@@ -1240,7 +1884,7 @@ pub fn show_in(
     })
 }
 
-fn binary(
+pub(crate) fn binary(
     operator: BinaryOperator,
     left: Quantity,
     right: Quantity,

@@ -1,7 +1,7 @@
 //! The interface between the evaluator and built-in functions and constants. The evaluator
 //! defines it; `library` implements it; the front ends hand a library to the evaluator.
 
-use super::value::Quantity;
+use super::value::{Quantity, Value};
 use crate::units::Dimension;
 use std::fmt;
 
@@ -52,7 +52,25 @@ pub trait Function: Sync {
         arguments: &[Quantity],
         provenance: &mut Provenance,
     ) -> Result<Quantity, CallError>;
+    /// For functions of whole columns (aggregates, table lookups): the result. `None` means
+    /// the function is applied row by row through `call`.
+    fn call_values(
+        &self,
+        _arguments: &[Value],
+        _provenance: &mut Provenance,
+    ) -> Option<Result<Value, CallError>> {
+        None
+    }
+    /// A fast path for the rows after the first: given arguments shaped like `first_row`
+    /// (which `call` has accepted, so dimensions are already checked), a kernel that computes
+    /// one row from plain SI numbers. `None` means every row goes through `call`.
+    fn row_kernel(&self, _first_row: &[Quantity]) -> Option<RowKernel<'_>> {
+        None
+    }
 }
+
+/// Computes one row of a function from the rows' plain SI numbers.
+pub type RowKernel<'f> = Box<dyn Fn(&[f64]) -> Result<f64, CallError> + 'f>;
 
 /// A named constant.
 #[derive(Debug, Clone)]

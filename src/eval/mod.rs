@@ -3,12 +3,15 @@
 //! `eval` defines the interface built-in functions implement (`function`), but knows no
 //! built-in itself; the front ends hand it a `Library`. It does no I/O.
 
+pub mod columns;
+pub mod data;
 pub mod diagnostic;
 pub mod error;
 pub mod evaluate;
 pub mod function;
 pub mod order;
 pub mod session;
+mod solve;
 pub mod sources;
 pub mod value;
 pub mod warnings;
@@ -17,8 +20,8 @@ pub use diagnostic::{Diagnostic, Severity};
 pub use error::{EvalError, EvalErrorKind};
 pub use evaluate::{
     evaluate, evaluate_sheet, CallRecord, CheckOutcome, Evaluation, LineOutcome, LineResult,
-    ShownValue,
+    PlotOutcome, Shown, ShownColumn, ShownValue,
 };
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
 pub use sources::{IncludeLoader, LoadedSheet, NoIncludes, SourceFile, SourceMap};
-pub use value::{Quantity, TemperatureKind};
+pub use value::{Column, Labels, Quantity, TemperatureKind, Value};

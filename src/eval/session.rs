@@ -16,7 +16,7 @@
 
 use super::diagnostic::Diagnostic;
 use super::error::{EvalError, EvalErrorKind};
-use super::evaluate::{Calculator, Failure, LineResult, Scope, ShownValue};
+use super::evaluate::{Calculator, Failure, LineResult, Scope, Shown};
 use super::function::Library;
 use super::order::dependency_order;
 use crate::syntax::{parse_line, Expression, FunctionDefinition, Line, LineKind, Span};
@@ -67,7 +67,7 @@ impl SessionLine {
     }
 
     /// The line's value, when it has one.
-    pub fn value(&self) -> Option<&ShownValue> {
+    pub fn value(&self) -> Option<&Shown> {
         match &self.result {
             LineResult::Value(value) => Some(value),
             _ => None,
@@ -92,7 +92,7 @@ pub enum Outcome {
     /// Nothing to do (a blank entry).
     Nothing,
     /// A bare expression: shown, not kept.
-    Shown(ShownValue),
+    Shown(Shown),
     /// Kept as a new line at this index.
     Added(usize),
     /// Replaced the definition at this index, whose text was `previous`.
@@ -122,7 +122,7 @@ enum Last {
     /// A kept definition's name.
     Name(String),
     /// A bare expression's value.
-    Value(ShownValue),
+    Value(Shown),
 }
 
 /// A growing sheet with its values and dependency graph.
@@ -144,7 +144,14 @@ struct SessionScope<'s> {
 }
 
 impl Scope for SessionScope<'_> {
-    fn lookup(&self, name: &str) -> Option<Option<&ShownValue>> {
+    fn definition(&self, name: &str) -> Option<&crate::syntax::Definition> {
+        match self.lines.get(*self.by_name.get(name)?)?.kind() {
+            LineKind::Definition(definition) => Some(definition),
+            _ => None,
+        }
+    }
+
+    fn lookup(&self, name: &str) -> Option<Option<&Shown>> {
         let line = self.lines.get(*self.by_name.get(name)?)?;
         match line.kind() {
             LineKind::Function(_) => None,
@@ -218,7 +225,7 @@ impl<'l> Session<'l> {
     }
 
     /// The last result, if any.
-    pub fn last_result(&self) -> Option<&ShownValue> {
+    pub fn last_result(&self) -> Option<&Shown> {
         match &self.last {
             Some(Last::Value(value)) => Some(value),
             Some(Last::Name(name)) => self.definition(name).and_then(SessionLine::value),
@@ -286,8 +293,13 @@ impl<'l> Session<'l> {
         };
         match &line.kind {
             LineKind::Blank | LineKind::Invalid => {}
-            LineKind::Include(_) => {
-                let message = "includes are not available in a session; `:load` the sheet instead";
+            LineKind::Include(_) | LineKind::Plot(_) => {
+                let message = match &line.kind {
+                    LineKind::Plot(_) => {
+                        "plots are drawn from sheets: `fluxsheet run SHEET --plot FILE.svg`"
+                    }
+                    _ => "includes are not available in a session; `:load` the sheet instead",
+                };
                 report.outcome = Outcome::Refused;
                 report
                     .diagnostics
@@ -688,7 +700,12 @@ impl<'l> Session<'l> {
         }
         let replacement = match &self.last {
             Some(Last::Name(name)) => name.clone(),
-            Some(Last::Value(value)) => literal_text(value),
+            Some(Last::Value(value)) => literal_text(value).ok_or_else(|| {
+                Diagnostic::error(
+                    format!("`{LAST_RESULT}` holds text, which cannot stand in an expression"),
+                    spans[0],
+                )
+            })?,
             None => {
                 return Err(Diagnostic::error(
                     format!("`{LAST_RESULT}` has no value yet: it holds the last result"),
@@ -711,13 +728,25 @@ impl<'l> Session<'l> {
     }
 }
 
-/// A value written back as a literal that reads as the same quantity: `(4.05e-6 m/s)`.
-fn literal_text(value: &ShownValue) -> String {
-    if value.unit == "1" {
-        format!("({:e})", value.value)
+/// A value written back as a literal that reads as the same quantity: `(4.05e-6 m/s)`, or
+/// `({1e0, 2e0} m)` for a column. Text has no literal.
+fn literal_text(value: &Shown) -> Option<String> {
+    let (number, unit) = match value {
+        Shown::Scalar(shown) => (format!("{:e}", shown.value), &shown.unit),
+        Shown::Column(shown) => {
+            let items: Vec<String> = shown
+                .shown_values()
+                .map(|item| format!("{item:e}"))
+                .collect();
+            (format!("{{{}}}", items.join(", ")), &shown.unit)
+        }
+        Shown::Labels(_) => return None,
+    };
+    Some(if unit == "1" {
+        format!("({number})")
     } else {
-        format!("({:e} {})", value.value, value.unit)
-    }
+        format!("({number} {unit})")
+    })
 }
 
 /// The name a line defines: a value or a sheet function.
@@ -763,7 +792,8 @@ fn for_each_expression<'a>(line: &'a Line, visit: &mut impl FnMut(&'a Expression
         | LineKind::Comment
         | LineKind::Heading(_)
         | LineKind::Invalid
-        | LineKind::Include(_) => {}
+        | LineKind::Include(_)
+        | LineKind::Plot(_) => {}
     }
 }
 
@@ -803,7 +833,9 @@ fn evaluate_line(
         LineKind::Comment => return (LineResult::Comment, Vec::new()),
         LineKind::Heading(heading) => return (LineResult::Heading(heading.clone()), Vec::new()),
         // Refused on entry; a loaded sheet's includes are not followed in a session.
-        LineKind::Invalid | LineKind::Include(_) => return (LineResult::Error, Vec::new()),
+        LineKind::Invalid | LineKind::Include(_) | LineKind::Plot(_) => {
+            return (LineResult::Error, Vec::new())
+        }
         LineKind::Function(function) => calculator
             .check_function_units(function)
             .map(|signature| LineResult::Function { signature })
@@ -849,6 +881,7 @@ mod tests {
         session
             .definition(name)
             .and_then(SessionLine::value)
+            .and_then(Shown::as_scalar)
             .map(|shown| shown.value)
             .unwrap_or(f64::NAN)
     }
@@ -862,7 +895,9 @@ mod tests {
         ));
         let report = session.enter("a * 3 [cm]");
         match report.outcome {
-            Outcome::Shown(shown) => assert_eq!((shown.value, shown.unit.as_str()), (600.0, "cm")),
+            Outcome::Shown(Shown::Scalar(shown)) => {
+                assert_eq!((shown.value, shown.unit.as_str()), (600.0, "cm"))
+            }
             other => panic!("{other:?}"),
         }
         assert_eq!(session.lines().len(), 1);
@@ -966,7 +1001,8 @@ mod tests {
         session.enter("4 ft [m]");
         session.enter("c = _");
         assert_eq!(value(&session, "c"), 1.2192);
-        assert_eq!(session.last_result().map(|shown| shown.value), Some(1.2192));
+        let last = session.last_result().and_then(Shown::as_scalar);
+        assert_eq!(last.map(|shown| shown.value), Some(1.2192));
         assert_eq!(session.enter("_ = 3").outcome, Outcome::Refused);
     }
 

@@ -2,6 +2,7 @@
 //! is an absolute temperature or a difference (which decides what `+`, `-` and `[degC]` mean).
 
 use crate::units::Dimension;
+use std::sync::Arc;
 
 /// What a temperature value stands for. Meaningful only when the dimension is temperature.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -48,5 +49,96 @@ impl Quantity {
 
     pub fn is_temperature_difference(&self) -> bool {
         self.dimension.is_temperature() && self.temperature == TemperatureKind::Difference
+    }
+}
+
+/// A column of quantities that share one dimension and temperature kind: a sweep, a list, a
+/// column of a data file, or anything computed from one. Values are SI; the vector is shared
+/// so that naming a column elsewhere copies nothing.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Column {
+    pub values: Arc<Vec<f64>>,
+    pub dimension: Dimension,
+    pub temperature: TemperatureKind,
+    /// The line the column first came from (`T_site`), for errors about lengths.
+    pub origin: Arc<str>,
+}
+
+/// A column of text from a data file (sample names): shown in tables, refused in arithmetic.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Labels {
+    pub texts: Arc<Vec<String>>,
+    pub origin: Arc<str>,
+}
+
+/// What an expression evaluates to.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Value {
+    Scalar(Quantity),
+    Column(Column),
+    Labels(Labels),
+}
+
+impl Column {
+    pub fn len(&self) -> usize {
+        self.values.len()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.values.is_empty()
+    }
+
+    /// Row `row` (0-based) as a quantity.
+    pub fn quantity(&self, row: usize) -> Quantity {
+        Quantity {
+            value: self.values[row],
+            dimension: self.dimension,
+            temperature: self.temperature,
+        }
+    }
+
+    /// The dimension and temperature kind of every row, with a stand-in value.
+    pub fn shape(&self) -> Quantity {
+        Quantity {
+            value: self.values.first().copied().unwrap_or(1.0),
+            dimension: self.dimension,
+            temperature: self.temperature,
+        }
+    }
+}
+
+impl Value {
+    /// The number of rows: `None` for a scalar.
+    pub fn rows(&self) -> Option<usize> {
+        match self {
+            Value::Scalar(_) => None,
+            Value::Column(column) => Some(column.len()),
+            Value::Labels(labels) => Some(labels.texts.len()),
+        }
+    }
+
+    pub fn as_scalar(&self) -> Option<&Quantity> {
+        match self {
+            Value::Scalar(quantity) => Some(quantity),
+            _ => None,
+        }
+    }
+
+    /// The dimension shared by every element (text has none).
+    pub fn dimension(&self) -> Option<Dimension> {
+        match self {
+            Value::Scalar(quantity) => Some(quantity.dimension),
+            Value::Column(column) => Some(column.dimension),
+            Value::Labels(_) => None,
+        }
+    }
+
+    /// Row `row` as a quantity; a scalar is the same in every row.
+    pub fn quantity_at(&self, row: usize) -> Option<Quantity> {
+        match self {
+            Value::Scalar(quantity) => Some(*quantity),
+            Value::Column(column) => column.values.get(row).map(|_| column.quantity(row)),
+            Value::Labels(_) => None,
+        }
     }
 }

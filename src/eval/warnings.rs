@@ -20,7 +20,7 @@
 use super::diagnostic::{Diagnostic, Severity};
 use super::evaluate::{Evaluation, LineResult};
 use super::function::Library;
-use super::value::Quantity;
+use super::value::Value;
 use crate::syntax::{
     Expression, ExpressionKind, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
@@ -108,7 +108,7 @@ pub fn sheet_warnings(
             (&line.kind, &outcome.result)
         {
             let span = definition.name.span.to(definition.expression.span);
-            plausible_value(&definition.name.text, &shown.quantity, span, &mut warnings);
+            plausible_value(&definition.name.text, &shown.value(), span, &mut warnings);
         }
     }
     water_temperatures(evaluation, library, &mut warnings);
@@ -215,7 +215,23 @@ fn collect_systems(expression: &Expression, systems: &mut Systems) {
         ExpressionKind::Quantity {
             unit: Some(unit), ..
         } => unit_systems(unit, systems),
-        ExpressionKind::Quantity { unit: None, .. } | ExpressionKind::Name(_) => {}
+        ExpressionKind::List {
+            unit: Some(unit), ..
+        } => unit_systems(unit, systems),
+        ExpressionKind::Quantity { unit: None, .. }
+        | ExpressionKind::List { unit: None, .. }
+        | ExpressionKind::FileColumn { .. }
+        | ExpressionKind::Name(_) => {}
+        ExpressionKind::Range(range) => {
+            for part in range.parts() {
+                collect_systems(part, systems);
+            }
+        }
+        ExpressionKind::Solve(solve) => {
+            for part in [&solve.goal, &solve.lower, &solve.upper] {
+                collect_systems(part, systems);
+            }
+        }
         ExpressionKind::Call { arguments, .. } => {
             for argument in arguments {
                 collect_systems(argument, systems);
@@ -303,16 +319,34 @@ pub fn is_conductivity_name(name: &str) -> bool {
     name.starts_with('K')
 }
 
-fn plausible_value(name: &str, quantity: &Quantity, span: Span, warnings: &mut Vec<Diagnostic>) {
-    let value = quantity.value;
+/// The first value of a scalar or column outside `low..=high`, and its row (1-based) in a
+/// column, as message text: `= 1.2` or `= 1.2 in row 3`.
+fn first_outside(value: &Value, low: f64, high: f64) -> Option<(f64, String)> {
+    match value {
+        Value::Scalar(quantity) => {
+            (!(low..=high).contains(&quantity.value)).then(|| (quantity.value, String::new()))
+        }
+        Value::Column(column) => column
+            .values
+            .iter()
+            .position(|value| !(low..=high).contains(value))
+            .map(|row| (column.values[row], format!(" in row {}", row + 1))),
+        Value::Labels(_) => None,
+    }
+}
+
+fn plausible_value(name: &str, value: &Value, span: Span, warnings: &mut Vec<Diagnostic>) {
     let velocity = Dimension::from_integers([1, 0, -1, 0, 0, 0, 0]);
-    if quantity.dimension.is_dimensionless() && is_porosity_name(name) {
+    let Some(dimension) = value.dimension() else {
+        return;
+    };
+    if dimension.is_dimensionless() && is_porosity_name(name) {
         let (low, high) = PLAUSIBLE_POROSITY;
-        if !(low..=high).contains(&value) {
+        if let Some((value, row)) = first_outside(value, low, high) {
             warnings.push(
                 Diagnostic::warning(
                     format!(
-                        "porosity `{name}` = {} is outside {low} to {high} (common practice)",
+                        "porosity `{name}` = {}{row} is outside {low} to {high} (common practice)",
                         short(value)
                     ),
                     span,
@@ -324,13 +358,13 @@ fn plausible_value(name: &str, quantity: &Quantity, span: Span, warnings: &mut V
                 )),
             );
         }
-    } else if quantity.dimension == velocity && is_conductivity_name(name) {
+    } else if dimension == velocity && is_conductivity_name(name) {
         let (low, high) = PLAUSIBLE_CONDUCTIVITY;
-        if !(low..=high).contains(&value) {
+        if let Some((value, row)) = first_outside(value, low, high) {
             warnings.push(
                 Diagnostic::warning(
                     format!(
-                        "hydraulic conductivity `{name}` = {} m/s is outside {low:e} to {high} m/s \
+                        "hydraulic conductivity `{name}` = {} m/s{row} is outside {low:e} to {high} m/s \
 (common practice: unfractured clay to clean gravel)",
                         short(value)
                     ),
@@ -365,16 +399,22 @@ fn water_temperatures(
             continue;
         }
         for (span, argument) in &call.arguments {
-            if !argument.dimension.is_temperature() || (low..=high).contains(&argument.value) {
+            if !argument
+                .dimension()
+                .is_some_and(|dimension| dimension.is_temperature())
+            {
                 continue;
             }
+            let Some((kelvin, row)) = first_outside(argument, low, high) else {
+                continue;
+            };
             if seen.insert(*span) {
                 warnings.push(
                     Diagnostic::warning(
                         format!(
-                            "water at {} degC passed to `{}` is outside 0 to 100 degC (common \
+                            "water at {} degC{row} passed to `{}` is outside 0 to 100 degC (common \
 practice for groundwater)",
-                            short(argument.value - 273.15),
+                            short(kelvin - 273.15),
                             call.function
                         ),
                         *span,

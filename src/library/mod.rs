@@ -15,12 +15,21 @@ pub mod transport;
 pub mod water;
 pub mod wells;
 
-use crate::eval::{CallError, Constant, Formulation, Function, Library, Provenance, Quantity};
+use crate::eval::function::RowKernel;
+use crate::eval::{
+    CallError, Constant, Formulation, Function, Library, Provenance, Quantity, Value,
+};
 use std::collections::HashMap;
 use std::sync::OnceLock;
 
 /// A function body: arguments in SI with dimensions, the provenance to record into.
 pub type Body = fn(&[Quantity], &mut Provenance) -> Result<Quantity, CallError>;
+
+/// The body of a function of whole columns (an aggregate, a table lookup).
+pub type ColumnBody = fn(&[Value], &mut Provenance) -> Result<Value, CallError>;
+
+/// Builds the row kernel of a function for arguments shaped like the first row.
+pub type KernelMaker = fn(&[Quantity]) -> Option<RowKernel<'static>>;
 
 /// A built-in function described by data.
 pub struct Builtin {
@@ -28,6 +37,9 @@ pub struct Builtin {
     pub summary: &'static str,
     pub formulations: &'static [&'static Formulation],
     pub body: Body,
+    /// Set for functions of whole columns; `body` then serves scalar calls only.
+    pub column_body: Option<ColumnBody>,
+    pub kernel: Option<KernelMaker>,
 }
 
 impl Builtin {
@@ -37,7 +49,27 @@ impl Builtin {
             summary,
             formulations: &[],
             body,
+            column_body: None,
+            kernel: None,
         }
+    }
+
+    /// A function that takes whole columns; `scalar_body` handles all-scalar calls.
+    pub const fn on_columns(
+        signature: &'static str,
+        summary: &'static str,
+        scalar_body: Body,
+        column_body: ColumnBody,
+    ) -> Builtin {
+        let mut builtin = Builtin::new(signature, summary, scalar_body);
+        builtin.column_body = Some(column_body);
+        builtin
+    }
+
+    /// Adds a fast path for the rows of a column after the first.
+    pub const fn with_kernel(mut self, kernel: KernelMaker) -> Builtin {
+        self.kernel = Some(kernel);
+        self
     }
 
     pub const fn citing(mut self, formulations: &'static [&'static Formulation]) -> Builtin {
@@ -65,6 +97,18 @@ impl Function for Builtin {
         provenance: &mut Provenance,
     ) -> Result<Quantity, CallError> {
         (self.body)(arguments, provenance)
+    }
+
+    fn call_values(
+        &self,
+        arguments: &[Value],
+        provenance: &mut Provenance,
+    ) -> Option<Result<Value, CallError>> {
+        self.column_body.map(|body| body(arguments, provenance))
+    }
+
+    fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
+        self.kernel.and_then(|make| make(first_row))
     }
 }
 

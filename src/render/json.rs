@@ -1,7 +1,7 @@
 //! JSON output. Serializable mirror types live here, at the edge, so the JSON contract in
 //! DESIGN.md does not freeze the evaluator's internal types.
 
-use crate::eval::{Diagnostic, Evaluation, LineResult, ShownValue, SourceMap};
+use crate::eval::{Diagnostic, Evaluation, LineResult, Shown, ShownValue, SourceMap};
 use serde::Serialize;
 
 #[derive(Serialize)]
@@ -21,16 +21,29 @@ pub struct LineJson {
     pub expression: String,
     #[serde(flatten)]
     pub value: ValueJson,
+    /// How the value was found (a solve's iterations), when that is worth saying.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub note: Option<String>,
 }
 
-/// The value fields of `eval` and of each `run` line.
+/// The value fields of `eval` and of each `run` line: numbers for a single value, arrays for a
+/// column (text for a column of labels, which has no SI value or dimension).
 #[derive(Serialize)]
 pub struct ValueJson {
-    pub value: f64,
+    pub value: Numbers,
     pub unit: String,
-    pub si_value: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub si_value: Option<Numbers>,
     pub si_unit: String,
     pub dimension: String,
+}
+
+#[derive(Serialize)]
+#[serde(untagged)]
+pub enum Numbers {
+    One(f64),
+    Column(Vec<f64>),
+    Text(Vec<String>),
 }
 
 #[derive(Serialize)]
@@ -42,6 +55,16 @@ pub struct CheckJson {
     pub right: ValueJson,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub message: Option<String>,
+    /// For a check over columns: rows checked, rows failed, and the row `left`/`right` show.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub rows: Option<CheckRowsJson>,
+}
+
+#[derive(Serialize)]
+pub struct CheckRowsJson {
+    pub total: usize,
+    pub failed: usize,
+    pub shown_row: usize,
 }
 
 #[derive(Serialize)]
@@ -70,11 +93,32 @@ pub struct FormulationJson {
 
 pub fn value_json(shown: &ShownValue) -> ValueJson {
     ValueJson {
-        value: shown.value,
+        value: Numbers::One(shown.value),
         unit: shown.unit.clone(),
-        si_value: shown.quantity.value,
+        si_value: Some(Numbers::One(shown.quantity.value)),
         si_unit: shown.quantity.dimension.si_unit_text(),
         dimension: shown.quantity.dimension.to_string(),
+    }
+}
+
+/// A line's value: one number, or the column's numbers (or text) as arrays.
+pub fn line_value_json(shown: &Shown) -> ValueJson {
+    match shown {
+        Shown::Scalar(shown) => value_json(shown),
+        Shown::Column(shown) => ValueJson {
+            value: Numbers::Column(shown.shown_values().collect()),
+            unit: shown.unit.clone(),
+            si_value: Some(Numbers::Column(shown.column.values.to_vec())),
+            si_unit: shown.column.dimension.si_unit_text(),
+            dimension: shown.column.dimension.to_string(),
+        },
+        Shown::Labels(labels) => ValueJson {
+            value: Numbers::Text(labels.texts.to_vec()),
+            unit: String::new(),
+            si_value: None,
+            si_unit: String::new(),
+            dimension: "text".to_string(),
+        },
     }
 }
 
@@ -110,7 +154,8 @@ pub fn sheet_json(file: Option<&str>, evaluation: &Evaluation) -> SheetJson {
                 line: line.number,
                 name: line.name.clone(),
                 expression: line.expression.clone(),
-                value: value_json(shown),
+                value: line_value_json(shown),
+                note: line.note.clone(),
             }),
             LineResult::Check(check) => checks.push(CheckJson {
                 line: line.number,
@@ -119,6 +164,11 @@ pub fn sheet_json(file: Option<&str>, evaluation: &Evaluation) -> SheetJson {
                 left: value_json(&check.left),
                 right: value_json(&check.right),
                 message: check.message.clone(),
+                rows: check.rows.map(|rows| CheckRowsJson {
+                    total: rows.total,
+                    failed: rows.failed,
+                    shown_row: rows.shown_row,
+                }),
             }),
             _ => {}
         }

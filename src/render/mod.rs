@@ -3,6 +3,7 @@
 
 pub mod json;
 pub mod number;
+pub mod plot;
 pub mod report;
 pub mod snippet;
 pub mod table;

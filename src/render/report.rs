@@ -9,7 +9,7 @@
 //! a plotting feature only has to produce `Block::Figure`s.
 
 use super::table::check_text;
-use super::{format_significant, CAUTION};
+use super::CAUTION;
 use crate::eval::{Evaluation, LineResult, Severity};
 use sha2::{Digest, Sha256};
 use std::io::{self, Write};
@@ -116,11 +116,23 @@ pub fn blocks(evaluation: &Evaluation, digits: u32) -> Vec<Block> {
                 None
             }
             LineResult::Value(shown) => Some(row(
-                format_significant(shown.value, digits),
-                unit_cell(&shown.unit),
-                line.expression.clone(),
+                crate::render::table::value_cell(shown, digits),
+                unit_cell(shown.unit()),
+                match &line.note {
+                    Some(note) => format!("{}  ({note})", line.expression),
+                    None => line.expression.clone(),
+                },
                 RowKind::Value,
             )),
+            LineResult::Plot(_) => Some(Row {
+                name: "plot".to_string(),
+                ..row(
+                    String::new(),
+                    String::new(),
+                    line.expression.clone(),
+                    RowKind::Value,
+                )
+            }),
             LineResult::Check(check) => Some(Row {
                 name: "check".to_string(),
                 ..row(

@@ -2,7 +2,7 @@
 //! checks show both sides in one unit; failed and skipped lines say so instead of a number.
 
 use super::{format_significant, Format, RenderOptions};
-use crate::eval::{CheckOutcome, Evaluation, LineResult};
+use crate::eval::{CheckOutcome, Evaluation, LineResult, Shown};
 use comfy_table::{presets, ContentArrangement, Table};
 use std::io::{self, Write};
 
@@ -62,10 +62,87 @@ pub fn check_text(check: &CheckOutcome, digits: u32) -> String {
     if let Some(tolerance) = &check.tolerance {
         text.push_str(&format!(" within {tolerance}"));
     }
+    if let Some(rows) = &check.rows {
+        if rows.failed == 0 {
+            text.push_str(&format!(
+                " (all {} rows pass; closest is row {})",
+                rows.total, rows.shown_row
+            ));
+        } else {
+            text.push_str(&format!(
+                " ({} of {} rows fail; first is row {})",
+                rows.failed, rows.total, rows.shown_row
+            ));
+        }
+    }
     if let Some(message) = &check.message {
         text.push_str(&format!(": {message}"));
     }
     text
+}
+
+/// A line's value cell: the number, or for a column its row count (the rows are in the column
+/// table below).
+pub fn value_cell(shown: &Shown, digits: u32) -> String {
+    match shown {
+        Shown::Scalar(shown) => format_significant(shown.value, digits),
+        _ => format!("{} rows", shown.rows().unwrap_or(0)),
+    }
+}
+
+/// The column-valued lines of a sheet, grouped by length: one table per group, a row per
+/// element and a column per line.
+pub struct ColumnTable<'e> {
+    pub rows: usize,
+    /// Each column's header (`K [m/s]`) and value.
+    pub columns: Vec<(String, &'e Shown)>,
+}
+
+impl ColumnTable<'_> {
+    pub fn header(&self) -> Vec<String> {
+        std::iter::once("row".to_string())
+            .chain(self.columns.iter().map(|(header, _)| header.clone()))
+            .collect()
+    }
+
+    /// The cells of row `row` (0-based).
+    pub fn cells(&self, row: usize, digits: u32) -> Vec<String> {
+        std::iter::once((row + 1).to_string())
+            .chain(self.columns.iter().map(|(_, shown)| match shown {
+                Shown::Column(column) => format_significant(column.shown(row), digits),
+                Shown::Labels(labels) => labels.texts[row].clone(),
+                Shown::Scalar(scalar) => format_significant(scalar.value, digits),
+            }))
+            .collect()
+    }
+}
+
+pub fn column_tables(evaluation: &Evaluation) -> Vec<ColumnTable<'_>> {
+    let mut tables: Vec<ColumnTable> = Vec::new();
+    for line in &evaluation.lines {
+        let LineResult::Value(shown) = &line.result else {
+            continue;
+        };
+        let Some(rows) = shown.rows() else {
+            continue;
+        };
+        let name = line
+            .name
+            .clone()
+            .unwrap_or_else(|| format!("line {}", line.number));
+        let header = match unit_cell(shown.unit()).as_str() {
+            "" => name,
+            unit => format!("{name} [{unit}]"),
+        };
+        match tables.iter_mut().find(|table| table.rows == rows) {
+            Some(table) => table.columns.push((header, shown)),
+            None => tables.push(ColumnTable {
+                rows,
+                columns: vec![(header, shown)],
+            }),
+        }
+    }
+    tables
 }
 
 fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
@@ -84,9 +161,12 @@ fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
             LineResult::Blank | LineResult::Comment => {}
             LineResult::Heading(text) => entries.push(Entry::Heading(text.clone())),
             LineResult::Value(shown) => entries.push(row(
-                format_significant(shown.value, digits),
-                unit_cell(&shown.unit),
-                line.expression.clone(),
+                value_cell(shown, digits),
+                unit_cell(shown.unit()),
+                match &line.note {
+                    Some(note) => format!("{}  ({note})", line.expression),
+                    None => line.expression.clone(),
+                },
             )),
             LineResult::Check(check) => entries.push(Entry::Row(Row {
                 line: line.number.to_string(),
@@ -100,6 +180,13 @@ fn entries(evaluation: &Evaluation, digits: u32) -> Vec<Entry> {
                 String::new(),
                 format!("{signature} = {}", line.expression),
             )),
+            LineResult::Plot(_) => entries.push(Entry::Row(Row {
+                line: line.number.to_string(),
+                name: "plot".to_string(),
+                value: String::new(),
+                unit: String::new(),
+                expression: shortened(&line.expression),
+            })),
             LineResult::Include { file } => entries.push(Entry::Row(Row {
                 line: line.number.to_string(),
                 name: "include".to_string(),
@@ -137,6 +224,14 @@ pub fn write_sheet(
         Format::Markdown => write_markdown(out, &entries),
         Format::Table | Format::Json => write_table(out, &entries),
     }?;
+    for table in column_tables(evaluation) {
+        writeln!(out)?;
+        match options.format {
+            Format::Csv => write_column_csv(out, &table, options.digits),
+            Format::Markdown => write_column_markdown(out, &table, options.digits),
+            Format::Table | Format::Json => write_column_table(out, &table, options.digits),
+        }?;
+    }
     if options.format != Format::Csv {
         write_sources(out, evaluation, options.format)?;
     }
@@ -220,6 +315,64 @@ fn write_csv(out: &mut dyn Write, entries: &[Entry]) -> io::Result<()> {
                 .write_record([&row.line, &row.name, &row.value, &row.unit, &row.expression])
                 .map_err(csv_error)?;
         }
+    }
+    writer.flush()
+}
+
+fn write_column_table(out: &mut dyn Write, table: &ColumnTable, digits: u32) -> io::Result<()> {
+    let mut drawn = Table::new();
+    drawn
+        .load_preset(presets::UTF8_FULL_CONDENSED)
+        .set_content_arrangement(ContentArrangement::Disabled);
+    drawn.set_header(table.header());
+    for row in 0..table.rows {
+        drawn.add_row(table.cells(row, digits));
+    }
+    for index in 0..table.columns.len() + 1 {
+        if let Some(column) = drawn.column_mut(index) {
+            column.set_cell_alignment(comfy_table::CellAlignment::Right);
+        }
+    }
+    writeln!(out, "{drawn}")
+}
+
+/// Written row by row, so a column of millions of rows needs no second copy.
+fn write_column_markdown(out: &mut dyn Write, table: &ColumnTable, digits: u32) -> io::Result<()> {
+    let header = table.header();
+    writeln!(
+        out,
+        "| {} |",
+        header
+            .iter()
+            .map(|cell| markdown_cell(cell))
+            .collect::<Vec<_>>()
+            .join(" | ")
+    )?;
+    writeln!(out, "|{}", "---:|".repeat(header.len()))?;
+    for row in 0..table.rows {
+        let cells = table.cells(row, digits);
+        writeln!(
+            out,
+            "| {} |",
+            cells
+                .iter()
+                .map(|cell| markdown_cell(cell))
+                .collect::<Vec<_>>()
+                .join(" | ")
+        )?;
+    }
+    Ok(())
+}
+
+/// Written row by row, so a column of millions of rows needs no second copy.
+fn write_column_csv(out: &mut dyn Write, table: &ColumnTable, digits: u32) -> io::Result<()> {
+    let mut writer = csv::Writer::from_writer(out);
+    let csv_error = |error: csv::Error| io::Error::other(error.to_string());
+    writer.write_record(table.header()).map_err(csv_error)?;
+    for row in 0..table.rows {
+        writer
+            .write_record(table.cells(row, digits))
+            .map_err(csv_error)?;
     }
     writer.flush()
 }

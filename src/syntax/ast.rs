@@ -33,6 +33,7 @@ pub enum LineKind {
     Check(Box<Check>),
     Function(FunctionDefinition),
     Include(Include),
+    Plot(Plot),
     /// A line that failed to parse; its error is in the parse result.
     Invalid,
 }
@@ -66,6 +67,43 @@ pub struct Parameter {
 pub struct Include {
     pub path: String,
     pub path_span: Span,
+}
+
+/// `plot K_cold, K_warm against T log y "title"`: a line chart of columns.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Plot {
+    pub series: Vec<Name>,
+    pub against: Name,
+    pub log_x: bool,
+    pub log_y: bool,
+    pub title: Option<String>,
+}
+
+/// `from to to step s` or `from to to count n [log]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Range {
+    pub from: Expression,
+    pub to: Expression,
+    pub spacing: Spacing,
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub enum Spacing {
+    Step(Expression),
+    Count {
+        count: Expression,
+        logarithmic: bool,
+    },
+}
+
+/// `solve line == goal for unknown between lower and upper`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Solve {
+    pub line: Name,
+    pub goal: Expression,
+    pub unknown: Name,
+    pub lower: Expression,
+    pub upper: Expression,
 }
 
 /// A bare `expression [unit]`.
@@ -132,6 +170,19 @@ pub enum ExpressionKind {
         unit: Option<UnitExpression>,
     },
     Name(String),
+    /// `{12, 40, 150} mD`: the numbers as written (with their signs) and the unit.
+    List {
+        items: Vec<String>,
+        unit: Option<UnitExpression>,
+    },
+    Range(Box<Range>),
+    /// `column k from "cores.csv"`.
+    FileColumn {
+        header: Name,
+        path: String,
+        path_span: Span,
+    },
+    Solve(Box<Solve>),
     Call {
         function: Name,
         arguments: Vec<Expression>,
@@ -181,7 +232,20 @@ impl Expression {
     /// Calls `visit` on the name of every function this expression calls.
     pub fn for_each_call<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
         match &self.kind {
-            ExpressionKind::Quantity { .. } | ExpressionKind::Name(_) => {}
+            ExpressionKind::Quantity { .. }
+            | ExpressionKind::Name(_)
+            | ExpressionKind::List { .. }
+            | ExpressionKind::FileColumn { .. } => {}
+            ExpressionKind::Range(range) => {
+                for part in range.parts() {
+                    part.for_each_call(visit);
+                }
+            }
+            ExpressionKind::Solve(solve) => {
+                for part in [&solve.goal, &solve.lower, &solve.upper] {
+                    part.for_each_call(visit);
+                }
+            }
             ExpressionKind::Call {
                 function,
                 arguments,
@@ -202,8 +266,22 @@ impl Expression {
     /// Calls `visit` on every sheet name this expression refers to (not function names).
     pub fn for_each_name<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
         match &self.kind {
-            ExpressionKind::Quantity { .. } => {}
+            ExpressionKind::Quantity { .. }
+            | ExpressionKind::List { .. }
+            | ExpressionKind::FileColumn { .. } => {}
             ExpressionKind::Name(name) => visit(name, self.span),
+            ExpressionKind::Range(range) => {
+                for part in range.parts() {
+                    part.for_each_name(visit);
+                }
+            }
+            ExpressionKind::Solve(solve) => {
+                visit(&solve.line.text, solve.line.span);
+                visit(&solve.unknown.text, solve.unknown.span);
+                for part in [&solve.goal, &solve.lower, &solve.upper] {
+                    part.for_each_name(visit);
+                }
+            }
             ExpressionKind::Call { arguments, .. } => {
                 for argument in arguments {
                     argument.for_each_name(visit);
@@ -215,5 +293,16 @@ impl Expression {
                 right.for_each_name(visit);
             }
         }
+    }
+}
+
+impl Range {
+    /// The range's three expressions.
+    pub fn parts(&self) -> [&Expression; 3] {
+        let spacing = match &self.spacing {
+            Spacing::Step(step) => step,
+            Spacing::Count { count, .. } => count,
+        };
+        [&self.from, &self.to, spacing]
     }
 }

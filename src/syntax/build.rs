@@ -146,6 +146,11 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
                 }
             }
             Rule::display => kind = LineKind::Display(builder.display(pair)?),
+            Rule::plot_line => {
+                let (plot, plot_comment) = builder.plot(pair)?;
+                kind = LineKind::Plot(plot);
+                comment = plot_comment;
+            }
             Rule::check_line => {
                 let (check, check_comment) = builder.check(pair)?;
                 kind = LineKind::Check(Box::new(check));
@@ -187,6 +192,19 @@ pub fn parse_expression(text: &str) -> Result<Expression, SyntaxError> {
         .and_then(|pair| pair.into_inner().next())
         .ok_or_else(|| internal(0))?;
     Builder { offset: 0 }.expression(expression)
+}
+
+/// Parses the value of a `--set name=value` override: an expression or a range. Spans count
+/// from `offset`, where the caller places the text in its source map.
+pub fn parse_set_value(text: &str, offset: usize) -> Result<Expression, SyntaxError> {
+    guard_against_deep_input(text, offset)?;
+    let mut pairs = WorksheetParser::parse(Rule::set_value, text)
+        .map_err(|error| convert(error, text, offset))?;
+    let value = pairs
+        .next()
+        .and_then(|pair| pair.into_inner().next())
+        .ok_or_else(|| internal(offset))?;
+    Builder { offset }.line_value(value)
 }
 
 /// Rejects nesting and operator counts that would exhaust the stack in a recursive parser.
@@ -272,7 +290,9 @@ impl Builder {
                 }
                 Rule::parameters => parameters = Some(self.parameters(inner)?),
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
-                Rule::expression => expression = Some(self.expression(inner)?),
+                Rule::expression | Rule::range | Rule::file_column | Rule::solve => {
+                    expression = Some(self.line_value(inner)?)
+                }
                 _ => {}
             }
         }
@@ -409,6 +429,126 @@ impl Builder {
         self.operations(pair.into_inner())
     }
 
+    /// The value side of a named line: an expression, a range, a file column or a solve.
+    fn line_value(&self, pair: Pair<Rule>) -> Result<Expression, SyntaxError> {
+        let span = self.span(&pair);
+        let rule = pair.as_rule();
+        if rule == Rule::expression {
+            return self.expression(pair);
+        }
+        let mut expressions = Vec::new();
+        let mut names = Vec::new();
+        let mut path = None;
+        let mut logarithmic = false;
+        let mut by_count = false;
+        for inner in pair.into_inner() {
+            match inner.as_rule() {
+                Rule::expression => expressions.push(self.expression(inner)?),
+                Rule::name => names.push(Name {
+                    text: inner.as_str().to_string(),
+                    span: self.span(&inner),
+                }),
+                Rule::quoted_path => {
+                    let path_span = self.span(&inner);
+                    let text = inner
+                        .into_inner()
+                        .next()
+                        .map(|text| text.as_str().to_string());
+                    path = Some((text.unwrap_or_default(), path_span));
+                }
+                Rule::count_keyword => by_count = true,
+                Rule::log_keyword => logarithmic = true,
+                _ => {}
+            }
+        }
+        let kind = match rule {
+            Rule::range => {
+                let [from, to, spacing]: [Expression; 3] =
+                    expressions.try_into().map_err(|_| internal(span.start))?;
+                let spacing = if by_count {
+                    Spacing::Count {
+                        count: spacing,
+                        logarithmic,
+                    }
+                } else {
+                    Spacing::Step(spacing)
+                };
+                ExpressionKind::Range(Box::new(Range { from, to, spacing }))
+            }
+            Rule::file_column => {
+                let (Some(header), Some((path, path_span))) = (names.pop(), path) else {
+                    return Err(internal(span.start));
+                };
+                ExpressionKind::FileColumn {
+                    header,
+                    path,
+                    path_span,
+                }
+            }
+            Rule::solve => {
+                let [goal, lower, upper]: [Expression; 3] =
+                    expressions.try_into().map_err(|_| internal(span.start))?;
+                let [line, unknown]: [Name; 2] =
+                    names.try_into().map_err(|_| internal(span.start))?;
+                ExpressionKind::Solve(Box::new(Solve {
+                    line,
+                    goal,
+                    unknown,
+                    lower,
+                    upper,
+                }))
+            }
+            _ => return Err(internal(span.start)),
+        };
+        Ok(Expression { kind, span })
+    }
+
+    /// `plot a, b against x log y "title"`, and the line's trailing comment.
+    fn plot(&self, pair: Pair<Rule>) -> Result<(Plot, Option<String>), SyntaxError> {
+        let span = self.span(&pair);
+        let mut names = Vec::new();
+        let (mut log_x, mut log_y) = (false, false);
+        let mut title = None;
+        let mut comment = None;
+        for inner in pair.into_inner() {
+            match inner.as_rule() {
+                Rule::name => names.push(Name {
+                    text: inner.as_str().to_string(),
+                    span: self.span(&inner),
+                }),
+                Rule::log_axis => {
+                    if inner.as_str().trim_end().ends_with('x') {
+                        log_x = true;
+                    } else {
+                        log_y = true;
+                    }
+                }
+                Rule::message => {
+                    title = inner
+                        .into_inner()
+                        .next()
+                        .map(|text| text.as_str().to_string())
+                }
+                Rule::comment => {
+                    comment = inner
+                        .into_inner()
+                        .next()
+                        .map(|text| text.as_str().trim().to_string())
+                }
+                _ => {}
+            }
+        }
+        let against = names.pop().ok_or_else(|| internal(span.start))?;
+        let plot = Plot {
+            series: names,
+            against,
+            log_x,
+            log_y,
+            title,
+        };
+        Ok((plot, comment))
+    }
+
     fn operations(&self, pairs: Pairs<Rule>) -> Result<Expression, SyntaxError> {
         let mut tokens = Vec::new();
         for pair in pairs {
@@ -446,6 +586,21 @@ impl Builder {
                 };
                 Ok(Expression {
                     kind: ExpressionKind::Quantity { digits, unit },
+                    span,
+                })
+            }
+            Rule::list => {
+                let mut items = Vec::new();
+                let mut unit = None;
+                for inner in pair.into_inner() {
+                    match inner.as_rule() {
+                        Rule::list_item => items.push(inner.as_str().to_string()),
+                        Rule::unit_expression => unit = Some(self.unit(inner)?),
+                        _ => {}
+                    }
+                }
+                Ok(Expression {
+                    kind: ExpressionKind::List { items, unit },
                     span,
                 })
             }
@@ -688,6 +843,16 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::EOI => "the end of the line",
         Rule::definition | Rule::display | Rule::check_line => "a line",
         Rule::quoted_path => "a quoted path",
+        Rule::list | Rule::list_item => "an expression",
+        Rule::to_keyword => "`to`",
+        Rule::step_keyword | Rule::count_keyword => "`step` or `count`",
+        Rule::log_keyword => "`log`",
+        Rule::from_keyword => "`from`",
+        Rule::for_keyword => "`for`",
+        Rule::between_keyword => "`between`",
+        Rule::and_keyword => "`and`",
+        Rule::against_keyword => "`against`",
+        Rule::axis => "`x` or `y`",
         Rule::parameter | Rule::parameters => "a parameter name",
         _ => return None,
     })
@@ -710,6 +875,26 @@ mod tests {
             } => format!("{digits}[{}]", unit.text),
             ExpressionKind::Quantity { digits, unit: None } => digits.clone(),
             ExpressionKind::Name(name) => name.clone(),
+            ExpressionKind::List { items, unit } => format!(
+                "{{{}}}[{}]",
+                items.join(","),
+                unit.as_ref().map_or("", |unit| unit.text.as_str())
+            ),
+            ExpressionKind::Range(range) => {
+                let [from, to, spacing] = range.parts();
+                format!("range({},{},{})", shape(from), shape(to), shape(spacing))
+            }
+            ExpressionKind::FileColumn { header, path, .. } => {
+                format!("column({},{path})", header.text)
+            }
+            ExpressionKind::Solve(solve) => format!(
+                "solve({}=={},{},{},{})",
+                solve.line.text,
+                shape(&solve.goal),
+                solve.unknown.text,
+                shape(&solve.lower),
+                shape(&solve.upper)
+            ),
             ExpressionKind::Call {
                 function,
                 arguments,

@@ -11,7 +11,8 @@ pub mod span;
 
 pub use ast::*;
 pub use build::{
-    parse_expression, parse_line, parse_sheet, parse_sheet_at, parse_unit, ParsedSheet,
+    parse_expression, parse_line, parse_set_value, parse_sheet, parse_sheet_at, parse_unit,
+    ParsedSheet,
 };
 pub use error::SyntaxError;
 pub use span::Span;
