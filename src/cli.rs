@@ -3,7 +3,9 @@
 //! code that reads files or writes to the terminal; everything else is handed writers.
 
 use crate::eval::warnings::deny_warnings;
-use crate::eval::{evaluate, Evaluation, LineResult, Shown};
+use crate::eval::{
+    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
+};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, DiagnosticJson};
 use crate::render::{self, Format, RenderOptions};
@@ -12,11 +14,12 @@ use crate::units::Dimension;
 use clap::{Args, Parser, Subcommand, ValueEnum};
 use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
 use std::io::{self, IsTerminal, Read, Write};
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
 mod includes;
+mod plots;
 mod properties;
 mod report;
 
@@ -64,23 +67,52 @@ pub enum FormatArg {
     Json,
 }
 
+#[derive(Args, Debug)]
+pub struct RunArgs {
+    /// Sheet files (`-` reads standard input)
+    #[arg(required = true)]
+    pub files: Vec<String>,
+    /// Let `include` and `column … from` lines read files outside the sheet's folder tree
+    #[arg(long)]
+    pub allow_outside: bool,
+    /// Treat warnings as errors (exit code 3)
+    #[arg(long)]
+    pub deny_warnings: bool,
+    /// Replace the line NAME by VALUE for this run (what-if), e.g. `k_lab=40 mD` or
+    /// `T=0 degC to 40 degC step 5 K`; the value must have the line's dimension
+    #[arg(long = "set", value_name = "NAME=VALUE")]
+    pub overrides: Vec<String>,
+    /// Write the sheet's `plot` lines as SVG: the first to FILE, the next to FILE-2.svg, …
+    #[arg(long, value_name = "FILE.svg")]
+    pub plot: Option<PathBuf>,
+    #[command(flatten)]
+    pub limits: LimitArgs,
+}
+
+/// Limits shared by the commands that evaluate sheets.
+#[derive(Args, Debug, Clone, Copy)]
+pub struct LimitArgs {
+    /// Longest column a sheet may make (ranges, lists, data files)
+    #[arg(long, value_name = "ROWS", default_value_t = crate::eval::columns::DEFAULT_MAX_ROWS)]
+    pub max_rows: usize,
+}
+
+impl LimitArgs {
+    pub fn settings(&self) -> Settings {
+        Settings {
+            max_rows: self.max_rows,
+            overrides: Vec::new(),
+        }
+    }
+}
+
 #[derive(Subcommand, Debug)]
 pub enum Command {
     /// Evaluate sheets and print the table of their lines
     #[command(
-        after_help = "Examples:\n  fluxsheet run worksheets/core_permeability.fxs\n  fluxsheet run --format json a.fxs b.fxs\n  cat site.fxs | fluxsheet run -"
+        after_help = "Examples:\n  fluxsheet run worksheets/core_permeability.fxs\n  fluxsheet run --format json a.fxs b.fxs\n  fluxsheet run site.fxs --set k_lab=40mD --set 'T_site=0 degC to 40 degC step 5 K'\n  fluxsheet run sweep.fxs --plot sweep.svg\n  cat site.fxs | fluxsheet run -"
     )]
-    Run {
-        /// Sheet files (`-` reads standard input)
-        #[arg(required = true)]
-        files: Vec<String>,
-        /// Let `include` lines read files outside the sheet's folder tree
-        #[arg(long)]
-        allow_outside: bool,
-        /// Treat warnings as errors (exit code 3)
-        #[arg(long)]
-        deny_warnings: bool,
-    },
+    Run(RunArgs),
     /// Check sheets and folders of sheets: print only errors, warnings and failed checks
     Check(check::CheckArgs),
     /// Write a calculation report of a sheet as Markdown or self-contained HTML
@@ -143,11 +175,7 @@ pub fn run(command_line: CommandLine) -> u8 {
         return finish(crate::repl::run(None, options, &mut out), &mut out);
     };
     let result = match command {
-        Command::Run {
-            files,
-            allow_outside,
-            deny_warnings,
-        } => run_files(&mut out, files, options, *allow_outside, *deny_warnings),
+        Command::Run(arguments) => run_files(&mut out, arguments, options),
         Command::Check(arguments) => check::run(&mut out, arguments, options),
         Command::Report(arguments) => report::run(&mut out, arguments, options),
         Command::Eval { expression } => eval_expression(&mut out, expression, options),
@@ -231,13 +259,15 @@ pub(crate) fn evaluate_file(
     path: Option<&Path>,
     allow_outside: bool,
     deny: bool,
+    settings: &Settings,
 ) -> Evaluation {
     let mut loader = includes::FileIncludeLoader::new(&source.label, path, allow_outside);
-    let mut evaluation = evaluate(
+    let mut evaluation = evaluate_with(
         &source.label,
         &source.text,
         Builtins::standard(),
         &mut loader,
+        settings,
     );
     if deny {
         deny_warnings(&mut evaluation);
@@ -245,13 +275,36 @@ pub(crate) fn evaluate_file(
     evaluation
 }
 
-fn run_files(
-    out: &mut dyn Write,
-    files: &[String],
-    options: RenderOptions,
-    allow_outside: bool,
-    deny: bool,
-) -> io::Result<u8> {
+/// `NAME=VALUE` pairs of `--set`, checked for shape (the names are checked against the sheet).
+fn parse_overrides(overrides: &[String]) -> Result<Vec<(String, String)>, String> {
+    overrides
+        .iter()
+        .map(|pair| match pair.split_once('=') {
+            Some((name, value)) if !name.trim().is_empty() && !value.trim().is_empty() => {
+                Ok((name.trim().to_string(), value.trim().to_string()))
+            }
+            _ => Err(format!(
+                "`--set {pair}`: write NAME=VALUE, e.g. `--set k_lab=40mD`"
+            )),
+        })
+        .collect()
+}
+
+fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -> io::Result<u8> {
+    let files = &arguments.files;
+    let (allow_outside, deny) = (arguments.allow_outside, arguments.deny_warnings);
+    let mut settings = arguments.limits.settings();
+    settings.overrides = match parse_overrides(&arguments.overrides) {
+        Ok(overrides) => overrides,
+        Err(message) => {
+            eprintln!("error: {message}");
+            return Ok(exit::USAGE);
+        }
+    };
+    if arguments.plot.is_some() && files.len() != 1 {
+        eprintln!("error: `--plot` draws the plots of one sheet; give one file");
+        return Ok(exit::USAGE);
+    }
     let mut worst = exit::OK;
     let mut json_sheets = Vec::new();
     for (index, file) in files.iter().enumerate() {
@@ -268,8 +321,33 @@ fn run_files(
             }
         };
         let path = (file != "-").then(|| Path::new(file.as_str()));
-        let evaluation = evaluate_file(&source, path, allow_outside, deny);
+        let evaluation = evaluate_file(&source, path, allow_outside, deny, &settings);
+        if evaluation
+            .diagnostics
+            .iter()
+            .any(|diagnostic| diagnostic.code == Some(UNKNOWN_OVERRIDE))
+        {
+            render::write_diagnostics(
+                &mut stderr_stream(),
+                &evaluation.sources,
+                &evaluation.diagnostics,
+            )?;
+            return Ok(exit::USAGE);
+        }
         worst = worst.max(exit_code_for(&evaluation));
+        if let Some(target) = &arguments.plot {
+            match plots::write_plots(&evaluation, target) {
+                Ok(written) => {
+                    for file in written {
+                        eprintln!("wrote {}", file.display());
+                    }
+                }
+                Err((code, message)) => {
+                    eprintln!("error: {message}");
+                    worst = worst.max(code);
+                }
+            }
+        }
         if options.format == Format::Json {
             let sheet = sheet_json(Some(&source.label), &evaluation);
             json_sheets.push(serde_json::to_value(sheet).map_err(io::Error::other)?);

@@ -30,7 +30,7 @@ pub struct CheckArgs {
     /// Treat warnings as errors (exit code 3)
     #[arg(long)]
     pub deny_warnings: bool,
-    /// Let `include` lines read files outside each sheet's folder tree
+    /// Let `include` and `column … from` lines read files outside each sheet's folder tree
     #[arg(long)]
     pub allow_outside: bool,
     /// Compare every named value with this earlier `fluxsheet run --format json` output
@@ -39,6 +39,8 @@ pub struct CheckArgs {
     /// Relative change beyond which a value counts as moved (with --against)
     #[arg(long, requires = "against", value_parser = parse_tolerance, value_name = "RELATIVE")]
     pub tolerance: Option<f64>,
+    #[command(flatten)]
+    pub limits: super::LimitArgs,
 }
 
 /// Default of `--tolerance`.
@@ -257,6 +259,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     target.path.as_deref(),
                     arguments.allow_outside,
                     arguments.deny_warnings,
+                    &arguments.limits.settings(),
                 );
                 let mut code = exit_code_for(&evaluation);
                 let (moved, no_earlier) = match &earlier {

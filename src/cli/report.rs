@@ -24,9 +24,11 @@ pub struct ReportArgs {
     /// The report to write: `.md` or `.html`
     #[arg(short = 'o', long = "output", value_name = "REPORT.md|REPORT.html")]
     pub output: PathBuf,
-    /// Let `include` lines read files outside the sheet's folder tree
+    /// Let `include` and `column … from` lines read files outside the sheet's folder tree
     #[arg(long)]
     pub allow_outside: bool,
+    #[command(flatten)]
+    pub limits: super::LimitArgs,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -70,7 +72,13 @@ for -o",
         return Ok(exit::USAGE);
     };
     let path = (arguments.file != "-").then(|| Path::new(arguments.file.as_str()));
-    let evaluation = super::evaluate_file(&source, path, arguments.allow_outside, false);
+    let evaluation = super::evaluate_file(
+        &source,
+        path,
+        arguments.allow_outside,
+        false,
+        &arguments.limits.settings(),
+    );
     let context = ReportContext {
         label: &source.label,
         source: &source.text,

@@ -19,16 +19,15 @@ pub struct DataTable {
 pub struct DataColumn {
     /// The header's name part (`k` of `k [mD]`).
     pub name: String,
+    /// The header's unit as written (`mD`), which the column shows in.
+    pub unit: Option<String>,
     pub value: Value,
 }
 
 impl DataTable {
     /// The column named `name`, as a value whose origin is the column's name.
-    pub fn column(&self, name: &str) -> Option<Value> {
-        self.columns
-            .iter()
-            .find(|column| column.name == name)
-            .map(|column| column.value.clone())
+    pub fn column(&self, name: &str) -> Option<&DataColumn> {
+        self.columns.iter().find(|column| column.name == name)
     }
 }
 
@@ -71,14 +70,14 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
         };
         if parsed_headers
             .iter()
-            .any(|(earlier, _, _): &(String, _, _)| *earlier == name)
+            .any(|(earlier, _, _, _): &(String, _, _, _)| *earlier == name)
         {
             return Err(format!(
                 "{}: a second column named `{name}`",
                 at_line(header_line, index, header)
             ));
         }
-        parsed_headers.push((name.to_string(), unit, header.to_string()));
+        parsed_headers.push((name.to_string(), unit, header.to_string(), unit_text));
     }
     let mut cells: Vec<Vec<String>> = vec![Vec::new(); parsed_headers.len()];
     let mut lines: Vec<u64> = Vec::new();
@@ -108,7 +107,8 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
         return Err(format!("`{label}` has a header but no rows"));
     }
     let mut columns = Vec::with_capacity(parsed_headers.len());
-    for (index, ((name, unit, header), texts)) in parsed_headers.into_iter().zip(cells).enumerate()
+    for (index, ((name, unit, header, unit_text), texts)) in
+        parsed_headers.into_iter().zip(cells).enumerate()
     {
         let origin: Arc<str> = Arc::from(name.as_str());
         let all_numbers = texts.iter().all(|text| text.parse::<f64>().is_ok());
@@ -146,7 +146,11 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
                 origin,
             })
         };
-        columns.push(DataColumn { name, value });
+        columns.push(DataColumn {
+            name,
+            unit: unit_text.map(str::to_string),
+            value,
+        });
     }
     Ok(DataTable {
         label: label.to_string(),
@@ -191,7 +195,7 @@ mod tests {
     use super::*;
 
     fn column(table: &DataTable, name: &str) -> Vec<f64> {
-        match table.column(name) {
+        match table.column(name).map(|column| &column.value) {
             Some(Value::Column(column)) => column.values.to_vec(),
             other => panic!("no numeric column {name}: {other:?}"),
         }
@@ -214,7 +218,10 @@ mod tests {
         );
         assert_eq!(column(&table, "T"), vec![293.15, 281.65]);
         assert_eq!(column(&table, "n"), vec![0.3, 0.25]);
-        assert!(matches!(table.column("sample"), Some(Value::Labels(_))));
+        assert!(matches!(
+            table.column("sample").map(|column| &column.value),
+            Some(Value::Labels(_))
+        ));
     }
 
     #[test]

@@ -241,20 +241,63 @@ pub fn evaluate_sheet(source: &str, library: &dyn Library) -> Evaluation {
     evaluate("<sheet>", source, library, &mut NoIncludes)
 }
 
-/// Evaluates a sheet, loading its includes through `loader`.
+/// What a run may change about a sheet: the longest column, and `--set` overrides.
+#[derive(Debug, Clone)]
+pub struct Settings {
+    pub max_rows: usize,
+    /// `(name, value text)`: the value replaces the line `name` for this run.
+    pub overrides: Vec<(String, String)>,
+}
+
+impl Default for Settings {
+    fn default() -> Settings {
+        Settings {
+            max_rows: super::columns::DEFAULT_MAX_ROWS,
+            overrides: Vec::new(),
+        }
+    }
+}
+
+/// The code of the diagnostic for a `--set` that names no line (a command-line error).
+pub const UNKNOWN_OVERRIDE: &str = "unknown-override";
+
+/// Evaluates a sheet, loading its includes and data files through `loader`.
 pub fn evaluate(
     label: &str,
     source: &str,
     library: &dyn Library,
     loader: &mut dyn IncludeLoader,
 ) -> Evaluation {
-    let mut loaded = Loaded::default();
+    evaluate_with(label, source, library, loader, &Settings::default())
+}
+
+/// Evaluates a sheet with run settings.
+pub fn evaluate_with(
+    label: &str,
+    source: &str,
+    library: &dyn Library,
+    loader: &mut dyn IncludeLoader,
+    settings: &Settings,
+) -> Evaluation {
+    let mut loaded = Loaded {
+        max_rows: settings.max_rows,
+        ..Loaded::default()
+    };
     let main = loaded.sources.add(label, source);
     loaded.load(
         main,
         &mut vec![(loader.main_key(label), label.to_string())],
         loader,
     );
+    let mut overrides = Vec::new();
+    for (name, text) in &settings.overrides {
+        let file = loaded.sources.add(&format!("--set {name}"), text);
+        let base = loaded.sources.file(file).map_or(0, |file| file.base);
+        match crate::syntax::parse_set_value(text, base) {
+            Ok(expression) => overrides.push((name.clone(), expression)),
+            Err(error) => loaded.errors.push(error),
+        }
+    }
     let Loaded {
         sources,
         lines,
@@ -262,8 +305,12 @@ pub fn evaluate(
         diagnostics,
         includes,
         main_lines,
+        data_files,
+        ..
     } = loaded;
     let mut evaluator = Evaluator::new(&sources, &lines, library);
+    evaluator.calculator.max_rows = settings.max_rows;
+    evaluator.calculator.data_files = data_files;
     evaluator
         .diagnostics
         .extend(errors.iter().map(Diagnostic::from));
@@ -271,6 +318,7 @@ pub fn evaluate(
     for (index, file) in includes {
         evaluator.results[index] = Some(LineResult::Include { file });
     }
+    evaluator.overrides = overrides;
     evaluator.run();
     let mut evaluation = evaluator.finish(main_lines);
     evaluation.sources = sources;
@@ -296,9 +344,43 @@ struct Loaded {
     includes: Vec<(usize, String)>,
     /// How many of `lines` belong to the main sheet (they come first).
     main_lines: usize,
+    /// Data files read by `column … from` lines, by the start of each line's expression.
+    data_files: HashMap<usize, Result<Arc<DataTable>, EvalError>>,
+    /// Each data file read so far, by its loader key, so a file is parsed once.
+    tables: HashMap<String, Result<Arc<DataTable>, String>>,
+    max_rows: usize,
 }
 
 impl Loaded {
+    /// Reads the data files named by the lines from `first` on, of the sheet `label`.
+    fn load_data_files(&mut self, first: usize, label: &str, loader: &mut dyn IncludeLoader) {
+        for line in &self.lines[first..] {
+            let LineKind::Definition(definition) = &line.kind else {
+                continue;
+            };
+            let ExpressionKind::FileColumn {
+                path, path_span, ..
+            } = &definition.expression.kind
+            else {
+                continue;
+            };
+            let table = match loader.load(path, label) {
+                Err(message) => Err(message),
+                Ok(file) => self
+                    .tables
+                    .entry(file.key.clone())
+                    .or_insert_with(|| {
+                        super::data::read_table(path, &file.text, self.max_rows).map(Arc::new)
+                    })
+                    .clone(),
+            };
+            let table = table
+                .map_err(|message| EvalError::new(EvalErrorKind::DataFile { message }, *path_span));
+            self.data_files
+                .insert(definition.expression.span.start, table);
+        }
+    }
+
     /// Parses file `index`, then the sheets it includes (each once; a cycle is an error).
     /// `chain` holds the (key, label) of each sheet on the way here.
     fn load(
@@ -317,6 +399,7 @@ impl Loaded {
         if index == 0 {
             self.main_lines = self.lines.len();
         }
+        self.load_data_files(first, &label, loader);
         let includes: Vec<(usize, String, Span)> = (first..self.lines.len())
             .filter_map(|line| match &self.lines[line].kind {
                 LineKind::Include(include) => Some((line, include.path.clone(), include.path_span)),
@@ -486,6 +569,10 @@ struct Evaluator<'a> {
     results: Vec<Option<LineResult>>,
     diagnostics: Vec<Diagnostic>,
     calculator: Calculator<'a>,
+    /// `--set` values, by the name of the line they replace.
+    overrides: Vec<(String, Expression)>,
+    /// Lines whose value came from `--set`, with the sheet's own expression text.
+    overridden: HashMap<usize, String>,
 }
 
 impl<'a> Evaluator<'a> {
@@ -500,11 +587,14 @@ impl<'a> Evaluator<'a> {
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
             calculator: Calculator::new(library),
+            overrides: Vec::new(),
+            overridden: HashMap::default(),
         }
     }
 
     fn run(&mut self) {
         self.collect_definitions();
+        self.check_overrides();
         self.refuse_recursive_functions();
         let definition_lines: Vec<usize> = self.definitions.values().copied().collect::<Vec<_>>();
         let mut definition_lines = definition_lines;
@@ -591,6 +681,23 @@ impl<'a> Evaluator<'a> {
                     self.definitions.insert(name.text.as_str(), index);
                 }
             }
+        }
+    }
+
+    /// A `--set` must name a value line of the sheet (a command-line error otherwise).
+    fn check_overrides(&mut self) {
+        for (name, expression) in &self.overrides {
+            if self.definitions.contains_key(name.as_str()) {
+                continue;
+            }
+            let mut names: Vec<&str> = self.definitions.keys().copied().collect();
+            names.sort_unstable();
+            let suggestion = crate::suggest::closest(name, names.iter().copied(), 0.8);
+            let message = format!("`--set {name}=…`: the sheet has no line named `{name}`");
+            let mut diagnostic = Diagnostic::error(message, expression.span)
+                .with_help(suggestion.map(|close| format!("did you mean `{close}`?")));
+            diagnostic.code = Some(UNKNOWN_OVERRIDE);
+            self.diagnostics.push(diagnostic);
         }
     }
 
@@ -737,13 +844,53 @@ impl<'a> Evaluator<'a> {
         let LineKind::Definition(definition) = &self.lines[index].kind else {
             return;
         };
+        let replacement = self
+            .overrides
+            .iter()
+            .find(|(name, _)| *name == definition.name.text)
+            .map(|(_, expression)| expression.clone());
         let scope = sheet_scope!(self);
         let calculator = &mut self.calculator;
-        let outcome = calculator.line_value(
-            &definition.expression,
-            definition.display_unit.as_ref(),
-            &scope,
-        );
+        let outcome = match &replacement {
+            None => calculator.line_value(
+                &definition.expression,
+                definition.display_unit.as_ref(),
+                &scope,
+            ),
+            Some(replacement) => {
+                // The value given on the command line must have the dimension of the one
+                // it replaces.
+                let original = calculator.expression(&definition.expression, &scope);
+                let given = calculator.expression(replacement, &scope);
+                match (original, given) {
+                    (Ok(original), Ok(given)) if original.dimension() != given.dimension() => {
+                        let describe = |value: &Value| match value.dimension() {
+                            Some(dimension) => super::function::describe_dimension(&dimension),
+                            None => "text".to_string(),
+                        };
+                        let message = format!(
+                            "`--set {}`: the sheet's line is {}, the value given is {}",
+                            definition.name.text,
+                            describe(&original),
+                            describe(&given)
+                        );
+                        Err(
+                            EvalError::new(EvalErrorKind::Override { message }, replacement.span)
+                                .with_label(definition.expression.span, "the sheet's value")
+                                .into(),
+                        )
+                    }
+                    (_, Err(failure)) => Err(failure),
+                    (_, Ok(given)) => calculator
+                        .shown(given, definition.display_unit.as_ref(), replacement, &scope)
+                        .map_err(Failure::from),
+                }
+            }
+        };
+        if replacement.is_some() {
+            let text = text_of(self.sources, definition.expression.span);
+            self.overridden.insert(index, text);
+        }
         self.settle(index, outcome);
     }
 
@@ -810,13 +957,25 @@ impl<'a> Evaluator<'a> {
     fn finish(self, main_lines: usize) -> Evaluation {
         let sources = self.sources;
         let notes = &self.calculator.notes;
+        let overrides = &self.overrides;
+        let overridden = &self.overridden;
         let lines = self
             .lines
             .iter()
             .zip(self.results)
             .take(main_lines)
-            .map(|(line, result)| {
+            .enumerate()
+            .map(|(index, (line, result))| {
                 let (name, expression) = match &line.kind {
+                    LineKind::Definition(definition) if overridden.contains_key(&index) => {
+                        let given = overrides
+                            .iter()
+                            .find(|(name, _)| *name == definition.name.text)
+                            .map_or(String::new(), |(_, expression)| {
+                                text_of(sources, expression.span)
+                            });
+                        (Some(definition.name.text.clone()), given)
+                    }
                     LineKind::Definition(definition) => (
                         Some(definition.name.text.clone()),
                         text_of(sources, definition.expression.span),
@@ -839,6 +998,10 @@ impl<'a> Evaluator<'a> {
                     comment: line.comment.clone(),
                     result: result.unwrap_or(LineResult::Error),
                     note: match &line.kind {
+                        _ if overridden.contains_key(&index) => Some(format!(
+                            "set on the command line; the sheet has `{}`",
+                            overridden[&index]
+                        )),
                         LineKind::Definition(definition) => {
                             notes.get(&definition.expression.span.start).cloned()
                         }
@@ -1250,25 +1413,28 @@ impl<'l> Calculator<'l> {
                 .into())
             }
         };
-        table.column(&header.text).ok_or_else(|| {
-            let names: Vec<String> = table
-                .columns
-                .iter()
-                .map(|column| format!("`{}`", column.name))
-                .collect();
-            EvalError::new(
-                EvalErrorKind::DataFile {
-                    message: format!(
-                        "`{}` has no column `{}`; its columns are {}",
-                        table.label,
-                        header.text,
-                        names.join(", ")
-                    ),
-                },
-                header.span,
-            )
-            .into()
-        })
+        table
+            .column(&header.text)
+            .map(|column| column.value.clone())
+            .ok_or_else(|| {
+                let names: Vec<String> = table
+                    .columns
+                    .iter()
+                    .map(|column| format!("`{}`", column.name))
+                    .collect();
+                EvalError::new(
+                    EvalErrorKind::DataFile {
+                        message: format!(
+                            "`{}` has no column `{}`; its columns are {}",
+                            table.label,
+                            header.text,
+                            names.join(", ")
+                        ),
+                    },
+                    header.span,
+                )
+                .into()
+            })
     }
 
     fn name(&mut self, name: &str, span: Span, scope: &dyn Scope) -> Result<Value, Failure> {
@@ -1349,6 +1515,23 @@ impl<'l> Calculator<'l> {
                 Some((&unit, &unit_expression.text)),
                 unit_expression.span,
             );
+        }
+        // A data-file column shows in its header's unit.
+        if let ExpressionKind::FileColumn { header, .. } = &expression.kind {
+            let written = match self.data_files.get(&expression.span.start) {
+                Some(Ok(table)) => table
+                    .column(&header.text)
+                    .and_then(|column| column.unit.clone()),
+                _ => None,
+            };
+            if let Some(text) = written {
+                let unit = crate::syntax::parse_unit(&text)
+                    .ok()
+                    .and_then(|unit| resolve_unit(&unit).ok());
+                if let Some(unit) = unit {
+                    return present(value, Some((&unit, &text)), expression.span);
+                }
+            }
         }
         // A bare name (`y = x`, or `x` alone) shows in the unit its own line shows in, and a
         // solve's result in its unknown's.

@@ -19,8 +19,8 @@ pub mod warnings;
 pub use diagnostic::{Diagnostic, Severity};
 pub use error::{EvalError, EvalErrorKind};
 pub use evaluate::{
-    evaluate, evaluate_sheet, CallRecord, CheckOutcome, Evaluation, LineOutcome, LineResult,
-    PlotOutcome, Shown, ShownColumn, ShownValue,
+    evaluate, evaluate_sheet, evaluate_with, CallRecord, CheckOutcome, Evaluation, LineOutcome,
+    LineResult, PlotOutcome, Settings, Shown, ShownColumn, ShownValue, UNKNOWN_OVERRIDE,
 };
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
 pub use sources::{IncludeLoader, LoadedSheet, NoIncludes, SourceFile, SourceMap};

@@ -212,10 +212,23 @@ fn describe(error: &SolveError<Failure>, target: &str, unknown: &str, goal: f64)
         SolveError::Discontinuous { near, .. } => format!(
             "`{target}` is not continuous near `{unknown}` = {near:.6e} (SI): it jumps across the target there instead of reaching it"
         ),
-        SolveError::NotConverged { iterations } => {
-            format!("no convergence after {iterations} iterations")
+        SolveError::NotConverged {
+            iterations,
+            lower,
+            upper,
+        } => format!(
+            "no convergence after {iterations} iterations; the last bracket was {lower:.6e} to {upper:.6e} (SI)"
+        ),
+        SolveError::BadBracket { lower, upper } => format!(
+            "the bracket's ends must be two different finite values, found {lower:e} and {upper:e} (SI)"
+        ),
+        SolveError::BadTolerance { x_tolerance } => {
+            format!("the solver's tolerance {x_tolerance:e} is not usable")
         }
-        other => other.to_string(),
+        SolveError::NotFinite { x, value } => format!(
+            "`{target}` is not a finite number ({value}) at `{unknown}` = {x:.6e} (SI)"
+        ),
+        SolveError::Function(_) => format!("`{target}` could not be evaluated"),
     }
 }
 

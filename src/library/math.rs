@@ -41,18 +41,20 @@ pub const FUNCTIONS: &[(&str, Builtin)] = &[
     ),
     (
         "min",
-        Builtin::new(
-            "min(x, y, …)",
-            "smallest argument; all of one dimension",
+        Builtin::on_columns(
+            "min(x, y, …) or min(column)",
+            "smallest argument, row by row; or the smallest row of one column",
             min,
+            super::columns::column_minimum,
         ),
     ),
     (
         "max",
-        Builtin::new(
-            "max(x, y, …)",
-            "largest argument; all of one dimension",
+        Builtin::on_columns(
+            "max(x, y, …) or max(column)",
+            "largest argument, row by row; or the largest row of one column",
             max,
+            super::columns::column_maximum,
         ),
     ),
     (

@@ -7,6 +7,7 @@
 
 pub mod air;
 pub mod brine;
+pub mod columns;
 pub mod constants;
 pub mod formulation;
 pub mod math;
@@ -25,8 +26,9 @@ use std::sync::OnceLock;
 /// A function body: arguments in SI with dimensions, the provenance to record into.
 pub type Body = fn(&[Quantity], &mut Provenance) -> Result<Quantity, CallError>;
 
-/// The body of a function of whole columns (an aggregate, a table lookup).
-pub type ColumnBody = fn(&[Value], &mut Provenance) -> Result<Value, CallError>;
+/// The body of a function of whole columns (an aggregate, a table lookup); `None` hands the
+/// call to the row-by-row body (`min(a, b)` of two values, say).
+pub type ColumnBody = fn(&[Value], &mut Provenance) -> Option<Result<Value, CallError>>;
 
 /// Builds the row kernel of a function for arguments shaped like the first row.
 pub type KernelMaker = fn(&[Quantity]) -> Option<RowKernel<'static>>;
@@ -104,7 +106,8 @@ impl Function for Builtin {
         arguments: &[Value],
         provenance: &mut Provenance,
     ) -> Option<Result<Value, CallError>> {
-        self.column_body.map(|body| body(arguments, provenance))
+        self.column_body
+            .and_then(|body| body(arguments, provenance))
     }
 
     fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
@@ -117,6 +120,7 @@ fn all_functions() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
     math::FUNCTIONS
         .iter()
         .chain(properties::FUNCTIONS)
+        .chain(columns::FUNCTIONS.iter())
         .chain(transport::FUNCTIONS.iter())
         .chain(wells::FUNCTIONS.iter())
 }

@@ -926,3 +926,23 @@ fn emptiest_corner(chart: &Chart, x_plan: &AxisPlan, y_plan: &AxisPlan) -> Corne
         .map(|(position, _, _)| position)
         .unwrap_or(Corner::UpperRight)
 }
+
+/// The chart of a sheet's `plot` line.
+pub fn plot_svg(plot: &crate::eval::PlotOutcome) -> Result<String, PlotError> {
+    render_svg(&Chart {
+        title: plot.title.clone(),
+        x_label: plot.x_label.clone(),
+        y_label: plot.y_label.clone(),
+        x: &plot.x,
+        series: plot
+            .series
+            .iter()
+            .map(|(label, values)| Series {
+                label: label.clone(),
+                values,
+            })
+            .collect(),
+        log_x: plot.log_x,
+        log_y: plot.log_y,
+    })
+}

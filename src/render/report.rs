@@ -5,8 +5,8 @@
 //!
 //! The report is first turned into `Block`s, then written by one writer per format. A chart is
 //! a `Block::Figure` holding finished SVG markup: the HTML writer inlines it as is, the Markdown
-//! writer points to the HTML report. Sheets have no plots yet, so nothing makes a figure today;
-//! a plotting feature only has to produce `Block::Figure`s.
+//! writer points to the HTML report. Each `plot` line of the sheet becomes a figure after its
+//! row; the sheet's columns follow the lines as tables, a row per element.
 
 use super::table::check_text;
 use super::CAUTION;
@@ -44,6 +44,11 @@ pub enum Block {
     Rows(Vec<Row>),
     /// A chart: SVG markup made by the tool (never by the sheet's text), inlined in HTML.
     Figure(Figure),
+    /// The sheet's columns of one length: a header per column, a row per element.
+    Columns {
+        header: Vec<String>,
+        rows: Vec<Vec<String>>,
+    },
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -178,6 +183,27 @@ pub fn blocks(evaluation: &Evaluation, digits: u32) -> Vec<Block> {
                 _ => blocks.push(Block::Rows(vec![new_row])),
             }
         }
+        if let LineResult::Plot(plot) = &line.result {
+            let caption = plot
+                .title
+                .clone()
+                .unwrap_or_else(|| line.expression.clone());
+            match super::plot::plot_svg(plot) {
+                Ok(svg) => blocks.push(Block::Figure(Figure { caption, svg })),
+                Err(error) => blocks.push(Block::Prose(format!(
+                    "The chart of line {} cannot be drawn: {error}",
+                    line.number
+                ))),
+            }
+        }
+    }
+    for table in super::table::column_tables(evaluation) {
+        blocks.push(Block::Columns {
+            header: table.header(),
+            rows: (0..table.rows)
+                .map(|row| table.cells(row, digits))
+                .collect(),
+        });
     }
     blocks
 }
@@ -327,6 +353,21 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
                 "*Chart: {} (drawn in the HTML report).*\n",
                 md_cell(&figure.caption)
             )?,
+            Block::Columns { header, rows } => {
+                let cells = |cells: &[String]| {
+                    cells
+                        .iter()
+                        .map(|cell| md_cell(cell))
+                        .collect::<Vec<_>>()
+                        .join(" | ")
+                };
+                writeln!(out, "| {} |", cells(&header))?;
+                writeln!(out, "|{}", "---:|".repeat(header.len()))?;
+                for row in &rows {
+                    writeln!(out, "| {} |", cells(row))?;
+                }
+                writeln!(out)?;
+            }
         }
     }
     let checks = checks(evaluation, context.digits);
@@ -475,6 +516,21 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
                 figure.svg,
                 escape(&figure.caption)
             )?,
+            Block::Columns { header, rows } => {
+                writeln!(out, "<table class=\"columns\">\n<thead><tr>")?;
+                for cell in &header {
+                    write!(out, "<th>{}</th>", escape(cell))?;
+                }
+                writeln!(out, "</tr></thead>\n<tbody>")?;
+                for row in &rows {
+                    write!(out, "<tr>")?;
+                    for cell in row {
+                        write!(out, "<td class=\"number\">{}</td>", escape(cell))?;
+                    }
+                    writeln!(out, "</tr>")?;
+                }
+                writeln!(out, "</tbody>\n</table>")?;
+            }
         }
     }
     writeln!(out, "</section>")?;
