@@ -200,5 +200,98 @@ fn session(criterion: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, sheets, property_calls, check_folder, session);
+/// Rows of the column benchmarks.
+pub const COLUMN_ROWS: usize = 1_000_000;
+
+/// `K = hydraulic_conductivity(k, T)` over a column of a million temperatures.
+pub const ONE_LINE_SWEEP: &str =
+    "k = 250 mD\nT = 0 degC to 40 degC count 1000000\nK [m/s] = hydraulic_conductivity(k, T)\n";
+
+/// Ten lines over the same column: properties, flux, seepage velocity and travel time.
+pub const TEN_LINE_SWEEP: &str = "k = 250 mD
+T = 0 degC to 40 degC count 1000000
+K [m/s] = hydraulic_conductivity(k, T)
+rho = water_density(T)
+mu [cP] = water_viscosity(T)
+i = 0.02
+q [m/d] = K * i
+n = 0.3
+v [m/d] = q / n
+t [d] = 100 m / v
+";
+
+/// The same work as the sheets, written by hand in Rust on plain `f64` with the same
+/// formulations: the physical limit the evaluator is measured against.
+fn hand_loop(temperatures: &[f64], ten_lines: bool) -> Vec<Vec<f64>> {
+    use fluxsheet::library::water;
+    use uom::si::f64::{Pressure, ThermodynamicTemperature};
+    use uom::si::pressure::pascal;
+    use uom::si::thermodynamic_temperature::kelvin;
+    let k = 250.0 * 9.869_232_667_160_128e-16;
+    let p = Pressure::new::<pascal>(101_325.0);
+    let state = |t: f64| ThermodynamicTemperature::new::<kelvin>(t);
+    let conductivity: Vec<f64> = temperatures
+        .iter()
+        .map(|t| {
+            let (rho, mu) = water::density_and_viscosity(state(*t), p).expect("in range");
+            k * rho.value * 9.80665 / mu.value
+        })
+        .collect();
+    if !ten_lines {
+        return vec![conductivity];
+    }
+    let density: Vec<f64> = temperatures
+        .iter()
+        .map(|t| water::density(state(*t), p).expect("in range").value)
+        .collect();
+    let viscosity: Vec<f64> = temperatures
+        .iter()
+        .map(|t| water::viscosity(state(*t), p).expect("in range").value)
+        .collect();
+    let flux: Vec<f64> = conductivity.iter().map(|k| k * 0.02).collect();
+    let velocity: Vec<f64> = flux.iter().map(|q| q / 0.3).collect();
+    let time: Vec<f64> = velocity.iter().map(|v| 100.0 / v).collect();
+    vec![conductivity, density, viscosity, flux, velocity, time]
+}
+
+/// A sheet over a column of a million rows beside the hand-written loop doing the same work.
+fn columns(criterion: &mut Criterion) {
+    let library = Builtins::standard();
+    let mut group = criterion.benchmark_group("column_1M");
+    group.sample_size(10);
+    group.throughput(Throughput::Elements(COLUMN_ROWS as u64));
+    let temperatures: Vec<f64> = (0..COLUMN_ROWS)
+        .map(|row| 273.15 + 40.0 * row as f64 / (COLUMN_ROWS - 1) as f64)
+        .collect();
+    group.bench_function("hand_loop_K", |bencher| {
+        bencher.iter(|| hand_loop(black_box(&temperatures), false))
+    });
+    group.bench_function("sheet_K", |bencher| {
+        bencher.iter(|| {
+            let evaluation = evaluate_sheet(black_box(ONE_LINE_SWEEP), library);
+            assert!(!evaluation.has_errors());
+            evaluation
+        })
+    });
+    group.bench_function("hand_loop_10_lines", |bencher| {
+        bencher.iter(|| hand_loop(black_box(&temperatures), true))
+    });
+    group.bench_function("sheet_10_lines", |bencher| {
+        bencher.iter(|| {
+            let evaluation = evaluate_sheet(black_box(TEN_LINE_SWEEP), library);
+            assert!(!evaluation.has_errors());
+            evaluation
+        })
+    });
+    group.finish();
+}
+
+criterion_group!(
+    benches,
+    sheets,
+    property_calls,
+    check_folder,
+    session,
+    columns
+);
 criterion_main!(benches);

@@ -10,7 +10,7 @@ use super::brine;
 use super::formulation::{Formulation, OutOfRange};
 use super::water;
 use super::Builtin;
-use crate::eval::function::{expect_argument_count, expect_dimension, CallError};
+use crate::eval::function::{expect_argument_count, expect_dimension, CallError, RowKernel};
 use crate::eval::{Provenance, Quantity};
 use crate::units::Dimension;
 use uom::si::f64::{Pressure, Ratio, ThermodynamicTemperature};
@@ -45,8 +45,8 @@ const AIR_VISCOSITY: &[&Formulation] = &[&air::SUTHERLAND_AIR];
 const AIR_DENSITY: &[&Formulation] = &[&air::IDEAL_GAS_DRY_AIR];
 
 pub const FUNCTIONS: &[(&str, Builtin)] = &[
-    ("water_density", Builtin::new("water_density(T[, p])", "density of liquid water; p defaults to 101 325 Pa", water_density).citing(IF97)),
-    ("water_viscosity", Builtin::new("water_viscosity(T[, p])", "dynamic viscosity of liquid water at the IF97 density", water_viscosity).citing(IF97_AND_VISCOSITY)),
+    ("water_density", Builtin::new("water_density(T[, p])", "density of liquid water; p defaults to 101 325 Pa", water_density).citing(IF97).with_kernel(water_density_rows)),
+    ("water_viscosity", Builtin::new("water_viscosity(T[, p])", "dynamic viscosity of liquid water at the IF97 density", water_viscosity).citing(IF97_AND_VISCOSITY).with_kernel(water_viscosity_rows)),
     ("water_kinematic_viscosity", Builtin::new("water_kinematic_viscosity(T[, p])", "kinematic viscosity mu/rho of liquid water", water_kinematic_viscosity).citing(IF97_AND_VISCOSITY)),
     ("water_specific_heat", Builtin::new("water_specific_heat(T[, p])", "isobaric specific heat capacity cp of liquid water", water_specific_heat).citing(IF97)),
     ("water_thermal_conductivity", Builtin::new("water_thermal_conductivity(T[, p])", "thermal conductivity of liquid water (critical enhancement neglected)", water_thermal_conductivity).citing(IF97_AND_CONDUCTIVITY)),
@@ -55,8 +55,8 @@ pub const FUNCTIONS: &[(&str, Builtin)] = &[
     ("brine_viscosity", Builtin::new("brine_viscosity(T, S)", "dynamic viscosity of NaCl brine; S is the NaCl mass fraction", brine_viscosity).citing(BRINE_VISCOSITY)),
     ("air_viscosity", Builtin::new("air_viscosity(T)", "dynamic viscosity of dry air (Sutherland's law)", air_viscosity).citing(AIR_VISCOSITY)),
     ("air_density", Builtin::new("air_density(T, p)", "density of dry air as an ideal gas", air_density).citing(AIR_DENSITY)),
-    ("hydraulic_conductivity", Builtin::new("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", "K = k rho g0 / mu: for water at T (and p), or for any fluid of density rho and viscosity mu", hydraulic_conductivity).citing(IF97_AND_VISCOSITY)),
-    ("intrinsic_permeability", Builtin::new("intrinsic_permeability(K, T[, p]) or (K, rho, mu)", "k = K mu / (rho g0): for water at T (and p), or for any fluid", intrinsic_permeability).citing(IF97_AND_VISCOSITY)),
+    ("hydraulic_conductivity", Builtin::new("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", "K = k rho g0 / mu: for water at T (and p), or for any fluid of density rho and viscosity mu", hydraulic_conductivity).citing(IF97_AND_VISCOSITY).with_kernel(hydraulic_conductivity_rows)),
+    ("intrinsic_permeability", Builtin::new("intrinsic_permeability(K, T[, p]) or (K, rho, mu)", "k = K mu / (rho g0): for water at T (and p), or for any fluid", intrinsic_permeability).citing(IF97_AND_VISCOSITY).with_kernel(intrinsic_permeability_rows)),
 ];
 
 /// An absolute temperature argument; a temperature difference is refused.
@@ -269,12 +269,65 @@ fn fluid(arguments: &[Quantity], provenance: &mut Provenance) -> Result<(f64, f6
     }
     let t = temperature(arguments, 1)?;
     let p = pressure_or_standard(arguments, 2)?;
-    let density = water::density(t, p).map_err(refused)?.value;
-    let viscosity = water::viscosity(t, p).map_err(refused)?.value;
+    let (density, viscosity) = water::density_and_viscosity(t, p).map_err(refused)?;
     for formulation in IF97_AND_VISCOSITY {
         provenance.record(formulation);
     }
-    Ok((density, viscosity))
+    Ok((density.value, viscosity.value))
+}
+
+/// Row kernels: for columns, the arguments' dimensions and temperature kinds are checked once
+/// on the first row by the functions above; later rows go straight to the formulations.
+/// `(k or K, T[, p])` is the water form; the `(rho, mu)` form goes row by row.
+fn water_rows(first_row: &[Quantity], index: usize) -> Option<(bool, usize)> {
+    (first_row.get(index)?.dimension == TEMPERATURE).then_some((first_row.len() > index + 1, index))
+}
+
+/// T and p of a row whose temperature is at `index`.
+fn state(row: &[f64], index: usize, with_pressure: bool) -> (ThermodynamicTemperature, Pressure) {
+    let pascals = if with_pressure {
+        row[index + 1]
+    } else {
+        STANDARD_PRESSURE_PA
+    };
+    (
+        ThermodynamicTemperature::new::<kelvin>(row[index]),
+        Pressure::new::<pascal>(pascals),
+    )
+}
+
+fn hydraulic_conductivity_rows(first_row: &[Quantity]) -> Option<RowKernel<'static>> {
+    let (with_pressure, index) = water_rows(first_row, 1)?;
+    Some(Box::new(move |row: &[f64]| {
+        let (t, p) = state(row, index, with_pressure);
+        let (density, viscosity) = water::density_and_viscosity(t, p).map_err(refused)?;
+        Ok(row[0] * density.value * STANDARD_GRAVITY / viscosity.value)
+    }))
+}
+
+fn intrinsic_permeability_rows(first_row: &[Quantity]) -> Option<RowKernel<'static>> {
+    let (with_pressure, index) = water_rows(first_row, 1)?;
+    Some(Box::new(move |row: &[f64]| {
+        let (t, p) = state(row, index, with_pressure);
+        let (density, viscosity) = water::density_and_viscosity(t, p).map_err(refused)?;
+        Ok(row[0] * viscosity.value / (density.value * STANDARD_GRAVITY))
+    }))
+}
+
+fn water_density_rows(first_row: &[Quantity]) -> Option<RowKernel<'static>> {
+    let (with_pressure, index) = water_rows(first_row, 0)?;
+    Some(Box::new(move |row: &[f64]| {
+        let (t, p) = state(row, index, with_pressure);
+        Ok(water::density(t, p).map_err(refused)?.value)
+    }))
+}
+
+fn water_viscosity_rows(first_row: &[Quantity]) -> Option<RowKernel<'static>> {
+    let (with_pressure, index) = water_rows(first_row, 0)?;
+    Some(Box::new(move |row: &[f64]| {
+        let (t, p) = state(row, index, with_pressure);
+        Ok(water::viscosity(t, p).map_err(refused)?.value)
+    }))
 }
 
 fn hydraulic_conductivity(

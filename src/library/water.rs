@@ -295,6 +295,21 @@ pub fn viscosity(t: ThermodynamicTemperature, p: Pressure) -> Result<DynamicVisc
     )))
 }
 
+/// Density (IF97 region 1) and viscosity (IAPWS 2008 at that density) together, computing the
+/// density once: what `k <-> K` needs. Same range as `viscosity`.
+pub fn density_and_viscosity(
+    t: ThermodynamicTemperature,
+    p: Pressure,
+) -> Result<(MassDensity, DynamicViscosity), OutOfRange> {
+    let (t_k, p_pa) = (t.get::<kelvin>(), p.get::<pascal>());
+    check_region1(&IAPWS2008_VISCOSITY, t_k, p_pa)?;
+    let rho = region1_density(t_k, p_pa);
+    Ok((
+        MassDensity::new::<kilogram_per_cubic_meter>(rho),
+        DynamicViscosity::new::<pascal_second>(viscosity_raw(t_k, rho)),
+    ))
+}
+
 /// Dynamic viscosity by IAPWS 2008 from temperature and density, mu = mu0(T) * mu1(T, rho),
 /// critical enhancement neglected (mu2 = 1).
 ///
