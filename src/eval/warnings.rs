@@ -127,6 +127,12 @@ fn unused_lines(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec<Diag
                 sides.extend(check.tolerance.as_ref());
                 sides
             }
+            LineKind::Plot(plot) => {
+                for name in plot.series.iter().chain([&plot.against]) {
+                    used.insert(name.text.as_str());
+                }
+                Vec::new()
+            }
             _ => Vec::new(),
         };
         for expression in expressions {
@@ -154,7 +160,13 @@ fn unused_lines(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec<Diag
         };
         let name = definition.name.text.as_str();
         let displayed = definition.display_unit.is_some() || last_of_section.contains(&index);
-        if used.contains(name) || displayed || !matches!(outcome.result, LineResult::Value(_)) {
+        // A column of text (sample names) is there to label the column table's rows.
+        let labels = matches!(outcome.result, LineResult::Value(super::Shown::Labels(_)));
+        if used.contains(name)
+            || displayed
+            || labels
+            || !matches!(outcome.result, LineResult::Value(_))
+        {
             continue;
         }
         warnings.push(
