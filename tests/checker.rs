@@ -331,7 +331,7 @@ fn porosity_outside_zero_to_one() {
     assert!(warning_codes("n_e = 28 %\n").is_empty());
     assert!(warning_codes("n = 0.35\n").is_empty());
     // Other names are not porosities.
-    assert!(warning_codes("count = 28\n").is_empty());
+    assert!(warning_codes("layers = 28\n").is_empty());
     let evaluation = evaluate_sheet("n_e = 28\n", Builtins::standard());
     assert!(evaluation.diagnostics[0]
         .message

@@ -14,6 +14,7 @@
 
 mod checker;
 mod cli;
+mod columns;
 mod errors;
 mod includes;
 mod plot;

@@ -288,3 +288,69 @@ fn resistivity_porosity_pins() {
         "j in mA/m^2",
     );
 }
+
+/// The twelve cores of `data/larchfield_cores.csv`, re-read here, averaged by the textbook
+/// formulas (geometric mean; Freeze & Cherry 1979 eqs. 2.31-2.32 for the layered means) with
+/// K from `seuif97`'s water at 20 degC; the design temperature by bisection on seuif97.
+#[test]
+fn core_sweep_pins() {
+    use seuif97::{pt, OD, ODV};
+    let json = run_json(&worksheet("core_sweep.fxs"));
+    let water = |celsius: f64| {
+        let density = pt(0.101325, celsius, (OD, 1));
+        let viscosity = pt(0.101325, celsius, (ODV, 1));
+        density * 9.80665 / viscosity
+    };
+    let millidarcy = 1e-15 / 1.01325;
+    let data = std::fs::read_to_string(worksheet("data/larchfield_cores.csv")).unwrap();
+    let rows: Vec<(f64, f64)> = data
+        .lines()
+        .filter(|line| !line.starts_with('#') && !line.starts_with("sample"))
+        .map(|line| {
+            let cells: Vec<&str> = line.split(',').collect();
+            (cells[2].parse().unwrap(), cells[3].parse().unwrap())
+        })
+        .collect();
+    assert_eq!(rows.len(), 12);
+    let geometric = (rows.iter().map(|(k, _)| f64::ln(*k)).sum::<f64>() / rows.len() as f64).exp();
+    assert_close(value(&json, "k_geometric"), geometric, 1e-12, "k_geometric");
+    let conductivity: Vec<(f64, f64)> = rows
+        .iter()
+        .map(|(k, b)| (k * millidarcy * water(20.0), *b))
+        .collect();
+    let thickness: f64 = conductivity.iter().map(|(_, b)| b).sum();
+    let along = conductivity.iter().map(|(k, b)| k * b).sum::<f64>() / thickness;
+    let across = thickness / conductivity.iter().map(|(k, b)| b / k).sum::<f64>();
+    assert_close(value(&json, "K_along"), along, 1e-11, "K_along");
+    assert_close(value(&json, "K_across"), across, 1e-11, "K_across");
+    let sweep = json["lines"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|line| line["name"] == "K_sweep")
+        .unwrap()["value"]
+        .as_array()
+        .unwrap()
+        .clone();
+    assert_eq!(sweep.len(), 9);
+    for (row, celsius) in (0..9).map(|row| (row, 5.0 * row as f64)) {
+        let expected = geometric * millidarcy * water(celsius);
+        assert_close(sweep[row].as_f64().unwrap(), expected, 1e-11, "K_sweep");
+    }
+    let target = 4.0e-6;
+    let (mut low, mut high) = (0.0, 40.0);
+    for _ in 0..100 {
+        let middle = 0.5 * (low + high);
+        if geometric * millidarcy * water(middle) < target {
+            low = middle;
+        } else {
+            high = middle;
+        }
+    }
+    assert_close(
+        value(&json, "T_design"),
+        0.5 * (low + high),
+        1e-9,
+        "T_design",
+    );
+}

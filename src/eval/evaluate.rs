@@ -891,6 +891,7 @@ impl<'a> Evaluator<'a> {
             let text = text_of(self.sources, definition.expression.span);
             self.overridden.insert(index, text);
         }
+        let outcome = outcome.map(|shown| with_origin(shown, &definition.name.text));
         self.settle(index, outcome);
     }
 
@@ -1899,6 +1900,18 @@ impl<'l> Calculator<'l> {
             }
         }
         Ok(value)
+    }
+}
+
+/// A column made on this line (a list, a range, a data file) is named after the line, so that
+/// errors about its rows and length say where it came from.
+pub(crate) fn with_origin(shown: Shown, name: &str) -> Shown {
+    match shown {
+        Shown::Column(mut shown) if shown.column.origin.is_empty() => {
+            shown.column.origin = Arc::from(name);
+            Shown::Column(shown)
+        }
+        other => other,
     }
 }
 

@@ -16,7 +16,7 @@
 
 use super::diagnostic::Diagnostic;
 use super::error::{EvalError, EvalErrorKind};
-use super::evaluate::{Calculator, Failure, LineResult, Scope, Shown};
+use super::evaluate::{with_origin, Calculator, Failure, LineResult, Scope, Shown};
 use super::function::Library;
 use super::order::dependency_order;
 use crate::syntax::{parse_line, Expression, FunctionDefinition, Line, LineKind, Span};
@@ -846,7 +846,7 @@ fn evaluate_line(
                 definition.display_unit.as_ref(),
                 scope,
             )
-            .map(LineResult::Value),
+            .map(|shown| LineResult::Value(with_origin(shown, &definition.name.text))),
         LineKind::Display(display) => calculator
             .line_value(&display.expression, display.display_unit.as_ref(), scope)
             .map(LineResult::Value),

@@ -127,7 +127,9 @@ impl Calculator<'_> {
             ));
         }
         let trial_shape = unknown_value.quantity;
+        let mut last_trial = f64::NAN;
         let mut trial = |x: f64| -> Result<f64, Failure> {
+            last_trial = x;
             let mut values: HashMap<String, Shown> = HashMap::default();
             // Only the quantity of a trial value is read by the lines that use it.
             let quantity = Quantity {
@@ -177,6 +179,21 @@ impl Calculator<'_> {
             MAX_ITERATIONS,
         )
         .map_err(|failure| match failure {
+            // A pole inside the bracket: the line has no value there, so it jumps.
+            SolveError::Function(Failure::Error(inner))
+                if matches!(
+                    inner.kind.as_ref(),
+                    EvalErrorKind::DivisionByZero | EvalErrorKind::NotFinite
+                ) =>
+            {
+                error(
+                    format!(
+                        "`{target}` is not continuous in the bracket: it has no value at `{unknown}` = {last_trial:.6e} (SI) ({}); choose a bracket that leaves that point out",
+                        inner.kind
+                    ),
+                    span,
+                )
+            }
             SolveError::Function(Failure::Error(inner)) => {
                 Failure::Error(inner.with_label(span, format!("while solving for `{unknown}`")))
             }
