@@ -188,7 +188,8 @@ fn unreachable_shape<T>() -> Result<T, EvalError> {
 
 /// Refuses a column longer than `limit` before anything is allocated.
 pub(crate) fn check_rows(rows: f64, limit: usize, span: Span) -> Result<usize, EvalError> {
-    if !(rows <= limit as f64) {
+    // NaN rows (a NaN count) are refused too.
+    if rows.is_nan() || rows > limit as f64 {
         return Err(EvalError::new(
             EvalErrorKind::TooManyRows { rows, limit },
             span,

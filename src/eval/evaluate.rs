@@ -119,7 +119,8 @@ pub struct PlotOutcome {
 #[derive(Debug, Clone, PartialEq)]
 pub enum Shown {
     Scalar(ShownValue),
-    Column(ShownColumn),
+    /// Boxed: a column's unit conversion is large, and most lines are scalars.
+    Column(Box<ShownColumn>),
     /// A column of text (sample names) from a data file.
     Labels(Labels),
 }
@@ -1718,7 +1719,7 @@ impl<'l> Calculator<'l> {
                 )
                 .into()),
                 Some(None) => Err(Failure::Upstream(name.text.clone())),
-                Some(Some(Shown::Column(column))) => Ok(column.clone()),
+                Some(Some(Shown::Column(column))) => Ok(column.as_ref().clone()),
                 Some(Some(_)) => Err(EvalError::new(
                     EvalErrorKind::Plot {
                         message: format!(
@@ -1977,7 +1978,7 @@ fn present(value: Value, unit: Option<(&Unit, &str)>, span: Span) -> Result<Show
                 let origin = shown.column.origin.to_string();
                 return Err(EvalError::new(EvalErrorKind::NotFinite, span).in_row(row, &origin));
             }
-            Ok(Shown::Column(shown))
+            Ok(Shown::Column(Box::new(shown)))
         }
         Value::Labels(labels) => match unit {
             Some(_) => Err(EvalError::new(
