@@ -25,6 +25,11 @@ proptest! {
         Just("check "), Just("<="), Just("within"), Just("#"), Just("##"), Just("%"), Just("0.5"),
         Just("f("), Just("g(x) = "), Just("[m/s]"), Just("include \"a.fxs\""), Just("f(x [m]) = x"),
         Just("water_density("), Just("degF"), Just("-"), Just("^"), Just("(1/2)"),
+        Just("{1, 2, 3} m"), Just("{"), Just("}"), Just(" to "), Just(" step "), Just(" count "),
+        Just(" log"), Just("0 degC to 40 degC step 5 K"), Just("1 mD to 1 darcy count 4 log"),
+        Just("solve y == 2 m for x between 0 m and 5 m"), Just("plot y against x"), Just("mean("),
+        Just("geomean("), Just("layered_across("), Just("interpolate("), Just("min("), Just("count("),
+        Just("hydraulic_conductivity(250 mD, "), Just("column k from \"c.csv\""),
     ], 0..40)) {
         let text: String = tokens.concat();
         let evaluation = evaluate_sheet(&text, Builtins::standard());
