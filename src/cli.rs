@@ -18,7 +18,7 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
-mod includes;
+pub(crate) mod includes;
 mod plots;
 mod properties;
 mod report;

@@ -280,6 +280,7 @@ impl Repl {
             let flow = if text.trim_start().starts_with(':') {
                 self.command(text.trim(), out, err)?
             } else {
+                self.read_data_files(text, None);
                 let report = self.session.enter(text);
                 self.print_entry(&report, out, err)?;
                 Flow::Continue
@@ -380,10 +381,17 @@ impl Repl {
             )),
             LineResult::Function { signature } => Some(format!("{signature}: function")),
             LineResult::Include { file } => Some(format!("include {file}")),
-            LineResult::Blank
-            | LineResult::Comment
-            | LineResult::Heading(_)
-            | LineResult::Plot(_) => None,
+            LineResult::Plot(plot) => Some(format!(
+                "plot of {} against {} ({} points): `:save` the session, then `fluxsheet run SHEET --plot FILE.svg` draws it",
+                plot.series
+                    .iter()
+                    .map(|(name, _)| format!("`{name}`"))
+                    .collect::<Vec<_>>()
+                    .join(", "),
+                plot.x_label,
+                plot.x.len()
+            )),
+            LineResult::Blank | LineResult::Comment | LineResult::Heading(_) => None,
         }
     }
 
@@ -698,6 +706,29 @@ impl Repl {
         Ok(())
     }
 
+    /// Reads the data files that the `column … from` lines of `text` name, relative to the sheet
+    /// at `sheet` (or the current folder for typed entries), under the same folder rule as
+    /// `run`, and hands them to the session.
+    fn read_data_files(&mut self, text: &str, sheet: Option<&Path>) {
+        let label = sheet.map_or("<session>".to_string(), |path| path.display().to_string());
+        let mut loader = crate::cli::includes::FileIncludeLoader::new(&label, sheet, false);
+        for (index, line) in text.lines().enumerate() {
+            let Ok(parsed) = crate::syntax::parse_line(line, index + 1, 0) else {
+                continue;
+            };
+            let crate::syntax::LineKind::Definition(definition) = parsed.kind else {
+                continue;
+            };
+            if let crate::syntax::ExpressionKind::FileColumn { path, .. } =
+                &definition.expression.kind
+            {
+                let read = crate::eval::IncludeLoader::load(&mut loader, path, &label)
+                    .map(|file| file.text);
+                self.session.provide_data_file(path, read);
+            }
+        }
+    }
+
     /// Loads a sheet into the session; `false` if it cannot be read.
     fn load(&mut self, path: &Path, out: &mut dyn Write, err: &mut dyn Write) -> io::Result<bool> {
         let label = path.display().to_string();
@@ -715,6 +746,7 @@ impl Repl {
             }
         };
         let was_empty = self.session.lines().is_empty() && !self.session.is_modified();
+        self.read_data_files(&text, Some(path));
         let report = self.session.load(&text);
         self.names_changed = true;
         out.flush()?;

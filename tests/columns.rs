@@ -591,7 +591,12 @@ fn check_against_an_earlier_run_compares_columns_row_by_row() {
     let (code, earlier, _) = run_file(&sheet, &["--format", "json"]);
     assert_eq!(code, 0);
     let earlier_path = write(folder.path(), "earlier.json", &earlier);
-    let against = ["check", sheet.to_str().unwrap(), "--against", earlier_path.to_str().unwrap()];
+    let against = [
+        "check",
+        sheet.to_str().unwrap(),
+        "--against",
+        earlier_path.to_str().unwrap(),
+    ];
     let (code, stdout, stderr) = run(&against);
     assert_eq!(code, 0, "{stdout}{stderr}");
     std::fs::write(&sheet, "q = {1, 2.5, 3} m/d\nq\n").unwrap();
@@ -600,5 +605,8 @@ fn check_against_an_earlier_run_compares_columns_row_by_row() {
     assert!(stdout.contains("`q` moved in row 2"), "{stdout}");
     std::fs::write(&sheet, "q = {1, 2} m/d\nq\n").unwrap();
     let (code, stdout, _) = run(&against);
-    assert_ne!(code, 0, "a column of another length is not the same value: {stdout}");
+    assert_ne!(
+        code, 0,
+        "a column of another length is not the same value: {stdout}"
+    );
 }

@@ -359,3 +359,17 @@ include \"other.fxs\"\n";
         "{stderr}"
     );
 }
+
+/// A loaded sheet's data files are read relative to the sheet, its columns print as their
+/// first rows, and its plot lines are kept and say how to draw them.
+#[test]
+fn loading_a_sheet_with_data_files_columns_and_plots() {
+    let sheet = worksheet("core_sweep.fxs");
+    let script = "k_geometric\nK_sweep\nplot K_sweep against T_sweep\nmean(k_core) [mD]\n";
+    let (code, stdout, stderr) = session(&["repl", sheet.to_str().unwrap()], script);
+    assert_eq!(code, 0, "{stderr}");
+    assert!(stdout.contains("447.1 mD"), "{stdout}");
+    assert!(stdout.contains("(9 rows)"), "{stdout}");
+    assert!(stdout.contains("--plot FILE.svg"), "{stdout}");
+    assert!(stdout.contains("749.3 mD"), "{stdout}");
+}

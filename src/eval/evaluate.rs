@@ -540,6 +540,8 @@ pub(crate) struct Calculator<'l> {
     pub(crate) data_files: HashMap<usize, Result<Arc<DataTable>, EvalError>>,
     /// Notes on how values were found (a solve's iterations), by expression span start.
     pub(crate) notes: HashMap<usize, String>,
+    /// Data files handed to a session, by the path as written.
+    pub(crate) data_by_path: HashMap<String, Result<Arc<DataTable>, String>>,
 }
 
 /// Builds the scope of a sheet from the evaluator's fields (a macro so that the calculator can
@@ -1035,6 +1037,7 @@ impl<'l> Calculator<'l> {
             max_rows: super::columns::DEFAULT_MAX_ROWS,
             data_files: HashMap::default(),
             notes: HashMap::default(),
+            data_by_path: HashMap::default(),
         }
     }
 
@@ -1052,7 +1055,11 @@ impl<'l> Calculator<'l> {
             }
             ExpressionKind::List { items, unit } => self.list(items, unit.as_ref(), span)?,
             ExpressionKind::Range(range) => self.range(range, span, scope)?,
-            ExpressionKind::FileColumn { header, .. } => self.file_column(header, span)?,
+            ExpressionKind::FileColumn {
+                header,
+                path,
+                path_span,
+            } => self.file_column(header, path, *path_span, span)?,
             ExpressionKind::Solve(solve) => self.solve(solve, span, scope)?,
             ExpressionKind::Name(name) => self.name(name, span, scope)?,
             ExpressionKind::Call {
@@ -1400,12 +1407,28 @@ impl<'l> Calculator<'l> {
         }))
     }
 
-    /// `column k from "file.csv"`: the file was read and checked when the sheet loaded.
-    fn file_column(&mut self, header: &crate::syntax::Name, span: Span) -> Result<Value, Failure> {
-        let table = match self.data_files.get(&span.start) {
-            Some(Ok(table)) => table.clone(),
-            Some(Err(error)) => return Err(error.clone().into()),
-            None => {
+    /// `column k from "file.csv"`: the file was read and checked when the sheet loaded (or,
+    /// in a session, when the entry or sheet naming it was read).
+    fn file_column(
+        &mut self,
+        header: &crate::syntax::Name,
+        path: &str,
+        path_span: Span,
+        span: Span,
+    ) -> Result<Value, Failure> {
+        let table = match (
+            self.data_files.get(&span.start),
+            self.data_by_path.get(path),
+        ) {
+            (Some(Ok(table)), _) | (None, Some(Ok(table))) => table.clone(),
+            (Some(Err(error)), _) => return Err(error.clone().into()),
+            (None, Some(Err(message))) => {
+                let kind = EvalErrorKind::DataFile {
+                    message: message.clone(),
+                };
+                return Err(EvalError::new(kind, path_span).into());
+            }
+            (None, None) => {
                 return Err(EvalError::new(
                     EvalErrorKind::DataFile {
                         message: "data files are read only in sheets run from a file".to_string(),
@@ -1519,13 +1542,19 @@ impl<'l> Calculator<'l> {
             );
         }
         // A data-file column shows in its header's unit.
-        if let ExpressionKind::FileColumn { header, .. } = &expression.kind {
-            let written = match self.data_files.get(&expression.span.start) {
-                Some(Ok(table)) => table
-                    .column(&header.text)
-                    .and_then(|column| column.unit.clone()),
+        if let ExpressionKind::FileColumn { header, path, .. } = &expression.kind {
+            let table = match (
+                self.data_files.get(&expression.span.start),
+                self.data_by_path.get(path),
+            ) {
+                (Some(Ok(table)), _) | (None, Some(Ok(table))) => Some(table.clone()),
                 _ => None,
             };
+            let written = table.and_then(|table| {
+                table
+                    .column(&header.text)
+                    .and_then(|column| column.unit.clone())
+            });
             if let Some(text) = written {
                 let unit = crate::syntax::parse_unit(&text)
                     .ok()

@@ -224,6 +224,16 @@ impl<'l> Session<'l> {
         names
     }
 
+    /// Hands the session a data file that `column … from "path"` entries read (`text` is the
+    /// file's content, or why it could not be read). Front ends read files; the session does no
+    /// I/O.
+    pub fn provide_data_file(&mut self, path: &str, text: Result<String, String>) {
+        let table = text.and_then(|text| {
+            super::data::read_table(path, &text, self.calculator.max_rows).map(std::sync::Arc::new)
+        });
+        self.calculator.data_by_path.insert(path.to_string(), table);
+    }
+
     /// The last result, if any.
     pub fn last_result(&self) -> Option<&Shown> {
         match &self.last {
@@ -293,13 +303,8 @@ impl<'l> Session<'l> {
         };
         match &line.kind {
             LineKind::Blank | LineKind::Invalid => {}
-            LineKind::Include(_) | LineKind::Plot(_) => {
-                let message = match &line.kind {
-                    LineKind::Plot(_) => {
-                        "plots are drawn from sheets: `fluxsheet run SHEET --plot FILE.svg`"
-                    }
-                    _ => "includes are not available in a session; `:load` the sheet instead",
-                };
+            LineKind::Include(_) => {
+                let message = "includes are not available in a session; `:load` the sheet instead";
                 report.outcome = Outcome::Refused;
                 report
                     .diagnostics
@@ -332,7 +337,7 @@ impl<'l> Session<'l> {
                     }
                 }
             }
-            LineKind::Check(_) => self.keep_new(line, &mut report),
+            LineKind::Check(_) | LineKind::Plot(_) => self.keep_new(line, &mut report),
             LineKind::Definition(_) | LineKind::Function(_) => {
                 let Some((name, name_span)) = line_name_and_span(&line) else {
                     return report;
@@ -819,6 +824,11 @@ fn references_of(line: &Line) -> Vec<String> {
         expression.for_each_name(&mut |name, _| add(name));
         expression.for_each_call(&mut |name, _| add(name));
     });
+    if let LineKind::Plot(plot) = &line.kind {
+        for name in plot.series.iter().chain([&plot.against]) {
+            add(&name.text);
+        }
+    }
     names
 }
 
@@ -833,9 +843,10 @@ fn evaluate_line(
         LineKind::Comment => return (LineResult::Comment, Vec::new()),
         LineKind::Heading(heading) => return (LineResult::Heading(heading.clone()), Vec::new()),
         // Refused on entry; a loaded sheet's includes are not followed in a session.
-        LineKind::Invalid | LineKind::Include(_) | LineKind::Plot(_) => {
-            return (LineResult::Error, Vec::new())
-        }
+        LineKind::Invalid | LineKind::Include(_) => return (LineResult::Error, Vec::new()),
+        LineKind::Plot(plot) => calculator
+            .plot(plot, scope)
+            .map(|outcome| LineResult::Plot(Box::new(outcome))),
         LineKind::Function(function) => calculator
             .check_function_units(function)
             .map(|signature| LineResult::Function { signature })
