@@ -14,8 +14,9 @@ pub struct EvalError {
     pub span: Span,
     /// Other places worth showing: a function's definition for an error in a call.
     pub labels: Vec<(Span, String)>,
-    /// The row of a column the error happened in: 1-based row and the column's origin line.
-    pub row: Option<(usize, String)>,
+    /// The row of a column the error happened in: 1-based row and the column's origin line
+    /// (boxed: rare, and errors travel the evaluator's hot path).
+    pub row: Option<Box<(usize, String)>>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -166,7 +167,7 @@ impl EvalError {
     /// Marks the error as happening in row `row` (0-based) of the column from `origin`.
     pub fn in_row(mut self, row: usize, origin: &str) -> EvalError {
         if self.row.is_none() {
-            self.row = Some((row + 1, origin.to_string()));
+            self.row = Some(Box::new((row + 1, origin.to_string())));
         }
         self
     }
@@ -231,7 +232,7 @@ fn with_unit(dimension: &Dimension) -> String {
 impl fmt::Display for EvalError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
         self.kind.fmt(formatter)?;
-        match &self.row {
+        match self.row.as_deref() {
             Some((row, origin)) => write!(formatter, " (in row {row} of `{origin}`)"),
             None => Ok(()),
         }

@@ -1193,20 +1193,30 @@ impl<'l> Calculator<'l> {
                 }
             }
         }
-        let first_row: Vec<Quantity> = values
-            .iter()
-            .map(|value| {
-                value
-                    .quantity_at(0)
-                    .unwrap_or(Quantity::dimensionless(f64::NAN))
-            })
-            .collect();
+        let row_one = |value: &Value| {
+            value
+                .quantity_at(0)
+                .unwrap_or(Quantity::dimensionless(f64::NAN))
+        };
         let Some(rows) = rows else {
+            // All single values, the common case: short calls pass them on the stack.
+            let mut buffer = [Quantity::dimensionless(0.0); SHORT_CALL];
+            let owned: Vec<Quantity>;
+            let scalars: &[Quantity] = if values.len() <= SHORT_CALL {
+                for (slot, value) in buffer.iter_mut().zip(&values) {
+                    *slot = row_one(value);
+                }
+                &buffer[..values.len()]
+            } else {
+                owned = values.iter().map(row_one).collect();
+                &owned
+            };
             return callee
-                .call(&first_row, &mut self.provenance)
+                .call(scalars, &mut self.provenance)
                 .map(Value::Scalar)
                 .map_err(|error| call_error(error).into());
         };
+        let first_row: Vec<Quantity> = values.iter().map(row_one).collect();
         let origin: Arc<str> = Arc::from(super::columns::origin(&values[first_column]));
         if rows == 0 {
             return Err(EvalError::new(
@@ -2020,6 +2030,9 @@ fn present(value: Value, unit: Option<(&Unit, &str)>, span: Span) -> Result<Show
         },
     }
 }
+
+/// Calls with at most this many arguments pass them on the stack.
+const SHORT_CALL: usize = 8;
 
 /// Nesting of sheet-function calls beyond which a call is refused (recursion is refused at
 /// definition, so only a pathological chain of distinct functions reaches it).

@@ -290,7 +290,7 @@ impl Builder {
                 }
                 Rule::parameters => parameters = Some(self.parameters(inner)?),
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
-                Rule::expression | Rule::range | Rule::file_column | Rule::solve => {
+                Rule::ranged | Rule::file_column | Rule::solve => {
                     expression = Some(self.line_value(inner)?)
                 }
                 _ => {}
@@ -433,14 +433,22 @@ impl Builder {
     fn line_value(&self, pair: Pair<Rule>) -> Result<Expression, SyntaxError> {
         let span = self.span(&pair);
         let rule = pair.as_rule();
-        if rule == Rule::expression {
-            return self.expression(pair);
+        if rule == Rule::ranged {
+            // The common case, a plain expression, builds nothing else.
+            let mut inner = pair.into_inner();
+            let from = inner.next().ok_or_else(|| internal(span.start))?;
+            let from = self.expression(from)?;
+            return match inner.next() {
+                None => Ok(from),
+                Some(tail) => Ok(Expression {
+                    kind: ExpressionKind::Range(Box::new(self.range(from, tail)?)),
+                    span,
+                }),
+            };
         }
         let mut expressions = Vec::new();
         let mut names = Vec::new();
         let mut path = None;
-        let mut logarithmic = false;
-        let mut by_count = false;
         for inner in pair.into_inner() {
             match inner.as_rule() {
                 Rule::expression => expressions.push(self.expression(inner)?),
@@ -456,25 +464,10 @@ impl Builder {
                         .map(|text| text.as_str().to_string());
                     path = Some((text.unwrap_or_default(), path_span));
                 }
-                Rule::count_keyword => by_count = true,
-                Rule::log_keyword => logarithmic = true,
                 _ => {}
             }
         }
         let kind = match rule {
-            Rule::range => {
-                let [from, to, spacing]: [Expression; 3] =
-                    expressions.try_into().map_err(|_| internal(span.start))?;
-                let spacing = if by_count {
-                    Spacing::Count {
-                        count: spacing,
-                        logarithmic,
-                    }
-                } else {
-                    Spacing::Step(spacing)
-                };
-                ExpressionKind::Range(Box::new(Range { from, to, spacing }))
-            }
             Rule::file_column => {
                 let (Some(header), Some((path, path_span))) = (names.pop(), path) else {
                     return Err(internal(span.start));
@@ -501,6 +494,31 @@ impl Builder {
             _ => return Err(internal(span.start)),
         };
         Ok(Expression { kind, span })
+    }
+
+    /// `from` and the tail `to B step S` or `to B count N [log]`.
+    fn range(&self, from: Expression, tail: Pair<Rule>) -> Result<Range, SyntaxError> {
+        let start = self.span(&tail).start;
+        let mut expressions = Vec::new();
+        let (mut by_count, mut logarithmic) = (false, false);
+        for inner in tail.into_inner() {
+            match inner.as_rule() {
+                Rule::expression => expressions.push(self.expression(inner)?),
+                Rule::count_keyword => by_count = true,
+                Rule::log_keyword => logarithmic = true,
+                _ => {}
+            }
+        }
+        let [to, spacing]: [Expression; 2] = expressions.try_into().map_err(|_| internal(start))?;
+        let spacing = if by_count {
+            Spacing::Count {
+                count: spacing,
+                logarithmic,
+            }
+        } else {
+            Spacing::Step(spacing)
+        };
+        Ok(Range { from, to, spacing })
     }
 
     /// `plot a, b against x log y "title"`, and the line's trailing comment.
