@@ -54,16 +54,7 @@ fn write(path: &Path, text: &str) {
 
 /// Runs the binary in `folder` and returns (exit code, stdout, stderr).
 fn run_in(folder: &Path, arguments: &[&str]) -> (i32, String, String) {
-    let output = fluxsheet()
-        .current_dir(folder)
-        .args(arguments)
-        .output()
-        .unwrap();
-    (
-        output.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&output.stdout).into_owned(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
-    )
+    crate::util::outcome(fluxsheet().current_dir(folder).args(arguments))
 }
 
 const GOOD: &str = "## A clean sheet\nL = 2 ft\nL_m [m] = L\ncheck L_m < 1 m \"short\"\n";

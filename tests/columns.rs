@@ -1,7 +1,7 @@
 //! Columns: lists, ranges, data files, column arithmetic, aggregates and layered media,
 //! interpolation, solve, overrides, limits and plots. Reference values name their source.
 
-use crate::util::{assert_close, fluxsheet, run, run_sheet};
+use crate::util::{assert_close, fluxsheet, outcome, run, run_sheet};
 use fluxsheet::eval::{evaluate_sheet, Evaluation, LineResult, Shown};
 use fluxsheet::library::Builtins;
 use std::path::Path;
@@ -53,17 +53,7 @@ fn write(folder: &Path, name: &str, text: &str) -> std::path::PathBuf {
 }
 
 fn run_file(path: &Path, arguments: &[&str]) -> (i32, String, String) {
-    let output = fluxsheet()
-        .arg("run")
-        .arg(path)
-        .args(arguments)
-        .output()
-        .unwrap();
-    (
-        output.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&output.stdout).into_owned(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
-    )
+    outcome(fluxsheet().arg("run").arg(path).args(arguments))
 }
 
 #[test]

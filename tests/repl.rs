@@ -5,16 +5,11 @@ use crate::util::{assert_close, fluxsheet, run, worksheet};
 
 /// Runs `fluxsheet ARGS…` with `script` on standard input; (exit code, stdout, stderr).
 fn session(arguments: &[&str], script: &str) -> (i32, String, String) {
-    let output = fluxsheet()
-        .env("FLUXSHEET_HISTORY", "off")
-        .args(arguments)
-        .write_stdin(script)
-        .output()
-        .expect("binary runs");
-    (
-        output.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&output.stdout).into_owned(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
+    crate::util::outcome(
+        fluxsheet()
+            .env("FLUXSHEET_HISTORY", "off")
+            .args(arguments)
+            .write_stdin(script),
     )
 }
 

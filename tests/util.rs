@@ -10,9 +10,9 @@ pub fn fluxsheet() -> Command {
     command
 }
 
-/// Runs `fluxsheet ARGS…` and returns (exit code, stdout, stderr).
-pub fn run(arguments: &[&str]) -> (i32, String, String) {
-    let output = fluxsheet().args(arguments).output().expect("binary runs");
+/// Runs a prepared command; (exit code, stdout, stderr).
+pub fn outcome(command: &mut Command) -> (i32, String, String) {
+    let output = command.output().expect("binary runs");
     (
         output.status.code().unwrap_or(-1),
         String::from_utf8_lossy(&output.stdout).into_owned(),
@@ -20,19 +20,19 @@ pub fn run(arguments: &[&str]) -> (i32, String, String) {
     )
 }
 
+/// Runs `fluxsheet ARGS…` and returns (exit code, stdout, stderr).
+pub fn run(arguments: &[&str]) -> (i32, String, String) {
+    outcome(fluxsheet().args(arguments))
+}
+
 /// Runs a sheet given as text through `fluxsheet run -` with extra arguments.
 pub fn run_sheet(sheet: &str, arguments: &[&str]) -> (i32, String, String) {
-    let output = fluxsheet()
-        .arg("run")
-        .args(arguments)
-        .arg("-")
-        .write_stdin(sheet)
-        .output()
-        .expect("binary runs");
-    (
-        output.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&output.stdout).into_owned(),
-        String::from_utf8_lossy(&output.stderr).into_owned(),
+    outcome(
+        fluxsheet()
+            .arg("run")
+            .args(arguments)
+            .arg("-")
+            .write_stdin(sheet),
     )
 }
 

@@ -110,17 +110,11 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
     for pair in line_pair.into_inner() {
         match pair.as_rule() {
             Rule::heading => {
-                let text = pair
-                    .into_inner()
-                    .next()
-                    .map(|inner| inner.as_str().trim().to_string());
+                let text = inner_text(pair).map(|text| text.trim().to_string());
                 kind = LineKind::Heading(text.unwrap_or_default());
             }
             Rule::comment => {
-                comment = pair
-                    .into_inner()
-                    .next()
-                    .map(|inner| inner.as_str().trim().to_string());
+                comment = inner_text(pair).map(|text| text.trim().to_string());
             }
             Rule::definition => kind = builder.definition(pair)?,
             Rule::include_line => {
@@ -128,18 +122,11 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
                     match inner.as_rule() {
                         Rule::quoted_path => {
                             let path_span = builder.span(&inner);
-                            let path = inner
-                                .into_inner()
-                                .next()
-                                .map(|text| text.as_str().to_string())
-                                .unwrap_or_default();
+                            let path = inner_text(inner).unwrap_or_default();
                             kind = LineKind::Include(Include { path, path_span });
                         }
                         Rule::comment => {
-                            comment = inner
-                                .into_inner()
-                                .next()
-                                .map(|text| text.as_str().trim().to_string());
+                            comment = inner_text(inner).map(|text| text.trim().to_string());
                         }
                         _ => {}
                     }
@@ -205,6 +192,13 @@ pub fn parse_set_value(text: &str, offset: usize) -> Result<Expression, SyntaxEr
         .and_then(|pair| pair.into_inner().next())
         .ok_or_else(|| internal(offset))?;
     Builder { offset }.line_value(value)
+}
+
+/// The text of a pair's first inner pair: a message's text, a comment's, a path's.
+fn inner_text(pair: Pair<Rule>) -> Option<String> {
+    pair.into_inner()
+        .next()
+        .map(|text| text.as_str().to_string())
 }
 
 /// Rejects nesting and operator counts that would exhaust the stack in a recursive parser.
@@ -383,18 +377,8 @@ impl Builder {
                     tolerance_text = Some(expression.as_str().trim().to_string());
                     tolerance = Some(self.expression(expression)?);
                 }
-                Rule::message => {
-                    message = inner
-                        .into_inner()
-                        .next()
-                        .map(|text| text.as_str().to_string())
-                }
-                Rule::comment => {
-                    comment = inner
-                        .into_inner()
-                        .next()
-                        .map(|text| text.as_str().trim().to_string())
-                }
+                Rule::message => message = inner_text(inner),
+                Rule::comment => comment = inner_text(inner).map(|text| text.trim().to_string()),
                 _ => {}
             }
         }
@@ -458,10 +442,7 @@ impl Builder {
                 }),
                 Rule::quoted_path => {
                     let path_span = self.span(&inner);
-                    let text = inner
-                        .into_inner()
-                        .next()
-                        .map(|text| text.as_str().to_string());
+                    let text = inner_text(inner);
                     path = Some((text.unwrap_or_default(), path_span));
                 }
                 _ => {}
@@ -541,18 +522,8 @@ impl Builder {
                         log_y = true;
                     }
                 }
-                Rule::message => {
-                    title = inner
-                        .into_inner()
-                        .next()
-                        .map(|text| text.as_str().to_string())
-                }
-                Rule::comment => {
-                    comment = inner
-                        .into_inner()
-                        .next()
-                        .map(|text| text.as_str().trim().to_string())
-                }
+                Rule::message => title = inner_text(inner),
+                Rule::comment => comment = inner_text(inner).map(|text| text.trim().to_string()),
                 _ => {}
             }
         }
