@@ -111,35 +111,36 @@ fn refuse_absolute_temperature(rows: &Rows, what: &str) -> Result<(), CallError>
     Ok(())
 }
 
-fn sum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
+/// An aggregate of one column: same dimension and temperature kind as the rows. `refused`
+/// names the aggregate when it has no meaning for absolute temperatures.
+fn aggregate(
+    arguments: &[Value],
+    refused: Option<&str>,
+    reduce: impl Fn(&[f64]) -> Result<f64, ColumnError>,
+) -> Option<Result<Value, CallError>> {
     Some(single(arguments).and_then(|rows| {
-        refuse_absolute_temperature(&rows, "sum")?;
-        let total = numeric::sum(rows.values).map_err(numeric_error(0))?;
-        Ok(scalar(total, rows.dimension, rows.temperature))
+        if let Some(what) = refused {
+            refuse_absolute_temperature(&rows, what)?;
+        }
+        let value = reduce(rows.values).map_err(numeric_error(0))?;
+        Ok(scalar(value, rows.dimension, rows.temperature))
     }))
+}
+
+fn sum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
+    aggregate(arguments, Some("sum"), numeric::sum)
 }
 
 fn mean(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    Some(single(arguments).and_then(|rows| {
-        let value = numeric::mean(rows.values).map_err(numeric_error(0))?;
-        Ok(scalar(value, rows.dimension, rows.temperature))
-    }))
+    aggregate(arguments, None, numeric::mean)
 }
 
 fn geomean(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    Some(single(arguments).and_then(|rows| {
-        refuse_absolute_temperature(&rows, "geometric mean")?;
-        let value = numeric::geometric_mean(rows.values).map_err(numeric_error(0))?;
-        Ok(scalar(value, rows.dimension, rows.temperature))
-    }))
+    aggregate(arguments, Some("geometric mean"), numeric::geometric_mean)
 }
 
 fn harmean(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    Some(single(arguments).and_then(|rows| {
-        refuse_absolute_temperature(&rows, "harmonic mean")?;
-        let value = numeric::harmonic_mean(rows.values).map_err(numeric_error(0))?;
-        Ok(scalar(value, rows.dimension, rows.temperature))
-    }))
+    aggregate(arguments, Some("harmonic mean"), numeric::harmonic_mean)
 }
 
 fn count(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
@@ -151,26 +152,25 @@ fn count(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallEr
     })
 }
 
-/// `min(column)`: the smallest row; any other call is `min` row by row.
-pub fn column_minimum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    let [value @ (Value::Column(_) | Value::Labels(_))] = arguments else {
+/// Picks a column's extreme row: its value and 1-based row.
+type Extreme = fn(&[f64]) -> Result<(f64, usize), ColumnError>;
+
+/// `min(column)` or `max(column)`: one column only; any other call goes row by row.
+fn extreme(arguments: &[Value], pick: Extreme) -> Option<Result<Value, CallError>> {
+    let [Value::Column(_) | Value::Labels(_)] = arguments else {
         return None;
     };
-    Some(rows(value, 0).and_then(|rows| {
-        let (value, _) = numeric::minimum(rows.values).map_err(numeric_error(0))?;
-        Ok(scalar(value, rows.dimension, rows.temperature))
-    }))
+    aggregate(arguments, None, |values| {
+        pick(values).map(|(value, _)| value)
+    })
 }
 
-/// `max(column)`: the largest row; any other call is `max` row by row.
+pub fn column_minimum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
+    extreme(arguments, numeric::minimum)
+}
+
 pub fn column_maximum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    let [value @ (Value::Column(_) | Value::Labels(_))] = arguments else {
-        return None;
-    };
-    Some(rows(value, 0).and_then(|rows| {
-        let (value, _) = numeric::maximum(rows.values).map_err(numeric_error(0))?;
-        Ok(scalar(value, rows.dimension, rows.temperature))
-    }))
+    extreme(arguments, numeric::maximum)
 }
 
 /// The coefficient and thickness columns of a layered medium.
@@ -190,10 +190,13 @@ fn layers(arguments: &[Value]) -> Result<(Rows<'_>, Rows<'_>), CallError> {
     Ok((coefficient, thickness))
 }
 
-fn layered_along(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
+/// An effective coefficient of layers: the coefficient's dimension, no temperature kind.
+fn layered(
+    arguments: &[Value],
+    mean: fn(&[f64], &[f64]) -> Result<f64, ColumnError>,
+) -> Option<Result<Value, CallError>> {
     Some(layers(arguments).and_then(|(coefficient, thickness)| {
-        let value = numeric::layered_along(coefficient.values, thickness.values)
-            .map_err(numeric_error(0))?;
+        let value = mean(coefficient.values, thickness.values).map_err(numeric_error(0))?;
         Ok(scalar(
             value,
             coefficient.dimension,
@@ -202,16 +205,12 @@ fn layered_along(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value
     }))
 }
 
+fn layered_along(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
+    layered(arguments, numeric::layered_along)
+}
+
 fn layered_across(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    Some(layers(arguments).and_then(|(coefficient, thickness)| {
-        let value = numeric::layered_across(coefficient.values, thickness.values)
-            .map_err(numeric_error(0))?;
-        Ok(scalar(
-            value,
-            coefficient.dimension,
-            TemperatureKind::Unspecified,
-        ))
-    }))
+    layered(arguments, numeric::layered_across)
 }
 
 fn interpolate_linear(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
