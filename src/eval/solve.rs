@@ -73,7 +73,7 @@ impl Calculator<'_> {
                 .into())
             }
         };
-        let target_dimension = match scope.lookup(target) {
+        let target_value = match scope.lookup(target) {
             None => {
                 return Err(error(
                     format!("`{target}` is not a line of the sheet"),
@@ -81,7 +81,7 @@ impl Calculator<'_> {
                 ))
             }
             Some(None) => return Err(Failure::Upstream(target.clone())),
-            Some(Some(Shown::Scalar(shown))) => shown.quantity.dimension,
+            Some(Some(Shown::Scalar(shown))) => shown.clone(),
             Some(Some(_)) => {
                 return Err(EvalError::new(
                     EvalErrorKind::ScalarNeeded {
@@ -92,6 +92,7 @@ impl Calculator<'_> {
                 .into())
             }
         };
+        let target_dimension = target_value.quantity.dimension;
         let goal = self.scalar(&solve.goal, "the target of a solve", scope)?;
         if goal.dimension != target_dimension {
             return Err(EvalError::new(
@@ -188,7 +189,8 @@ impl Calculator<'_> {
             {
                 error(
                     format!(
-                        "`{target}` is not continuous in the bracket: it has no value at `{unknown}` = {last_trial:.6e} (SI) ({}); choose a bracket that leaves that point out",
+                        "`{target}` is not continuous in the bracket: it has no value at `{unknown}` = {} ({}); choose a bracket that leaves that point out",
+                        In::unit_of(&unknown_value).write(last_trial),
                         inner.kind
                     ),
                     span,
@@ -198,15 +200,17 @@ impl Calculator<'_> {
                 Failure::Error(inner.with_label(span, format!("while solving for `{unknown}`")))
             }
             SolveError::Function(upstream) => upstream,
-            other => error(describe(&other, target, unknown, goal.value), span),
+            other => {
+                let units = (In::unit_of(&target_value), In::unit_of(&unknown_value));
+                error(describe(&other, target, unknown, goal.value, &units), span)
+            }
         })?;
         self.notes.insert(
             span.start,
             format!(
-                "Brent's method, {} iterations; residual {:.2e} {}",
+                "Brent's method, {} iterations; residual {}",
                 root.iterations,
-                root.residual.abs(),
-                target_dimension.preferred_si_unit()
+                residual_text(&target_value, root.residual.abs())
             ),
         );
         Ok(Value::Scalar(Quantity {
@@ -216,34 +220,88 @@ impl Calculator<'_> {
     }
 }
 
-fn describe(error: &SolveError<Failure>, target: &str, unknown: &str, goal: f64) -> String {
+/// Writes SI values in the unit a line shows in (`1.35e-6 m/s`, `21.5 degC`), for messages.
+struct In {
+    unit: Option<crate::units::Unit>,
+    text: String,
+}
+
+impl In {
+    fn unit_of(shown: &ShownValue) -> In {
+        let unit = crate::syntax::parse_unit(&shown.unit)
+            .ok()
+            .and_then(|expression| super::evaluate::resolve_unit(&expression).ok());
+        In {
+            unit,
+            text: shown.unit.clone(),
+        }
+    }
+
+    fn write(&self, si_value: f64) -> String {
+        let number = match &self.unit {
+            Some(unit) => unit.from_si(si_value),
+            None => si_value,
+        };
+        match self.text.as_str() {
+            "1" | "" => super::warnings::short(number),
+            unit => format!("{} {unit}", super::warnings::short(number)),
+        }
+    }
+}
+
+/// The residual, a difference, in the target's unit unless that unit has an offset (degC).
+fn residual_text(target: &ShownValue, residual: f64) -> String {
+    let unit = In::unit_of(target);
+    match &unit.unit {
+        Some(found) if found.offset.is_none() => unit.write(residual),
+        _ => format!(
+            "{} {}",
+            super::warnings::short(residual),
+            target.quantity.dimension.preferred_si_unit()
+        ),
+    }
+}
+
+fn describe(
+    error: &SolveError<Failure>,
+    target: &str,
+    unknown: &str,
+    goal: f64,
+    (target_unit, unknown_unit): &(In, In),
+) -> String {
     match error {
         SolveError::NoSignChange {
             f_lower, f_upper, ..
         } => format!(
-            "no solution in the bracket: `{target}` is {:.4e} at the lower end and {:.4e} at the upper end (SI), both on the same side of the target {:.4e}",
-            f_lower + goal,
-            f_upper + goal,
-            goal
+            "no solution in the bracket: `{target}` is {} at the lower end and {} at the upper end, both on the same side of the target {}",
+            target_unit.write(f_lower + goal),
+            target_unit.write(f_upper + goal),
+            target_unit.write(goal)
         ),
         SolveError::Discontinuous { near, .. } => format!(
-            "`{target}` is not continuous near `{unknown}` = {near:.6e} (SI): it jumps across the target there instead of reaching it"
+            "`{target}` is not continuous near `{unknown}` = {}: it jumps across the target there instead of reaching it",
+            unknown_unit.write(*near)
         ),
         SolveError::NotConverged {
             iterations,
             lower,
             upper,
         } => format!(
-            "no convergence after {iterations} iterations; the last bracket was {lower:.6e} to {upper:.6e} (SI)"
+            "no convergence after {iterations} iterations; the last bracket was {} to {}",
+            unknown_unit.write(*lower),
+            unknown_unit.write(*upper)
         ),
         SolveError::BadBracket { lower, upper } => format!(
-            "the bracket's ends must be two different finite values, found {lower:e} and {upper:e} (SI)"
+            "the bracket's ends must be two different values, found {} and {}",
+            unknown_unit.write(*lower),
+            unknown_unit.write(*upper)
         ),
         SolveError::BadTolerance { x_tolerance } => {
             format!("the solver's tolerance {x_tolerance:e} is not usable")
         }
         SolveError::NotFinite { x, value } => format!(
-            "`{target}` is not a finite number ({value}) at `{unknown}` = {x:.6e} (SI)"
+            "`{target}` is not a finite number ({value}) at `{unknown}` = {}",
+            unknown_unit.write(*x)
         ),
         SolveError::Function(_) => format!("`{target}` could not be evaluated"),
     }

@@ -444,7 +444,7 @@ use the brine functions, the high-temperature formulations (S = 0 for fresh wate
 }
 
 /// A value for a message, rounded to four significant figures: `28`, `0.2801`, `2e-14`.
-fn short(value: f64) -> String {
+pub(crate) fn short(value: f64) -> String {
     let rounded: f64 = format!("{value:.3e}").parse().unwrap_or(value);
     let magnitude = rounded.abs();
     if magnitude == 0.0 || (1e-4..1e6).contains(&magnitude) {
