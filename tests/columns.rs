@@ -600,3 +600,25 @@ fn check_against_an_earlier_run_compares_columns_row_by_row() {
         "a column of another length is not the same value: {stdout}"
     );
 }
+
+#[test]
+fn a_range_stands_alone_in_eval_with_a_display_unit() {
+    let (code, stdout, stderr) = run(&[
+        "eval",
+        "--format",
+        "json",
+        "0 degC to 100 degC count 3 [degF]",
+    ]);
+    assert_eq!(code, 0, "{stderr}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    // 0, 50 and 100 degC are 32, 122 and 212 degF (NIST SP 811 B.9).
+    let values: Vec<f64> = json["value"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|value| value.as_f64().unwrap())
+        .collect();
+    for (got, want) in values.iter().zip([32.0, 122.0, 212.0]) {
+        assert_close(*got, want, 1e-12, "degF");
+    }
+}

@@ -336,7 +336,7 @@ impl Builder {
         for inner in pair.into_inner() {
             match inner.as_rule() {
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
-                Rule::expression => expression = Some(self.expression(inner)?),
+                Rule::ranged => expression = Some(self.line_value(inner)?),
                 _ => {}
             }
         }
@@ -833,7 +833,8 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::definition | Rule::display | Rule::check_line => "a line",
         Rule::quoted_path => "a quoted path",
         Rule::list | Rule::list_item => "an expression",
-        Rule::to_keyword => "`to`",
+        Rule::to_keyword | Rule::range_tail => "`to`",
+        Rule::ranged => "an expression",
         Rule::step_keyword | Rule::count_keyword => "`step` or `count`",
         Rule::log_keyword => "`log`",
         Rule::from_keyword => "`from`",
