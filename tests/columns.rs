@@ -622,3 +622,54 @@ fn a_range_stands_alone_in_eval_with_a_display_unit() {
         assert_close(*got, want, 1e-12, "degF");
     }
 }
+
+#[test]
+fn column_error_paths_say_what_is_wrong() {
+    let cases = [
+        (
+            "a = {1, 2} m\nx = a to 3 m step 1 m",
+            "must be a single value, not a column",
+        ),
+        (
+            "a = {1, 2} m\nb = 2 m ^ {1, 2}",
+            "the exponent of a quantity with a unit",
+        ),
+        ("x = -1.5e308 to 1.5e308 count 3", "not a finite number"),
+        (
+            "L = {1, 2} m\ncheck L <= 1 m within {1, 2} %",
+            "a tolerance must be a single value",
+        ),
+    ];
+    for (sheet, expected) in cases {
+        let message = first_error(&evaluate(sheet));
+        assert!(message.contains(expected), "{sheet}: {message}");
+    }
+    let folder = tempfile::tempdir().unwrap();
+    write(folder.path(), "c.csv", "sample,k [mD]\nA,1\nB,2\n");
+    let sheet = write(
+        folder.path(),
+        "text.fxs",
+        "s = column sample from \"c.csv\"\nt = s * 2\nu = mean(s)\n",
+    );
+    let (code, _, stderr) = run_file(&sheet, &[]);
+    assert_eq!(code, 3);
+    assert!(stderr.contains("`s` is a column of text"), "{stderr}");
+    let negative = write(
+        folder.path(),
+        "negative.fxs",
+        "x = {1, 2, 3} m\ny = {-1, 1, 2} m\nplot y against x log y\n",
+    );
+    let target = folder.path().join("n.svg");
+    let (code, _, stderr) = run_file(&negative, &["--plot", target.to_str().unwrap()]);
+    assert_eq!(code, 3, "a chart that cannot be drawn is an error");
+    assert!(stderr.contains("plot on line 3"), "{stderr}");
+    let (code, _, stderr) = run(&[
+        "run",
+        negative.to_str().unwrap(),
+        sheet.to_str().unwrap(),
+        "--plot",
+        target.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 2);
+    assert!(stderr.contains("give one file"), "{stderr}");
+}

@@ -110,7 +110,8 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
     for (index, ((name, unit, header, unit_text), texts)) in
         parsed_headers.into_iter().zip(cells).enumerate()
     {
-        let origin: Arc<str> = Arc::from(name.as_str());
+        // Named after the line that reads it, when one does (`with_origin`).
+        let origin: Arc<str> = Arc::from("");
         let all_numbers = texts.iter().all(|text| text.parse::<f64>().is_ok());
         let value = if unit.is_none() && !all_numbers && texts.iter().any(|text| !text.is_empty()) {
             Value::Labels(Labels {

@@ -1943,13 +1943,17 @@ impl<'l> Calculator<'l> {
     }
 }
 
-/// A column made on this line (a list, a range, a data file) is named after the line, so that
+/// A column made on this line (a list, a range, a data-file column) is named after the line, so that
 /// errors about its rows and length say where it came from.
 pub(crate) fn with_origin(shown: Shown, name: &str) -> Shown {
     match shown {
         Shown::Column(mut shown) if shown.column.origin.is_empty() => {
             shown.column.origin = Arc::from(name);
             Shown::Column(shown)
+        }
+        Shown::Labels(mut labels) if labels.origin.is_empty() => {
+            labels.origin = Arc::from(name);
+            Shown::Labels(labels)
         }
         other => other,
     }
