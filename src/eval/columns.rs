@@ -102,12 +102,12 @@ pub(crate) fn combine(
     span: Span,
     right_span: Span,
 ) -> Result<Value, EvalError> {
-    let Some(rows) = common_rows(left, right, span)? else {
-        let (Value::Scalar(left), Value::Scalar(right)) = (left, right) else {
-            return unreachable_shape();
-        };
+    let rows = common_rows(left, right, span)?;
+    if let (Value::Scalar(left), Value::Scalar(right)) = (left, right) {
         return binary(operator, *left, *right, span, right_span).map(Value::Scalar);
-    };
+    }
+    // Not both scalars, and no text (refused above): at least one side is a column.
+    let rows = rows.unwrap_or(1);
     let (left_shape, right_shape) = (shape(left), shape(right));
     if operator == BinaryOperator::Power
         && !left_shape.dimension.is_dimensionless()
@@ -179,11 +179,6 @@ pub(crate) fn negate(value: Value, span: Span) -> Result<Value, EvalError> {
             span,
         )),
     }
-}
-
-/// The error for operand shapes `common_rows` has ruled out; never reached.
-fn unreachable_shape<T>() -> Result<T, EvalError> {
-    Err(EvalError::new(EvalErrorKind::NotFinite, Span::new(0, 0)))
 }
 
 /// Refuses a column longer than `limit` before anything is allocated.
