@@ -531,7 +531,11 @@ fn report_is_written_whole_with_no_temporary_left() {
 fn html_report_renders_in_headless_chromium() {
     let folder = tempfile::tempdir().unwrap();
     let root = folder.path();
-    write(&root.join("core.fxs"), REPORTED);
+    // The reported sheet plus a sweep and its chart, which the browser must draw too.
+    let sheet = format!(
+        "{REPORTED}T_sweep = 0 degC to 20 degC step 5 K\nK_sweep [m/s] = hydraulic_conductivity(k, T_sweep)\nplot K_sweep against T_sweep\n"
+    );
+    write(&root.join("core.fxs"), &sheet);
     let (code, _, stderr) = run_in(root, &["report", "core.fxs", "-o", "core.html"]);
     assert_eq!(code, 1, "{stderr}");
     let path = root.join("core.html");
@@ -583,6 +587,10 @@ fn html_report_renders_in_headless_chromium() {
     assert!(dom.contains("data-formulation=\"iapws-2008-viscosity\""));
     assert_eq!(dom.matches("data-formulation=").count(), 2);
     assert!(dom.contains("<h2>Caution</h2>"));
+    // The chart is inline SVG in the page, with its curve, and the sweep's column table.
+    assert!(dom.contains("<figure class=\"chart\"><svg"), "{dom}");
+    assert!(dom.contains("<polyline"), "{dom}");
+    assert!(dom.contains("<th>K_sweep [m/s]</th>"), "{dom}");
 }
 
 /// `chromium` on the `PATH`, where the Debian package puts it.

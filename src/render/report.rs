@@ -189,7 +189,11 @@ pub fn blocks(evaluation: &Evaluation, digits: u32) -> Vec<Block> {
                 .clone()
                 .unwrap_or_else(|| line.expression.clone());
             match super::plot::plot_svg(plot) {
-                Ok(svg) => blocks.push(Block::Figure(Figure { caption, svg })),
+                // Inline SVG in HTML needs no namespace, and the report names no outside address.
+                Ok(svg) => blocks.push(Block::Figure(Figure {
+                    caption,
+                    svg: svg.replacen(" xmlns=\"http://www.w3.org/2000/svg\"", "", 1),
+                })),
                 Err(error) => blocks.push(Block::Prose(format!(
                     "The chart of line {} cannot be drawn: {error}",
                     line.number
