@@ -673,3 +673,32 @@ fn column_error_paths_say_what_is_wrong() {
     assert_eq!(code, 2);
     assert!(stderr.contains("give one file"), "{stderr}");
 }
+
+/// The row kernels give, row for row, what the checked single-value calls give (those are
+/// pinned against the IAPWS check tables in `properties`), with and without a pressure.
+#[test]
+fn row_kernels_match_single_value_calls() {
+    let temperatures = [5.0, 20.0, 80.0];
+    let sheet = "T = {5, 20, 80} degC\np = 5 bar\n\
+        K [m/s] = hydraulic_conductivity(250 mD, T, p)\n\
+        k [mD] = intrinsic_permeability(1e-5 m/s, T)\n\
+        rho [kg/m^3] = water_density(T, p)\n\
+        mu [Pa*s] = water_viscosity(T)\n";
+    let columns = evaluate(sheet);
+    for (row, celsius) in temperatures.iter().enumerate() {
+        let single = evaluate(&format!(
+            "T = {celsius} degC\np = 5 bar\n\
+             K [m/s] = hydraulic_conductivity(250 mD, T, p)\n\
+             k [mD] = intrinsic_permeability(1e-5 m/s, T)\n\
+             rho [kg/m^3] = water_density(T, p)\n\
+             mu [Pa*s] = water_viscosity(T)\n"
+        ));
+        for name in ["K", "k", "rho", "mu"] {
+            assert_eq!(
+                column(&columns, name)[row],
+                scalar(&single, name),
+                "{name} at {celsius} degC"
+            );
+        }
+    }
+}
