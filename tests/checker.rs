@@ -276,21 +276,28 @@ fn the_demo_sheets_check_clean_with_warnings_denied() {
 // ----- 3. warnings -----
 
 #[test]
-fn unused_line_unless_used_displayed_or_last_of_its_section() {
+fn unused_line_is_an_input_no_line_uses() {
     assert_eq!(
         warning_codes("## In\na = 2 m\nspare = 3 m\nb = a * 2\n"),
         ["unused-line"]
     );
-    // A display unit shows it; so does being the last line of a section.
+    // A display unit keeps an input deliberately; the last line of a section is not exempt.
     assert!(warning_codes("a = 2 m\nshown [cm] = 3 m\nb = a * 2\n").is_empty());
-    assert!(warning_codes("## One\na = 2 m\nb = a * 2\n## Two\nc = 1 s\n").is_empty());
-    // Checks and tolerances are uses.
+    assert_eq!(
+        warning_codes("## One\na = 2 m\nb = a * 2\n## Two\nc = 1 s\n"),
+        ["unused-line"]
+    );
+    // Checks and tolerances are uses; a sheet of inputs alone is a list of values.
     assert!(warning_codes("a = 2 m\ntol = 1 cm\ncheck a == 2 m within tol\nz = 1\n").is_empty());
-    // The rendered warning names the line and says what to do.
-    let evaluation = evaluate_sheet("spare = 3 m\nb = 2 m\n", Builtins::standard());
+    // The rendered warning names the line and says how to keep it.
+    let evaluation = evaluate_sheet("spare = 3 m\nb = 2 * g0\n", Builtins::standard());
     let warning = &evaluation.diagnostics[0];
-    assert_eq!(warning.message, "`spare` is never used and not displayed");
-    assert!(warning.help.as_deref().unwrap().contains("[unit]"));
+    assert_eq!(warning.message, "input `spare` is used by no line or check");
+    assert!(warning
+        .help
+        .as_deref()
+        .unwrap()
+        .contains("`spare [m] = 3 m`"));
 }
 
 #[test]
@@ -347,21 +354,12 @@ fn hydraulic_conductivity_outside_common_range() {
 }
 
 #[test]
-fn water_temperature_outside_zero_to_one_hundred() {
-    assert_eq!(
-        warning_codes("T = 150 degC\nrho [kg/m^3] = water_density(T, 10 bar)\n"),
-        ["water-temperature"]
-    );
-    assert_eq!(
-        warning_codes("p [kPa] = saturation_pressure(120 degC)\n"),
-        ["water-temperature"]
-    );
-    assert_eq!(
-        warning_codes("K [m/s] = hydraulic_conductivity(40 mD, 130 degC, 5 bar)\n"),
-        ["water-temperature"]
-    );
-    assert!(warning_codes("K [m/s] = hydraulic_conductivity(40 mD, 12 degC)\n").is_empty());
-    // The brine correlations are the high-temperature formulations: not flagged.
+fn hot_water_under_a_stated_pressure_is_not_warned() {
+    // Above 100 degC the water functions refuse steam unless the sheet gives a pressure at or
+    // above saturation, so a call that returns is liquid water within IAPWS-IF97.
+    assert!(warning_codes("T = 150 degC\nrho [kg/m^3] = water_density(T, 10 bar)\n").is_empty());
+    assert!(warning_codes("p [kPa] = saturation_pressure(120 degC)\n").is_empty());
+    assert!(warning_codes("K [m/s] = hydraulic_conductivity(40 mD, 130 degC, 5 bar)\n").is_empty());
     assert!(warning_codes("rho [kg/m^3] = brine_density(150 degC, 20 MPa, 0)\n").is_empty());
 }
 

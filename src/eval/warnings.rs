@@ -4,10 +4,12 @@
 //!
 //! The kinds, each with a stable code:
 //!
-//! - `unused-line`: a named line no other line uses and that is not displayed. A line counts as
-//!   displayed when it declares a display unit (`name [unit] = …`) or is the last named or bare
-//!   line of its section (a `##` heading starts a section; the lines before the first heading
-//!   are one too). Checks and tolerances count as uses.
+//! - `unused-line`: an input no other line or check uses, the likely trace of a typo'd name or a
+//!   forgotten input. An input is a line made of literals only (`k = 420 mD`); a line that names
+//!   another line or calls a function computes a result, which the table shows, and is never
+//!   warned. Checks, tolerances and plots count as uses. A display unit keeps an input
+//!   deliberately (`k_spare [mD] = 420 mD`). A sheet where no line computes is a list of values
+//!   and gets none.
 //! - `shadowed-builtin`: a sheet name equal to a built-in function or constant.
 //! - `mixed-units`: a named or bare line whose literals mix SI/metric and US customary units
 //!   and that declares no display unit (so the value silently shows in SI).
@@ -25,21 +27,13 @@ use crate::syntax::{
     Expression, ExpressionKind, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
 use crate::units::Dimension;
-use std::collections::HashSet;
+use std::collections::{HashMap, HashSet};
 
 /// Porosity is a fraction of the bulk volume (common practice).
 pub const PLAUSIBLE_POROSITY: (f64, f64) = (0.0, 1.0);
 /// Hydraulic conductivity of natural ground, unfractured clay to clean gravel, in m/s (common
 /// practice).
 pub const PLAUSIBLE_CONDUCTIVITY: (f64, f64) = (1e-13, 1.0);
-/// Liquid groundwater at near-atmospheric pressure, 0 to 100 °C, in kelvin (common practice).
-pub const PLAUSIBLE_WATER_TEMPERATURE: (f64, f64) = (273.15, 373.15);
-
-/// Functions citing a formulation whose id starts with this take the temperature of water; the
-/// brine correlations (the high-temperature formulations, fitted for reservoir conditions) do
-/// not, so they are not flagged.
-const WATER_FORMULATION_PREFIX: &str = "iapws-";
-
 /// Unit symbols of US customary (and imperial-derived oilfield) measure. Time, angles and
 /// plain ratios belong to no system; every other catalog unit counts as SI or metric.
 const US_CUSTOMARY: &[&str] = &[
@@ -99,6 +93,7 @@ pub fn sheet_warnings(
 ) -> Vec<Diagnostic> {
     let mut warnings = Vec::new();
     unused_lines(lines, evaluation, &mut warnings);
+    angles_in_radians(lines, evaluation, &mut warnings);
     for line in lines {
         shadowed_builtin(line, library, &mut warnings);
         mixed_units(line, &mut warnings);
@@ -111,75 +106,89 @@ pub fn sheet_warnings(
             plausible_value(&definition.name.text, &shown.value(), span, &mut warnings);
         }
     }
-    water_temperatures(evaluation, library, &mut warnings);
     warnings
 }
 
 fn unused_lines(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec<Diagnostic>) {
     let mut used: HashSet<&str> = HashSet::new();
     for line in lines {
-        let expressions: Vec<&Expression> = match &line.kind {
-            LineKind::Definition(definition) => vec![&definition.expression],
-            LineKind::Function(function) => vec![&function.body],
-            LineKind::Display(display) => vec![&display.expression],
-            LineKind::Check(check) => {
-                let mut sides = vec![&check.left, &check.right];
-                sides.extend(check.tolerance.as_ref());
-                sides
+        if let LineKind::Plot(plot) = &line.kind {
+            for name in plot.series.iter().chain([&plot.against]) {
+                used.insert(name.text.as_str());
             }
-            LineKind::Plot(plot) => {
-                for name in plot.series.iter().chain([&plot.against]) {
-                    used.insert(name.text.as_str());
-                }
-                Vec::new()
-            }
-            _ => Vec::new(),
-        };
-        for expression in expressions {
+        }
+        for expression in line_expressions(line) {
             expression.for_each_name(&mut |name, _| {
                 used.insert(name);
             });
         }
     }
-    // The last result-bearing line of each section is the section's answer.
-    let mut last_of_section: HashSet<usize> = HashSet::new();
-    let mut last: Option<usize> = None;
-    for (index, line) in lines.iter().enumerate() {
-        match &line.kind {
-            LineKind::Heading(_) => {
-                last_of_section.extend(last.take());
-            }
-            LineKind::Definition(_) | LineKind::Display(_) => last = Some(index),
-            _ => {}
-        }
+    // A sheet of inputs alone is a list of values (a conversion, a data table), not a
+    // calculation that forgot one of them.
+    let computes = lines.iter().any(|line| match &line.kind {
+        LineKind::Definition(definition) => !is_input(&definition.expression),
+        LineKind::Display(display) => !is_input(&display.expression),
+        _ => false,
+    });
+    if !computes {
+        return;
     }
-    last_of_section.extend(last);
-    for (index, (line, outcome)) in lines.iter().zip(&evaluation.lines).enumerate() {
+    for (line, outcome) in lines.iter().zip(&evaluation.lines) {
         let LineKind::Definition(definition) = &line.kind else {
             continue;
         };
         let name = definition.name.text.as_str();
-        let displayed = definition.display_unit.is_some() || last_of_section.contains(&index);
         // A column of text (sample names) is there to label the column table's rows.
         let labels = matches!(outcome.result, LineResult::Value(super::Shown::Labels(_)));
         if used.contains(name)
-            || displayed
+            || definition.display_unit.is_some()
             || labels
+            || !is_input(&definition.expression)
             || !matches!(outcome.result, LineResult::Value(_))
         {
             continue;
         }
+        let written = evaluation.sources.text_of(definition.expression.span);
+        let unit = first_unit(&definition.expression).unwrap_or("1");
         warnings.push(
             Diagnostic::warning(
-                format!("`{name}` is never used and not displayed"),
+                format!("input `{name}` is used by no line or check"),
                 definition.name.span,
             )
             .with_code("unused-line")
             .with_help(Some(format!(
-                "use it in another line or a check, show it with a unit (`{name} [unit] = …`), \
-or remove it"
+                "use it in a line or a check, or remove it; to keep `{name}` as a shown input, \
+write `{name} [{unit}] = {written}`"
             ))),
         );
+    }
+}
+
+/// An input is a line made of literals only (`k = 420 mD`, `T = 0 degC to 40 degC step 5 K`,
+/// a data-file column): it names no other line and calls no function. Any other line computes
+/// a result, which the table shows whether or not another line uses it.
+fn is_input(expression: &Expression) -> bool {
+    let mut computes = false;
+    expression.for_each_name(&mut |_, _| computes = true);
+    expression.for_each_call(&mut |_, _| computes = true);
+    !computes
+}
+
+/// The first unit written in an expression, as written (`mD` in `420 mD`).
+fn first_unit(expression: &Expression) -> Option<&str> {
+    match &expression.kind {
+        ExpressionKind::Quantity {
+            unit: Some(unit), ..
+        }
+        | ExpressionKind::List {
+            unit: Some(unit), ..
+        } => Some(unit.text.as_str()),
+        ExpressionKind::Range(range) => range.parts().into_iter().find_map(first_unit),
+        ExpressionKind::Negate(inner) => first_unit(inner),
+        ExpressionKind::Binary { left, right, .. } => {
+            first_unit(left).or_else(|| first_unit(right))
+        }
+        _ => None,
     }
 }
 
@@ -391,55 +400,176 @@ fn plausible_value(name: &str, value: &Value, span: Span, warnings: &mut Vec<Dia
     }
 }
 
-/// Temperatures passed to the water (IAPWS) functions: liquid groundwater is 0 to 100 °C.
-fn water_temperatures(
-    evaluation: &Evaluation,
-    library: &dyn Library,
-    warnings: &mut Vec<Diagnostic>,
-) {
-    let (low, high) = PLAUSIBLE_WATER_TEMPERATURE;
+/// `sin(30)`: a plain number beyond a full turn (2π) in `sin`, `cos` or `tan` is most likely
+/// degrees written without `deg`. An argument that writes an angle unit anywhere (`30 deg`,
+/// `7 rad`, `15 deg/h * t`), directly or through the lines it names, says which is meant.
+fn angles_in_radians(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec<Diagnostic>) {
+    let definitions: HashMap<&str, &Expression> = lines
+        .iter()
+        .filter_map(|line| match &line.kind {
+            LineKind::Definition(definition) => {
+                Some((definition.name.text.as_str(), &definition.expression))
+            }
+            _ => None,
+        })
+        .collect();
+    let full_turn = std::f64::consts::TAU;
     let mut seen: HashSet<Span> = HashSet::new();
-    for call in &evaluation.calls {
-        let Some(function) = library.function(&call.function) else {
-            continue;
-        };
-        let takes_water = function
-            .formulations()
-            .iter()
-            .any(|formulation| formulation.id.starts_with(WATER_FORMULATION_PREFIX));
-        if !takes_water {
-            continue;
-        }
-        for (span, argument) in &call.arguments {
-            if !argument
-                .dimension()
-                .is_some_and(|dimension| dimension.is_temperature())
-            {
-                continue;
-            }
-            let Some((kelvin, row)) = first_outside(argument, low, high) else {
-                continue;
+    for expression in lines.iter().flat_map(line_expressions) {
+        for_each_subexpression(expression, &mut |node| {
+            let ExpressionKind::Call {
+                function,
+                arguments,
+            } = &node.kind
+            else {
+                return;
             };
-            if seen.insert(*span) {
-                warnings.push(
-                    Diagnostic::warning(
+            let [argument] = arguments.as_slice() else {
+                return;
+            };
+            if !TRIGONOMETRY.contains(&function.text.as_str())
+                || writes_angle_unit(argument, &definitions, &mut HashSet::new())
+            {
+                return;
+            }
+            let passed = evaluation
+                .calls
+                .iter()
+                .filter_map(|call| call.arguments.first())
+                .filter(|(span, _)| *span == argument.span)
+                .find_map(|(_, value)| first_outside(value, -full_turn, full_turn));
+            let Some((value, row)) = passed else {
+                return;
+            };
+            if !seen.insert(argument.span) {
+                return;
+            }
+            let name = &function.text;
+            let number = short(value);
+            let written = evaluation.sources.text_of(argument.span);
+            let suggestion = match &argument.kind {
+                ExpressionKind::Quantity { unit: None, .. } => format!("`{name}({written} deg)`"),
+                ExpressionKind::Name(line) => match definitions.get(line.as_str()) {
+                    Some(defined)
+                        if matches!(defined.kind, ExpressionKind::Quantity { unit: None, .. }) =>
+                    {
                         format!(
-                            "water at {} degC{row} passed to `{}` is outside 0 to 100 degC (common \
-practice for groundwater)",
-                            short(kelvin - 273.15),
-                            call.function
-                        ),
-                        *span,
-                    )
-                    .with_code("water-temperature")
-                    .with_help(Some(
-                        "check the temperature's unit (degC, degF, K); for hot reservoir water \
-use the brine functions, the high-temperature formulations (S = 0 for fresh water)"
-                            .to_string(),
-                    )),
-                );
+                            "`{line} = {} deg`",
+                            evaluation.sources.text_of(defined.span)
+                        )
+                    }
+                    _ => format!("`{name}({written} * 1 deg)`"),
+                },
+                _ => format!("`{name}(({written}) * 1 deg)`"),
+            };
+            warnings.push(
+                Diagnostic::warning(
+                    format!(
+                        "`{name}` of the plain number {number}{row} reads it as {number} radians, \
+more than a full turn"
+                    ),
+                    argument.span,
+                )
+                .with_code("angle-in-radians")
+                .with_help(Some(format!(
+                    "did you mean {suggestion}? a number without a unit is in radians; write \
+`rad` if radians are meant"
+                ))),
+            );
+        });
+    }
+}
+
+/// The functions of an angle.
+const TRIGONOMETRY: &[&str] = &["sin", "cos", "tan"];
+
+/// Units that say a number is an angle.
+const ANGLE_UNITS: &[&str] = &["rad", "deg", "°"];
+
+/// The expressions of a line that are evaluated.
+fn line_expressions(line: &Line) -> Vec<&Expression> {
+    match &line.kind {
+        LineKind::Definition(definition) => vec![&definition.expression],
+        LineKind::Function(function) => vec![&function.body],
+        LineKind::Display(display) => vec![&display.expression],
+        LineKind::Check(check) => {
+            let mut sides = vec![&check.left, &check.right];
+            sides.extend(check.tolerance.as_ref());
+            sides
+        }
+        _ => Vec::new(),
+    }
+}
+
+/// Calls `visit` on an expression and every expression inside it.
+fn for_each_subexpression<'a>(expression: &'a Expression, visit: &mut impl FnMut(&'a Expression)) {
+    visit(expression);
+    match &expression.kind {
+        ExpressionKind::Quantity { .. }
+        | ExpressionKind::Name(_)
+        | ExpressionKind::List { .. }
+        | ExpressionKind::FileColumn { .. } => {}
+        ExpressionKind::Range(range) => {
+            for part in range.parts() {
+                for_each_subexpression(part, visit);
             }
         }
+        ExpressionKind::Solve(solve) => {
+            for part in [&solve.goal, &solve.lower, &solve.upper] {
+                for_each_subexpression(part, visit);
+            }
+        }
+        ExpressionKind::Call { arguments, .. } => {
+            for argument in arguments {
+                for_each_subexpression(argument, visit);
+            }
+        }
+        ExpressionKind::Negate(inner) => for_each_subexpression(inner, visit),
+        ExpressionKind::Binary { left, right, .. } => {
+            for_each_subexpression(left, visit);
+            for_each_subexpression(right, visit);
+        }
+    }
+}
+
+/// Whether an angle unit is written in `expression` or in the lines it names. A name that is
+/// not a line of this sheet (an included line, a function parameter) might be an angle: it
+/// counts as one, so that no warning rests on a guess.
+fn writes_angle_unit<'a>(
+    expression: &'a Expression,
+    definitions: &HashMap<&str, &'a Expression>,
+    visited: &mut HashSet<&'a str>,
+) -> bool {
+    let mut angle = false;
+    for_each_subexpression(expression, &mut |node| match &node.kind {
+        ExpressionKind::Quantity {
+            unit: Some(unit), ..
+        }
+        | ExpressionKind::List {
+            unit: Some(unit), ..
+        } => angle |= unit_is_angle(unit),
+        ExpressionKind::Name(name) => {
+            if visited.insert(name.as_str()) {
+                angle |= match definitions.get(name.as_str()) {
+                    Some(defined) => writes_angle_unit(defined, definitions, visited),
+                    None => true,
+                };
+            }
+        }
+        ExpressionKind::FileColumn { .. } => angle = true,
+        _ => {}
+    });
+    angle
+}
+
+fn unit_is_angle(unit: &UnitExpression) -> bool {
+    match &unit.kind {
+        UnitExpressionKind::Symbol(symbol) => ANGLE_UNITS.contains(&symbol.as_str()),
+        UnitExpressionKind::One => false,
+        UnitExpressionKind::Product(left, right) | UnitExpressionKind::Quotient(left, right) => {
+            unit_is_angle(left) || unit_is_angle(right)
+        }
+        UnitExpressionKind::Power { base, .. } => unit_is_angle(base),
     }
 }
 

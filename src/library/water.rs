@@ -477,14 +477,35 @@ pub(crate) fn check_liquid_pressure(
             formulation,
             format!(
                 "p = {} is below the saturation pressure p_sat = {} at T = {}: the state is \
-                 vapour (steam), not liquid water",
+                 vapour (steam), not liquid water; give the pressure on site after the \
+                 temperature, e.g. `water_density({} degC, {})`: liquid water needs p at or \
+                 above p_sat",
                 pressure_text(p_pa),
                 pressure_text(p_sat),
-                temperature_text(t_k)
+                temperature_text(t_k),
+                fmt_num(t_k - 273.15),
+                liquid_pressure_example(p_sat)
             ),
         ));
     }
     Ok(())
+}
+
+/// A round pressure comfortably above `p_sat` (1, 2 or 5 times a power of ten bar, at least
+/// 1.5 p_sat), for the example in a steam refusal: far enough above the boiling pressure that
+/// it does not read as a limit.
+fn liquid_pressure_example(p_sat_pa: f64) -> String {
+    let wanted_bar = 1.5 * p_sat_pa / 1e5;
+    let mut decade = 10f64.powf(wanted_bar.log10().floor());
+    loop {
+        for step in [1.0, 2.0, 5.0] {
+            let bar = step * decade;
+            if bar >= wanted_bar {
+                return format!("{} bar", fmt_num(bar));
+            }
+        }
+        decade *= 10.0;
+    }
 }
 
 fn check_density(
@@ -1087,6 +1108,31 @@ mod tests {
         detail(specific_heat(celsius(120.0), pa(101_325.0)));
         // Just above p_sat is liquid.
         assert!(density(celsius(120.0), pa(200_000.0)).is_ok());
+    }
+
+    #[test]
+    fn the_steam_refusal_suggests_a_pressure_that_keeps_the_water_liquid() {
+        let err = detail(density(celsius(120.0), pa(101_325.0)));
+        assert!(
+            err.detail.contains("give the pressure on site"),
+            "{}",
+            err.detail
+        );
+        assert!(
+            err.detail.contains("`water_density(120 degC, "),
+            "{}",
+            err.detail
+        );
+        for t_c in [100.5, 120.0, 200.0, 300.0, 350.0] {
+            let p_sat = saturation_pressure_pa(t_c + 273.15);
+            let example = liquid_pressure_example(p_sat);
+            let bar: f64 = example.trim_end_matches(" bar").parse().unwrap();
+            assert!(bar * 1e5 >= 1.5 * p_sat, "{t_c} degC: {example}");
+            assert!(
+                density(celsius(t_c), pa(bar * 1e5)).is_ok(),
+                "{t_c} degC: {example}"
+            );
+        }
     }
 
     #[test]
