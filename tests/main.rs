@@ -10,6 +10,7 @@
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
+//! - `trust_warnings`: warnings only where a mistake is likely; formulations cited by every relation.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
 
 mod checker;
@@ -23,5 +24,6 @@ mod reference;
 mod repl;
 mod robustness;
 mod transport;
+mod trust_warnings;
 mod util;
 mod worksheets;

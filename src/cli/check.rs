@@ -27,7 +27,8 @@ pub struct CheckArgs {
     /// Sheet files and folders (searched recursively for `.fxs`); `-` reads standard input
     #[arg(required = true, value_name = "FILE|DIR")]
     pub paths: Vec<String>,
-    /// Treat warnings as errors (exit code 3)
+    /// Treat warnings as errors (exit code 3). An input kept on purpose though no line uses it
+    /// takes a display unit, `k_spare [mD] = 420 mD`, and is not warned
     #[arg(long)]
     pub deny_warnings: bool,
     /// Let `include` and `column … from` lines read files outside each sheet's folder tree

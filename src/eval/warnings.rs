@@ -13,8 +13,12 @@
 //! - `shadowed-builtin`: a sheet name equal to a built-in function or constant.
 //! - `mixed-units`: a named or bare line whose literals mix SI/metric and US customary units
 //!   and that declares no display unit (so the value silently shows in SI).
-//! - `porosity-range`, `conductivity-range`, `water-temperature`: plausibility of common
-//!   inputs, with ranges taken from common practice (see `PLAUSIBLE_*`).
+//! - `porosity-range`, `conductivity-range`: plausibility of common inputs, with ranges taken
+//!   from common practice (see `PLAUSIBLE_*`). Water temperatures need no warning: the water
+//!   functions refuse ice, and steam at any pressure the sheet does not give (their refusal
+//!   says which pressure keeps the water liquid).
+//! - `angle-in-radians`: a plain number beyond a full turn (2π) in `sin`, `cos` or `tan`,
+//!   most likely degrees written without `deg`.
 //!
 //! Warnings are only looked for on a sheet without errors: an error can hide a use or a value,
 //! and the first job is to fix it.
