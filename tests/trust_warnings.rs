@@ -168,3 +168,226 @@ fn the_warning_codes_are_in_the_readme_table() {
     // clap wraps the help text, so look for its start.
     assert!(stdout.contains("display unit, `k_spare [mD]"), "{stdout}");
 }
+
+// ----- provenance: every relation cites its formulation -----
+
+/// The ids of the formulations a sheet's run used, from its JSON.
+fn recorded_formulations(sheet: &str) -> Vec<String> {
+    let (code, stdout, stderr) = run_sheet(sheet, &["--format", "json"]);
+    assert_eq!(code, 0, "{sheet}: {stdout}{stderr}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    json["formulations"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|formulation| formulation["id"].as_str().unwrap().to_string())
+        .collect()
+}
+
+#[test]
+fn layered_means_cite_freeze_and_cherry() {
+    let sheet = "K = {1e-4, 1e-6} m/s\nb = {2, 3} m\n\
+K_along [m/s] = layered_along(K, b)\nK_across [m/s] = layered_across(K, b)\n";
+    let (code, stdout, _) = run_sheet(sheet, &["--format", "json"]);
+    assert_eq!(code, 0, "{stdout}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    let cited: Vec<&str> = json["formulations"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|formulation| formulation["citation"].as_str().unwrap())
+        .collect();
+    // Freeze & Cherry 1979, eqs. 2.31 and 2.32 (equation numbers from memory).
+    assert!(
+        cited
+            .iter()
+            .any(|citation| citation.contains("Freeze") && citation.contains("eq. 2.31")),
+        "{cited:?}"
+    );
+    assert!(
+        cited
+            .iter()
+            .any(|citation| citation.contains("Freeze") && citation.contains("eq. 2.32")),
+        "{cited:?}"
+    );
+    // The run footer lists them too.
+    let (_, stdout, _) = run_sheet(sheet, &[]);
+    assert!(
+        stdout.contains("Formulations used:") && stdout.contains("eq. 2.31"),
+        "{stdout}"
+    );
+    // A refused call cites nothing.
+    let refused = recorded_formulations("K = {1e-4, 1e-6} m/s\nb = {2, 3} m\nx = b / 1 m\n");
+    assert!(refused.is_empty(), "{refused:?}");
+}
+
+/// Functions of numbers, not of a publication: mathematics (`math`'s table) and the column
+/// utilities (aggregates and interpolation in a table). Everything else is a relation.
+const COLUMN_UTILITIES: &[&str] = &[
+    "sum",
+    "mean",
+    "geomean",
+    "harmean",
+    "count",
+    "interpolate",
+    "interpolate_log",
+];
+
+/// A call that succeeds for every relation, as (name, arguments as `number unit`). The column
+/// form lists each number twice. Invented inputs, inside every published range.
+const SAMPLE_CALLS: &[(&str, &[&str])] = &[
+    ("air_density", &["20 degC", "101.325 kPa"]),
+    ("air_viscosity", &["20 degC"]),
+    ("archie_formation_factor", &["0.25", "1", "2"]),
+    ("archie_porosity", &["40 ohm*m", "2 ohm*m", "1", "2"]),
+    ("archie_resistivity", &["2 ohm*m", "0.25", "1", "2"]),
+    ("brine_density", &["60 degC", "20 MPa", "0.1"]),
+    ("brine_viscosity", &["60 degC", "0.1"]),
+    (
+        "constant_head_conductivity",
+        &["1e-6 m^3/s", "0.1 m", "0.01 m^2", "0.5 m"],
+    ),
+    (
+        "cooper_jacob_drawdown",
+        &["0.01 m^3/s", "1e-3 m^2/s", "1e-4", "5 m", "1 d"],
+    ),
+    ("darcy_flux", &["1e-5 m/s", "0.01"]),
+    (
+        "darcy_flux_pressure",
+        &[
+            "1e-12 m^2",
+            "1e-3 Pa*s",
+            "-100 Pa/m",
+            "1000 kg/m^3",
+            "0 m/s^2",
+        ],
+    ),
+    ("effective_diffusion", &["2e-9 m^2/s", "0.3"]),
+    (
+        "effective_diffusion_formation",
+        &["2e-9 m^2/s", "10", "0.3"],
+    ),
+    (
+        "falling_head_conductivity",
+        &["1e-4 m^2", "0.1 m", "0.01 m^2", "600 s", "1 m", "0.5 m"],
+    ),
+    ("fick_flux", &["1e-9 m^2/s", "-10 mol/m^4"]),
+    ("fourier_flux", &["2 W/(m*K)", "-0.03 K/m"]),
+    (
+        "geometric_mean_conductivity",
+        &["3 W/(m*K)", "0.6 W/(m*K)", "0.3"],
+    ),
+    ("hazen_conductivity", &["0.2 mm"]),
+    ("hydraulic_conductivity", &["40 mD", "12 degC"]),
+    ("intrinsic_permeability", &["1e-5 m/s", "12 degC"]),
+    (
+        "klinkenberg_liquid_permeability",
+        &["50 mD", "50 kPa", "200 kPa"],
+    ),
+    ("kozeny_carman_permeability", &["0.2 mm", "0.35"]),
+    ("layered_across", &["1e-4 m/s", "2 m"]),
+    ("layered_along", &["1e-4 m/s", "2 m"]),
+    ("liner_leakage", &["1e-9 m/s", "0.3 m", "0.6 m"]),
+    ("ohm_current_density", &["0.01 S/m", "-2 V/m"]),
+    ("porous_fick_flux", &["0.35", "5e-10 m^2/s", "-10 mol/m^4"]),
+    (
+        "reynolds_number",
+        &["1e-5 m/s", "0.5 mm", "1000 kg/m^3", "1e-3 Pa*s"],
+    ),
+    ("saturation_pressure", &["60 degC"]),
+    ("seepage_velocity", &["1e-6 m/s", "0.25"]),
+    (
+        "theis_drawdown",
+        &["0.01 m^3/s", "1e-3 m^2/s", "1e-4", "5 m", "1 d"],
+    ),
+    ("theis_well_function", &["0.01"]),
+    ("thiem_discharge", &["1e-3 m^2/s", "2 m", "0.15 m", "300 m"]),
+    (
+        "thiem_drawdown",
+        &["0.01 m^3/s", "1e-3 m^2/s", "0.15 m", "300 m"],
+    ),
+    ("transmissivity", &["1e-4 m/s", "20 m"]),
+    ("travel_time", &["100 m", "1e-5 m/s"]),
+    ("water_density", &["20 degC"]),
+    ("water_kinematic_viscosity", &["20 degC"]),
+    ("water_specific_heat", &["20 degC"]),
+    ("water_thermal_conductivity", &["20 degC"]),
+    ("water_viscosity", &["20 degC"]),
+];
+
+/// `40 mD` as a two-row column, `{40, 40} mD`.
+fn as_column(argument: &str) -> String {
+    match argument.split_once(' ') {
+        Some((number, unit)) => format!("{{{number}, {number}}} {unit}"),
+        None => format!("{{{argument}, {argument}}}"),
+    }
+}
+
+#[test]
+fn every_relation_declares_and_records_its_formulations() {
+    let builtins = fluxsheet::library::Builtins::standard();
+    let (code, stdout, _) = run(&["functions", "--format", "json"]);
+    assert_eq!(code, 0);
+    let listing: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    let mut relations = 0;
+    for entry in listing.as_array().unwrap() {
+        if entry["kind"] != "function" {
+            continue;
+        }
+        let signature = entry["name"].as_str().unwrap();
+        let name = signature.split('(').next().unwrap();
+        let pure = fluxsheet::library::math::FUNCTIONS
+            .iter()
+            .any(|(math, _)| *math == name)
+            || COLUMN_UTILITIES.contains(&name);
+        if pure {
+            continue;
+        }
+        relations += 1;
+        let (_, builtin) = builtins
+            .functions_sorted()
+            .into_iter()
+            .find(|(listed, _)| *listed == name)
+            .unwrap();
+        assert!(
+            !builtin.formulations.is_empty() && !entry["source"].as_str().unwrap().is_empty(),
+            "`{name}` computes a relation but cites no formulation"
+        );
+        let Some((_, arguments)) = SAMPLE_CALLS.iter().find(|(sample, _)| *sample == name) else {
+            panic!("`{name}`: add a sample call to SAMPLE_CALLS so its provenance is checked");
+        };
+        let declared: Vec<&str> = builtin.formulations.iter().map(|f| f.id).collect();
+        let columns: Vec<String> = arguments
+            .iter()
+            .map(|argument| as_column(argument))
+            .collect();
+        let mut sheets = vec![format!("x = {name}({})\n", columns.join(", "))];
+        if !name.starts_with("layered_") {
+            sheets.push(format!("x = {name}({})\n", arguments.join(", ")));
+        }
+        for sheet in sheets {
+            let mut recorded = recorded_formulations(&sheet);
+            recorded.sort();
+            let mut expected: Vec<String> = declared.iter().map(|id| id.to_string()).collect();
+            expected.sort();
+            assert_eq!(recorded, expected, "{sheet}");
+        }
+    }
+    assert_eq!(
+        relations,
+        SAMPLE_CALLS.len(),
+        "a sample call for a function that is gone"
+    );
+}
+
+#[test]
+fn the_conductivity_permeability_relation_is_cited_for_any_fluid() {
+    // The (k, rho, mu) form uses no water formulation but still evaluates K = k rho g0 / mu.
+    let recorded =
+        recorded_formulations("K [m/s] = hydraulic_conductivity(40 mD, 1000 kg/m^3, 1 cP)\n");
+    assert_eq!(recorded, ["conductivity-permeability"]);
+    let recorded = recorded_formulations(
+        "k [mD] = intrinsic_permeability({1e-5, 2e-5} m/s, 850 kg/m^3, 3 cP)\n",
+    );
+    assert_eq!(recorded, ["conductivity-permeability"]);
+}

@@ -4,19 +4,43 @@
 
 use super::Builtin;
 use crate::eval::function::CallError;
-use crate::eval::{Column, Provenance, Quantity, TemperatureKind, Value};
+use crate::eval::{Column, Formulation, Provenance, Quantity, TemperatureKind, Value};
 use crate::numeric::{self, ColumnError, Interpolation, InterpolationTable};
 use crate::units::Dimension;
 use std::sync::Arc;
 
-pub const FUNCTIONS: &[(&str, Builtin)] = &[
+// Section and equation numbers of Freeze & Cherry are from memory, as in `numeric`.
+
+/// Layers in parallel: the same gradient in every layer, the fluxes add. Holds for any of the
+/// four transport coefficients, since Darcy, Fick, Fourier and Ohm share one form.
+pub static LAYERED_ALONG: Formulation = Formulation {
+    id: "layered-along",
+    title: "effective coefficient for flow along layers, K = sum(K_i b_i) / sum(b_i)",
+    citation: "Freeze, R. A. and Cherry, J. A., 1979, Groundwater, Prentice-Hall, Englewood \
+Cliffs NJ, section 2.4, eq. 2.31",
+    validity: "steady flow parallel to the layers, each layer homogeneous; coefficients \
+K_i >= 0, thicknesses b_i > 0",
+};
+
+/// Layers in series: the same flux through every layer, the potential drops add.
+pub static LAYERED_ACROSS: Formulation = Formulation {
+    id: "layered-across",
+    title: "effective coefficient for flow across layers, K = sum(b_i) / sum(b_i / K_i)",
+    citation: "Freeze, R. A. and Cherry, J. A., 1979, Groundwater, Prentice-Hall, Englewood \
+Cliffs NJ, section 2.4, eq. 2.32",
+    validity: "steady flow perpendicular to the layers, each layer homogeneous; coefficients \
+K_i > 0, thicknesses b_i > 0",
+};
+
+// A `static`, as in `transport`: the layered entries cite formulation statics inline.
+pub static FUNCTIONS: &[(&str, Builtin)] = &[
     ("sum", Builtin::on_columns("sum(values)", "sum of a column's rows (compensated summation)", one_value, sum)),
     ("mean", Builtin::on_columns("mean(values)", "arithmetic mean of a column", one_value, mean)),
     ("geomean", Builtin::on_columns("geomean(values)", "geometric mean of a column of positive values (the usual average of permeabilities of a log-normal sample)", one_value, geomean)),
     ("harmean", Builtin::on_columns("harmean(values)", "harmonic mean of a column of positive values", one_value, harmean)),
     ("count", Builtin::on_columns("count(values)", "number of rows of a column (1 for a single value)", count_one, count)),
-    ("layered_along", Builtin::on_columns("layered_along(coefficient, thickness)", "effective coefficient for flow along layers: sum(K b) / sum(b) (Freeze & Cherry 1979, eq. 2.31)", not_columns, layered_along)),
-    ("layered_across", Builtin::on_columns("layered_across(coefficient, thickness)", "effective coefficient for flow across layers: sum(b) / sum(b / K) (Freeze & Cherry 1979, eq. 2.32)", not_columns, layered_across)),
+    ("layered_along", Builtin::on_columns("layered_along(coefficient, thickness)", "effective coefficient for flow along layers: sum(K b) / sum(b) (Freeze & Cherry 1979, eq. 2.31)", not_columns, layered_along).citing(&[&LAYERED_ALONG])),
+    ("layered_across", Builtin::on_columns("layered_across(coefficient, thickness)", "effective coefficient for flow across layers: sum(b) / sum(b / K) (Freeze & Cherry 1979, eq. 2.32)", not_columns, layered_across).citing(&[&LAYERED_ACROSS])),
     ("interpolate", Builtin::on_columns("interpolate(xs, ys, x)", "y at x, linear between the rows of a table of columns xs, ys; outside the table is an error", not_columns, interpolate_linear)),
     ("interpolate_log", Builtin::on_columns("interpolate_log(xs, ys, x)", "y at x with ln y linear in x (for values spanning decades); ys positive; outside the table is an error", not_columns, interpolate_log)),
 ];
@@ -190,13 +214,17 @@ fn layers(arguments: &[Value]) -> Result<(Rows<'_>, Rows<'_>), CallError> {
     Ok((coefficient, thickness))
 }
 
-/// An effective coefficient of layers: the coefficient's dimension, no temperature kind.
+/// An effective coefficient of layers: the coefficient's dimension, no temperature kind. The
+/// formulation is recorded once the layers are accepted.
 fn layered(
     arguments: &[Value],
     mean: fn(&[f64], &[f64]) -> Result<f64, ColumnError>,
+    formulation: &'static Formulation,
+    provenance: &mut Provenance,
 ) -> Option<Result<Value, CallError>> {
     Some(layers(arguments).and_then(|(coefficient, thickness)| {
         let value = mean(coefficient.values, thickness.values).map_err(numeric_error(0))?;
+        provenance.record(formulation);
         Ok(scalar(
             value,
             coefficient.dimension,
@@ -205,12 +233,28 @@ fn layered(
     }))
 }
 
-fn layered_along(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    layered(arguments, numeric::layered_along)
+fn layered_along(
+    arguments: &[Value],
+    provenance: &mut Provenance,
+) -> Option<Result<Value, CallError>> {
+    layered(
+        arguments,
+        numeric::layered_along,
+        &LAYERED_ALONG,
+        provenance,
+    )
 }
 
-fn layered_across(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    layered(arguments, numeric::layered_across)
+fn layered_across(
+    arguments: &[Value],
+    provenance: &mut Provenance,
+) -> Option<Result<Value, CallError>> {
+    layered(
+        arguments,
+        numeric::layered_across,
+        &LAYERED_ACROSS,
+        provenance,
+    )
 }
 
 fn interpolate_linear(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {

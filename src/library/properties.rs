@@ -8,6 +8,7 @@
 use super::air;
 use super::brine;
 use super::formulation::{Formulation, OutOfRange};
+use super::transport;
 use super::water;
 use super::Builtin;
 use crate::eval::function::{expect_argument_count, expect_dimension, CallError, RowKernel};
@@ -38,6 +39,13 @@ const IF97: &[&Formulation] = &[&water::IF97_REGION1];
 const IF97_AND_VISCOSITY: &[&Formulation] = &[&water::IF97_REGION1, &water::IAPWS2008_VISCOSITY];
 const IF97_AND_CONDUCTIVITY: &[&Formulation] =
     &[&water::IF97_REGION1, &water::IAPWS2011_CONDUCTIVITY];
+/// `hydraulic_conductivity` and `intrinsic_permeability`: the relation itself, and the water
+/// properties when the fluid is water at T.
+const PERMEABILITY_WITH_WATER: &[&Formulation] = &[
+    &transport::CONDUCTIVITY_FROM_PERMEABILITY,
+    &water::IF97_REGION1,
+    &water::IAPWS2008_VISCOSITY,
+];
 const SATURATION: &[&Formulation] = &[&water::IF97_REGION4];
 const BRINE_DENSITY: &[&Formulation] = &[&brine::BATZLE_WANG_DENSITY];
 const BRINE_VISCOSITY: &[&Formulation] = &[&brine::BATZLE_WANG_VISCOSITY];
@@ -55,8 +63,8 @@ pub const FUNCTIONS: &[(&str, Builtin)] = &[
     ("brine_viscosity", Builtin::new("brine_viscosity(T, S)", "dynamic viscosity of NaCl brine; S is the NaCl mass fraction", brine_viscosity).citing(BRINE_VISCOSITY)),
     ("air_viscosity", Builtin::new("air_viscosity(T)", "dynamic viscosity of dry air (Sutherland's law)", air_viscosity).citing(AIR_VISCOSITY)),
     ("air_density", Builtin::new("air_density(T, p)", "density of dry air as an ideal gas", air_density).citing(AIR_DENSITY)),
-    ("hydraulic_conductivity", Builtin::new("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", "K = k rho g0 / mu: for water at T (and p), or for any fluid of density rho and viscosity mu", hydraulic_conductivity).citing(IF97_AND_VISCOSITY).with_kernel(hydraulic_conductivity_rows)),
-    ("intrinsic_permeability", Builtin::new("intrinsic_permeability(K, T[, p]) or (K, rho, mu)", "k = K mu / (rho g0): for water at T (and p), or for any fluid", intrinsic_permeability).citing(IF97_AND_VISCOSITY).with_kernel(intrinsic_permeability_rows)),
+    ("hydraulic_conductivity", Builtin::new("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", "K = k rho g0 / mu: for water at T (and p), or for any fluid of density rho and viscosity mu", hydraulic_conductivity).citing(PERMEABILITY_WITH_WATER).with_kernel(hydraulic_conductivity_rows)),
+    ("intrinsic_permeability", Builtin::new("intrinsic_permeability(K, T[, p]) or (K, rho, mu)", "k = K mu / (rho g0): for water at T (and p), or for any fluid", intrinsic_permeability).citing(PERMEABILITY_WITH_WATER).with_kernel(intrinsic_permeability_rows)),
 ];
 
 /// An absolute temperature argument; a temperature difference is refused.
@@ -242,8 +250,18 @@ fn air_density(arguments: &[Quantity], provenance: &mut Provenance) -> Result<Qu
 }
 
 /// Density and viscosity of the fluid named by arguments 1.. : `(T[, p])` for water, or
-/// `(rho, mu)` for any fluid. The second argument's dimension says which form was meant.
+/// `(rho, mu)` for any fluid. The second argument's dimension says which form was meant. Both
+/// forms record the k-K relation the callers evaluate with them.
 fn fluid(arguments: &[Quantity], provenance: &mut Provenance) -> Result<(f64, f64), CallError> {
+    let (density, viscosity) = fluid_properties(arguments, provenance)?;
+    provenance.record(&transport::CONDUCTIVITY_FROM_PERMEABILITY);
+    Ok((density, viscosity))
+}
+
+fn fluid_properties(
+    arguments: &[Quantity],
+    provenance: &mut Provenance,
+) -> Result<(f64, f64), CallError> {
     expect_argument_count(
         arguments,
         2,

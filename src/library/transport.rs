@@ -79,6 +79,18 @@ chapter 5",
 intrinsic permeability",
 };
 
+/// Hydraulic conductivity and intrinsic permeability, one property of the medium and one of
+/// the fluid; `hydraulic_conductivity` and `intrinsic_permeability` evaluate it both ways.
+pub static CONDUCTIVITY_FROM_PERMEABILITY: Formulation = Formulation {
+    id: "conductivity-permeability",
+    title: "hydraulic conductivity from intrinsic permeability, K = k rho g0 / mu",
+    citation: "Hubbert, M. K., 1940, The theory of ground-water motion, Journal of Geology \
+48(8), 785-944; Freeze, R. A. and Cherry, J. A., 1979, Groundwater, Prentice-Hall, Englewood \
+Cliffs NJ, section 2.3",
+    validity: "one Newtonian fluid of density rho and viscosity mu saturating the medium; k a \
+property of the medium alone (no gas slippage, no swelling clay)",
+};
+
 /// The average velocity of water in the connected pores.
 pub static SEEPAGE_VELOCITY: Formulation = Formulation {
     id: "seepage-velocity",
