@@ -458,13 +458,15 @@ fn markdown_report_has_the_sheet_checks_sources_hash_version_and_caution() {
     assert!(report.contains(&format!("fluxsheet {}", env!("CARGO_PKG_VERSION"))));
     assert!(report.contains(fluxsheet::render::CAUTION));
     // Exactly the formulations used: hydraulic_conductivity(k, T) is IF97 region 1 for the
-    // density and IAPWS 2008 for the viscosity, nothing else.
+    // density, IAPWS 2008 for the viscosity and K = k rho g0 / mu, nothing else.
     let sources = sources_section(&report);
-    assert_eq!(sources.len(), 2, "{sources:#?}");
+    assert_eq!(sources.len(), 3, "{sources:#?}");
     assert!(sources[0].starts_with("- **IAPWS-IF97 region 1 (liquid water)**"));
     assert!(sources[0].contains("273.15 K <= T <= 623.15 K"));
     assert!(sources[1].starts_with("- **IAPWS 2008 viscosity of water"));
     assert!(sources[1].contains("IAPWS R12-08"));
+    assert!(sources[2].starts_with("- **hydraulic conductivity from intrinsic permeability"));
+    assert!(sources[2].contains("Hubbert"));
 }
 
 #[test]

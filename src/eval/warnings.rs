@@ -552,13 +552,11 @@ fn writes_angle_unit<'a>(
         | ExpressionKind::List {
             unit: Some(unit), ..
         } => angle |= unit_is_angle(unit),
-        ExpressionKind::Name(name) => {
-            if visited.insert(name.as_str()) {
-                angle |= match definitions.get(name.as_str()) {
-                    Some(defined) => writes_angle_unit(defined, definitions, visited),
-                    None => true,
-                };
-            }
+        ExpressionKind::Name(name) if visited.insert(name.as_str()) => {
+            angle |= match definitions.get(name.as_str()) {
+                Some(defined) => writes_angle_unit(defined, definitions, visited),
+                None => true,
+            };
         }
         ExpressionKind::FileColumn { .. } => angle = true,
         _ => {}
