@@ -11,6 +11,8 @@
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
+//! - `trust`: no silent wrong numbers: temperatures, absolute zero, check boundaries, domains,
+//!   letter case of units, and an oracle over random sheets.
 
 mod checker;
 mod cli;
@@ -23,5 +25,6 @@ mod reference;
 mod repl;
 mod robustness;
 mod transport;
+mod trust;
 mod util;
 mod worksheets;

@@ -83,7 +83,10 @@ fn catalog() -> &'static Catalog {
             };
             for symbol in definition.symbols {
                 by_symbol.insert(*symbol, entries.len());
-                by_folded.entry(symbol.to_lowercase()).or_default().push(symbol);
+                by_folded
+                    .entry(symbol.to_lowercase())
+                    .or_default()
+                    .push(symbol);
             }
             entries.push(CatalogEntry { definition, unit });
         }
