@@ -12,6 +12,8 @@
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `trust_warnings`: warnings only where a mistake is likely; formulations cited by every relation.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
+//! - `trust`: no silent wrong numbers: temperatures, absolute zero, check boundaries, domains,
+//!   letter case of units, and an oracle over random sheets.
 
 mod checker;
 mod cli;
@@ -24,6 +26,7 @@ mod reference;
 mod repl;
 mod robustness;
 mod transport;
+mod trust;
 mod trust_warnings;
 mod util;
 mod worksheets;
