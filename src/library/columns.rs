@@ -122,49 +122,33 @@ fn scalar(value: f64, dimension: Dimension, temperature: TemperatureKind) -> Val
     })
 }
 
-/// Sums of absolute temperatures mean nothing (the scales' zeros are arbitrary).
-fn refuse_absolute_temperature(rows: &Rows, what: &str) -> Result<(), CallError> {
-    if rows.dimension.is_temperature() && matches!(rows.temperature, TemperatureKind::Absolute(_)) {
-        return Err(CallError::Domain {
-            argument: Some(0),
-            message: format!(
-                "the {what} of absolute temperatures has no meaning; use `mean`, or temperature differences"
-            ),
-        });
-    }
-    Ok(())
-}
-
-/// An aggregate of one column: same dimension and temperature kind as the rows. `refused`
-/// names the aggregate when it has no meaning for absolute temperatures.
+/// An aggregate of one column: same dimension and temperature kind as the rows. Absolute
+/// temperatures reach only the aggregates marked `taking_temperature` (the evaluator refuses
+/// them elsewhere), so a sum of `degC` values never happens.
 fn aggregate(
     arguments: &[Value],
-    refused: Option<&str>,
     reduce: impl Fn(&[f64]) -> Result<f64, ColumnError>,
 ) -> Option<Result<Value, CallError>> {
     Some(single(arguments).and_then(|rows| {
-        if let Some(what) = refused {
-            refuse_absolute_temperature(&rows, what)?;
-        }
         let value = reduce(rows.values).map_err(numeric_error(0))?;
         Ok(scalar(value, rows.dimension, rows.temperature))
     }))
 }
 
 fn sum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    aggregate(arguments, Some("sum"), numeric::sum)
+    aggregate(arguments, numeric::sum)
 }
 
 fn mean(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    aggregate(arguments, None, numeric::mean)
+    aggregate(arguments, numeric::mean)
 }
 
 fn geomean(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    aggregate(arguments, Some("geometric mean"), numeric::geometric_mean)
+    aggregate(arguments, numeric::geometric_mean)
 }
 
 fn harmean(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
-    aggregate(arguments, Some("harmonic mean"), numeric::harmonic_mean)
+    aggregate(arguments, numeric::harmonic_mean)
 }
 
 fn count(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
@@ -184,7 +168,7 @@ fn extreme(arguments: &[Value], pick: Extreme) -> Option<Result<Value, CallError
     let [Value::Column(_) | Value::Labels(_)] = arguments else {
         return None;
     };
-    aggregate(arguments, None, |values| {
+    aggregate(arguments, |values| {
         pick(values).map(|(value, _)| value)
     })
 }
