@@ -11,6 +11,8 @@
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
+//! - `trust_front`: solve precision over wide brackets, sessions loading sheets with includes,
+//!   expressions starting with a minus sign on the command line.
 
 mod checker;
 mod cli;
@@ -23,5 +25,6 @@ mod reference;
 mod repl;
 mod robustness;
 mod transport;
+mod trust_front;
 mod util;
 mod worksheets;

@@ -1,0 +1,105 @@
+//! No silent wrong numbers at the front doors: `solve` to full precision over brackets that
+//! span decades, sessions that load sheets with includes, and expressions that start with a
+//! minus sign on the command line. Reference values name their source.
+
+use crate::util::{assert_close, run_sheet};
+
+/// `run --format json` of a sheet given as text: the JSON, after checking the run was clean.
+fn run_json(sheet: &str) -> serde_json::Value {
+    let (code, stdout, stderr) = run_sheet(sheet, &["--format", "json"]);
+    assert_eq!(code, 0, "{stderr}{stdout}");
+    serde_json::from_str(&stdout).expect("valid JSON")
+}
+
+/// The JSON object of the line `name`.
+fn json_line<'j>(json: &'j serde_json::Value, name: &str) -> &'j serde_json::Value {
+    json["lines"]
+        .as_array()
+        .expect("lines")
+        .iter()
+        .find(|line| line["name"] == name)
+        .unwrap_or_else(|| panic!("no line `{name}` in {json}"))
+}
+
+/// The SI value of a solved line and the accuracy its note claims: the final bracket's width
+/// relative to the root, or the residual relative to the target when the line met it to
+/// rounding. Panics if the note claims neither.
+fn solved(json: &serde_json::Value, name: &str) -> (f64, f64) {
+    let line = json_line(json, name);
+    let value = line["si_value"].as_f64().expect("a number");
+    let note = line["note"].as_str().expect("a solve note");
+    let number_after = |marker: &str| -> Option<f64> {
+        let rest = &note[note.find(marker)? + marker.len()..];
+        rest.split_whitespace().next()?.parse().ok()
+    };
+    let claimed = if note.contains("(exact)") {
+        0.0
+    } else if note.contains("meets the target to rounding") {
+        number_after("(").expect("the residual relative to the target")
+    } else {
+        number_after("root bracketed to ").expect("the bracket width")
+    };
+    (value, claimed)
+}
+
+/// A root of a decade-spanning bracket is found to the last digits: today's solve would stop
+/// at 1e-12 of the larger bracket end (1e-6 m here), leaving 1e-5 m wrong by 1 %.
+#[test]
+fn solve_over_a_log_spaced_bracket_finds_cube_roots_to_full_precision() {
+    let sheet = "\
+x = 1 m
+y [m^3] = x^3
+x_small [m] = solve y == 2e-15 m^3 for x between 1e-6 m and 1e6 m
+x_unit [m] = solve y == 2 m^3 for x between 1e-6 m and 1e6 m
+x_large [m] = solve y == 2e15 m^3 for x between 1e-6 m and 1e6 m
+";
+    let json = run_json(sheet);
+    // Cube roots of 2e-15, 2 and 2e15 (Python mpmath cbrt, 30 digits).
+    for (name, expected) in [
+        ("x_small", 1.259_921_049_894_873_2e-5),
+        ("x_unit", 1.259_921_049_894_873_2),
+        ("x_large", 1.259_921_049_894_873_2e5),
+    ] {
+        let (value, claimed) = solved(&json, name);
+        assert_close(value, expected, 1e-15, name);
+        assert!(claimed <= 1e-15, "{name}: claimed accuracy {claimed:e}");
+    }
+}
+
+/// The time at which a Theis drawdown reaches a target, bracketed by 1 s and 100 yr: the
+/// answer is 9.06 s, nine decades below the upper end.
+#[test]
+fn solve_for_a_theis_time_in_a_century_wide_bracket_matches_an_independent_root() {
+    let sheet = "\
+Q = 0.012 m^3/s
+T_aq = 4.5e-3 m^2/s
+S = 2.5e-4
+r = 25 m
+t = 1 d
+s [m] = theis_drawdown(Q, T_aq, S, r, t)
+t_reach [s] = solve s == 0.05 m for t between 1 s and 100 yr
+";
+    let json = run_json(sheet);
+    let (value, claimed) = solved(&json, "t_reach");
+    // Root of Q/(4 pi T) E1(r^2 S / (4 T t)) = 0.05 m for the inputs above, computed with
+    // Python mpmath findroot and e1 at 30 digits: 9.06377110489926789341 s.
+    assert_close(value, 9.063_771_104_899_268, 1e-12, "t_reach");
+    assert!(claimed <= 1e-14, "claimed accuracy {claimed:e}");
+}
+
+/// A root at zero has no relative precision; the note then gives the bracket's absolute width,
+/// and the answer is zero to the float spacing of the bracket's larger end.
+#[test]
+fn solve_for_a_root_at_zero_ends_and_says_how_close_it_is() {
+    let json =
+        run_json("x = 1 m\ny [m^3] = x^3\nx0 [m] = solve y == 0 m^3 for x between -1 m and 2 m\n");
+    let line = json_line(&json, "x0");
+    let value = line["si_value"].as_f64().expect("a number");
+    // The exact root is 0 (closed form); 2 m is the bracket's larger end.
+    assert!(value.abs() <= 2.0 * 2.0 * f64::EPSILON, "{value}");
+    let note = line["note"].as_str().expect("a solve note");
+    assert!(
+        note.contains("(exact)") || (note.contains("root bracketed to") && note.ends_with(" m")),
+        "{note}"
+    );
+}
