@@ -2198,7 +2198,7 @@ mod tests {
         );
         assert!(matches!(
             brent(
-                |x| ok(x),
+                ok,
                 -1.0,
                 1.0,
                 Tolerance {
