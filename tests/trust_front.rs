@@ -2,7 +2,7 @@
 //! span decades, sessions that load sheets with includes, and expressions that start with a
 //! minus sign on the command line. Reference values name their source.
 
-use crate::util::{assert_close, run_sheet};
+use crate::util::{assert_close, run, run_sheet};
 
 /// `run --format json` of a sheet given as text: the JSON, after checking the run was clean.
 fn run_json(sheet: &str) -> serde_json::Value {
@@ -102,4 +102,55 @@ fn solve_for_a_root_at_zero_ends_and_says_how_close_it_is() {
         note.contains("(exact)") || (note.contains("root bracketed to") && note.ends_with(" m")),
         "{note}"
     );
+}
+
+/// `-40 degF` is -40 degC: the two scales meet there (exact, from the definitions
+/// degF = (x + 459.67) * 5/9 K and degC = x + 273.15 K).
+#[test]
+fn eval_takes_an_expression_that_starts_with_a_minus_sign() {
+    let (code, stdout, stderr) = run(&["eval", "-40 degF [degC]"]);
+    assert_eq!(code, 0, "{stderr}");
+    let (number, unit) = stdout.trim().split_once(' ').expect("value and unit");
+    assert_eq!(unit, "degC", "{stdout}");
+    assert_close(number.parse().expect("a number"), -40.0, 1e-12, "table");
+    for arguments in [
+        ["eval", "--format", "json", "-40 degF [degC]"],
+        ["eval", "-40 degF [degC]", "--format", "json"],
+    ] {
+        let (code, stdout, stderr) = run(&arguments);
+        assert_eq!(code, 0, "{arguments:?}: {stderr}");
+        let json: serde_json::Value = serde_json::from_str(&stdout).expect("valid JSON");
+        assert_eq!(json["unit"], "degC", "{arguments:?}");
+        let value = json["value"].as_f64().expect("a number");
+        assert_close(value, -40.0, 1e-12, "json");
+        // -40 degC is 233.15 K (exact, from the definition of degC).
+        let kelvin = json["si_value"].as_f64().expect("a number");
+        assert_close(kelvin, 233.15, 1e-15, "json si_value");
+    }
+    // `-2^2` is -(2^2) (README: `^` binds tighter than unary minus).
+    let (code, stdout, _) = run(&["eval", "--digits", "3", "-2^2"]);
+    assert_eq!((code, stdout.as_str()), (0, "-4\n"));
+}
+
+#[test]
+fn a_mistyped_option_is_not_read_as_an_expression() {
+    let (code, _, stderr) = run(&["eval", "--bogus"]);
+    assert_eq!(code, 2, "{stderr}");
+    assert!(stderr.contains("not an option of `eval`"), "{stderr}");
+    // Real options and help keep working.
+    let (code, stdout, _) = run(&["eval", "--help"]);
+    assert_eq!(code, 0);
+    assert!(stdout.contains("-40 degF [degC]"), "{stdout}");
+}
+
+#[test]
+fn set_takes_a_negative_value() {
+    let sheet = "x = 2 m\ny [m] = x * 2\n";
+    let (code, stdout, stderr) = run_sheet(sheet, &["--format", "json", "--set", "x=-3 m"]);
+    assert_eq!(code, 0, "{stderr}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).expect("valid JSON");
+    let y = json_line(&json, "y")["si_value"]
+        .as_f64()
+        .expect("a number");
+    assert_close(y, -6.0, 1e-15, "y = -3 m * 2");
 }
