@@ -18,7 +18,6 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
-pub(crate) mod includes;
 mod plots;
 mod properties;
 mod report;
@@ -281,7 +280,8 @@ pub(crate) fn evaluate_file(
     deny: bool,
     settings: &Settings,
 ) -> Evaluation {
-    let mut loader = includes::FileIncludeLoader::new(&source.label, path, allow_outside);
+    let mut loader =
+        crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside);
     let mut evaluation = evaluate_with(
         &source.label,
         &source.text,

@@ -6,6 +6,7 @@
 
 pub mod cli;
 pub mod eval;
+pub mod front;
 pub mod library;
 pub mod numeric;
 pub mod render;

@@ -711,7 +711,7 @@ impl Repl {
     /// `run`, and hands them to the session.
     fn read_data_files(&mut self, text: &str, sheet: Option<&Path>) {
         let label = sheet.map_or("<session>".to_string(), |path| path.display().to_string());
-        let mut loader = crate::cli::includes::FileIncludeLoader::new(&label, sheet, false);
+        let mut loader = crate::front::includes::FileIncludeLoader::new(&label, sheet, false);
         for (index, line) in text.lines().enumerate() {
             let Ok(parsed) = crate::syntax::parse_line(line, index + 1, 0) else {
                 continue;
