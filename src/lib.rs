@@ -2,7 +2,8 @@
 //! media (Darcy, Fick, Fourier, Ohm).
 //!
 //! Layers, each using only those before it: `syntax` and `units` → `eval` → `library` →
-//! `render`. The front ends (`cli`, `repl`) are the only code that touches files or the terminal.
+//! `render`. The front ends (`cli`, `repl`, and `front`, which they share) are the only code that
+//! touches files or the terminal.
 
 pub mod cli;
 pub mod eval;

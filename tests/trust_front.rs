@@ -2,7 +2,7 @@
 //! span decades, sessions that load sheets with includes, and expressions that start with a
 //! minus sign on the command line. Reference values name their source.
 
-use crate::util::{assert_close, run, run_sheet};
+use crate::util::{assert_close, fluxsheet, run, run_sheet};
 
 /// `run --format json` of a sheet given as text: the JSON, after checking the run was clean.
 fn run_json(sheet: &str) -> serde_json::Value {
@@ -153,4 +153,167 @@ fn set_takes_a_negative_value() {
         .as_f64()
         .expect("a number");
     assert_close(y, -6.0, 1e-15, "y = -3 m * 2");
+}
+
+/// Runs `fluxsheet ARGS…` from the repository's folder (so `worksheets/…` paths resolve as a
+/// user would type them) with `script` on standard input.
+fn session_in_repository(arguments: &[&str], script: &str) -> (i32, String, String) {
+    crate::util::outcome(
+        fluxsheet()
+            .current_dir(env!("CARGO_MANIFEST_DIR"))
+            .env("FLUXSHEET_HISTORY", "off")
+            .args(arguments)
+            .write_stdin(script),
+    )
+}
+
+/// No line of a session's error output is an `error:` with nothing after it.
+fn assert_no_empty_error(stderr: &str) {
+    for line in stderr.lines() {
+        let trimmed = line.trim();
+        assert!(
+            !(trimmed == "error:" || trimmed.ends_with(" error:") || trimmed.ends_with("error: ")),
+            "an error without a message: {line:?} in\n{stderr}"
+        );
+    }
+}
+
+/// The lines of the liner sheet that depend on its include (`site_K`, `rho_gw`, `mu_gw` come
+/// from `shared/eastfield_constants.fxs`), and one that does not.
+const LINER_LINES: [&str; 5] = ["K_liner", "q_leak", "Q_leak", "Q_leak_daily", "J_cl"];
+
+/// `name`'s shown value and unit as `fluxsheet run --format json` gives them for the liner sheet.
+fn liner_values_from_run() -> Vec<(f64, String)> {
+    let sheet = crate::util::worksheet("clay_liner_leakage.fxs");
+    let (code, stdout, stderr) = run(&["run", "--format", "json", sheet.to_str().unwrap()]);
+    assert_eq!(code, 0, "{stderr}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).expect("valid JSON");
+    LINER_LINES
+        .iter()
+        .map(|name| {
+            let line = json_line(&json, name);
+            (
+                line["value"].as_f64().expect("a number"),
+                line["unit"].as_str().expect("a unit").to_string(),
+            )
+        })
+        .collect()
+}
+
+/// Checks that a session printed, for each of `LINER_LINES` asked as a bare expression, the
+/// value and unit `run` gives (printed at 15 digits).
+fn assert_session_matches_run(stdout: &str) {
+    let printed: Vec<&str> = stdout.lines().rev().take(LINER_LINES.len()).collect();
+    let printed: Vec<&str> = printed.into_iter().rev().collect();
+    for ((name, (expected, unit)), line) in
+        LINER_LINES.iter().zip(liner_values_from_run()).zip(printed)
+    {
+        let (number, printed_unit) = line.split_once(' ').expect("value and unit");
+        assert_eq!(printed_unit, unit, "{name}: {line}");
+        assert_close(number.parse().expect("a number"), expected, 1e-14, name);
+    }
+}
+
+#[test]
+fn a_session_loads_a_sheet_with_includes_and_gives_the_values_of_run() {
+    let script = format!(
+        ":load worksheets/clay_liner_leakage.fxs\n{}\n",
+        LINER_LINES.join("\n")
+    );
+    let (code, stdout, stderr) = session_in_repository(&["repl", "--digits", "15"], &script);
+    assert_eq!(code, 0, "{stderr}\n{stdout}");
+    assert_no_empty_error(&stderr);
+    assert!(
+        stdout.starts_with("loaded worksheets/clay_liner_leakage.fxs: 26 lines"),
+        "{stdout}"
+    );
+    assert_session_matches_run(&stdout);
+}
+
+#[test]
+fn a_session_opened_on_a_sheet_with_includes_gives_the_values_of_run() {
+    let script = format!("{}\n", LINER_LINES.join("\n"));
+    let (code, stdout, stderr) = session_in_repository(
+        &[
+            "repl",
+            "--digits",
+            "15",
+            "worksheets/clay_liner_leakage.fxs",
+        ],
+        &script,
+    );
+    assert_eq!(code, 0, "{stderr}\n{stdout}");
+    assert_no_empty_error(&stderr);
+    assert_session_matches_run(&stdout);
+}
+
+#[test]
+fn included_lines_are_used_but_not_listed_saved_or_redefined() {
+    let folder = tempfile::tempdir().unwrap();
+    std::fs::create_dir(folder.path().join("shared")).unwrap();
+    std::fs::write(
+        folder.path().join("shared/site.fxs"),
+        "g_site = 9.81 m/s^2\nhead(p) [m] = p / (1000 kg/m^3 * g_site)\n",
+    )
+    .unwrap();
+    std::fs::write(
+        folder.path().join("main.fxs"),
+        "include \"shared/site.fxs\"\np = 98.1 kPa\nh = head(p)\n",
+    )
+    .unwrap();
+    let script = ":lines\ng_site = 10 m/s^2\ninclude \"shared/site.fxs\"\nh [m]\n:save copy.fxs\n";
+    let (code, stdout, stderr) = crate::util::outcome(
+        fluxsheet()
+            .current_dir(folder.path())
+            .env("FLUXSHEET_HISTORY", "off")
+            .args(["repl", "main.fxs"])
+            .write_stdin(script),
+    );
+    assert_eq!(code, 3, "two entries were refused: {stderr}");
+    assert_no_empty_error(&stderr);
+    // 98.1 kPa / (1000 kg/m^3 * 9.81 m/s^2) = 10 m (hand computation).
+    assert!(stdout.contains("\n10 m\n"), "{stdout}");
+    assert!(
+        !stdout.contains("g_site ="),
+        "included lines are not listed: {stdout}"
+    );
+    assert!(
+        stderr.contains("`g_site` is defined in the included sheet"),
+        "{stderr}"
+    );
+    assert!(stderr.contains("`:load` the sheet"), "{stderr}");
+    let saved = std::fs::read_to_string(folder.path().join("copy.fxs")).unwrap();
+    assert_eq!(
+        saved,
+        "include \"shared/site.fxs\"\np = 98.1 kPa\nh = head(p)\n"
+    );
+}
+
+#[test]
+fn a_session_keeps_the_include_sandbox_of_run() {
+    let folder = tempfile::tempdir().unwrap();
+    std::fs::write(folder.path().join("outside.fxs"), "a = 1 m\n").unwrap();
+    let inner = folder.path().join("inner");
+    std::fs::create_dir(&inner).unwrap();
+    std::fs::write(
+        inner.join("main.fxs"),
+        "include \"../outside.fxs\"\nb = a * 2\n",
+    )
+    .unwrap();
+    let sheet = inner.join("main.fxs");
+    let sheet = sheet.to_str().unwrap();
+    let (run_code, _, run_stderr) = run(&["run", sheet]);
+    assert_eq!(run_code, 3);
+    assert!(
+        run_stderr.contains("outside the sheet's folder"),
+        "{run_stderr}"
+    );
+    let (code, _, stderr) = session_in_repository(&["repl", sheet], "b\n");
+    assert_eq!(code, 3);
+    assert_no_empty_error(&stderr);
+    assert!(stderr.contains("outside the sheet's folder"), "{stderr}");
+    assert!(
+        stderr.contains("`a` has no value") || stderr.contains("unknown name `a`"),
+        "{stderr}"
+    );
 }
