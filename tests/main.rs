@@ -11,6 +11,8 @@
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
+//! - `trust`: no silent wrong numbers: temperatures, absolute zero, check boundaries, domains,
+//!   letter case of units, and an oracle over random sheets.
 //! - `trust_front`: solve precision over wide brackets, sessions loading sheets with includes,
 //!   expressions starting with a minus sign on the command line.
 
@@ -25,6 +27,7 @@ mod reference;
 mod repl;
 mod robustness;
 mod transport;
+mod trust;
 mod trust_front;
 mod util;
 mod worksheets;

@@ -3,7 +3,7 @@
 //! `f64`, and a single pass afterwards finds the first row that overflowed or divided by zero.
 
 use super::error::{EvalError, EvalErrorKind};
-use super::evaluate::binary;
+use super::evaluate::{binary, refuse_below_absolute_zero, refuse_offset_temperature};
 use super::value::{Column, Quantity, TemperatureKind, Value};
 use crate::syntax::{BinaryOperator, Span};
 use std::sync::Arc;
@@ -147,6 +147,15 @@ pub(crate) fn combine(
         };
         return Err(EvalError::new(kind, span).in_row(row, &origin));
     }
+    if result_shape.is_absolute_temperature() {
+        if let Some(row) = values.iter().position(|kelvin| *kelvin < 0.0) {
+            let below = Quantity {
+                value: values[row],
+                ..result_shape
+            };
+            refuse_below_absolute_zero(&below, false, span).map_err(|e| e.in_row(row, &origin))?;
+        }
+    }
     Ok(Value::Column(Column {
         values: Arc::new(values),
         dimension: result_shape.dimension,
@@ -157,6 +166,12 @@ pub(crate) fn combine(
 
 /// `-value`: a difference stays a difference; anything else negated is a plain quantity.
 pub(crate) fn negate(value: Value, span: Span) -> Result<Value, EvalError> {
+    if let Value::Scalar(quantity) = &value {
+        refuse_offset_temperature(quantity, "negated", span)?;
+    }
+    if let Value::Column(column) = &value {
+        refuse_offset_temperature(&column.shape(), "negated", span)?;
+    }
     let temperature = |kind: TemperatureKind| match kind {
         TemperatureKind::Difference => TemperatureKind::Difference,
         _ => TemperatureKind::Unspecified,

@@ -2,9 +2,8 @@
 //! read into columns with the same exact unit conversions as literals. A missing value, a bad
 //! number or an unknown unit is an error naming the line and the column; nothing is guessed.
 
-use super::evaluate::resolve_unit;
-use super::value::{Column, Labels, TemperatureKind, Value};
-use crate::units::TemperatureRole;
+use super::evaluate::{literal_temperature, resolve_unit};
+use super::value::{Column, Labels, Value};
 use std::sync::Arc;
 
 /// A data file's columns, in file order.
@@ -133,13 +132,15 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
                 if !value.is_finite() {
                     return Err(format!("{where_}: `{text}` is out of range"));
                 }
+                if unit.is_absolute_temperature() && value < 0.0 {
+                    return Err(format!(
+                        "{where_}: `{text}` is below absolute zero ({} K)",
+                        crate::eval::error::short_number(value)
+                    ));
+                }
                 values.push(value);
             }
-            let temperature = match unit.temperature {
-                TemperatureRole::Absolute => TemperatureKind::Absolute,
-                TemperatureRole::Difference => TemperatureKind::Difference,
-                TemperatureRole::None => TemperatureKind::Unspecified,
-            };
+            let temperature = literal_temperature(&unit);
             Value::Column(Column {
                 values: Arc::new(values),
                 dimension: unit.dimension,

@@ -3,6 +3,7 @@
 
 use super::diagnostic::Diagnostic;
 use super::function::{describe_dimension, CallError};
+use super::value::OffsetScale;
 use crate::syntax::Span;
 use crate::units::Dimension;
 use std::fmt;
@@ -39,6 +40,13 @@ pub enum EvalErrorKind {
         symbol: String,
         suggestions: Vec<String>,
     },
+    /// `PA`: a prefixed reading (peta-ampere) that exists only because of case, beside `Pa`.
+    CaseOnlyUnit {
+        symbol: String,
+        reading: String,
+        suggestion: String,
+        suggestion_name: String,
+    },
     DuplicateDefinition {
         name: String,
         first_line: usize,
@@ -68,6 +76,22 @@ pub enum EvalErrorKind {
     NotFinite,
     AbsoluteTemperatureSum,
     AbsoluteFromDifference,
+    /// An absolute temperature from an offset scale (`60 degC`) multiplied, divided, raised to
+    /// a power, negated or passed to a function that does not take a temperature.
+    OffsetTemperature {
+        /// The operand as written (`dT`, `10 degC`), when it is a name or a literal.
+        operand: Option<String>,
+        scale: OffsetScale,
+        kelvin: f64,
+        /// What was done to it: `multiplied`, `divided`, `passed to `sqrt``.
+        operation: String,
+    },
+    /// An absolute temperature below 0 K, made or shown.
+    BelowAbsoluteZero {
+        kelvin: f64,
+        /// The scale it was written on, to say it back in the user's numbers.
+        scale: Option<OffsetScale>,
+    },
     DifferenceShownAsAbsolute {
         unit: String,
     },
@@ -194,6 +218,9 @@ impl EvalError {
                 let list = suggestions.iter().map(|symbol| format!("`{symbol}`")).collect::<Vec<_>>();
                 diagnostic.with_help(Some(format!("did you mean {}? (`fluxsheet units` lists them all)", list.join(", "))))
             }
+            EvalErrorKind::CaseOnlyUnit { suggestion, suggestion_name, .. } => diagnostic.with_help(Some(format!(
+                "did you mean `{suggestion}` ({suggestion_name})? Unit symbols are case-sensitive; if the prefixed unit is really meant, write the power of ten times the base unit"
+            ))),
             EvalErrorKind::UnknownUnit { .. } => diagnostic.with_help(Some(
                 "`fluxsheet units` lists the known units; a product of a number and a name needs `*`".to_string(),
             )),
@@ -202,6 +229,23 @@ impl EvalError {
             )),
             EvalErrorKind::AbsoluteShownAsDifference { .. } => diagnostic
                 .with_help(Some("an absolute temperature shows in `[degC]`, `[degF]` or `[K]`".to_string())),
+            EvalErrorKind::OffsetTemperature { operand, scale, kelvin, .. } => {
+                let written = short_number(scale.from_kelvin(*kelvin));
+                let difference = match scale {
+                    OffsetScale::Celsius => format!("`{written} K` or `{written} delta_degC`"),
+                    OffsetScale::Fahrenheit => format!("`{written} delta_degF`"),
+                };
+                let absolute = match operand {
+                    Some(operand) => format!("`kelvin({operand})` ({} K)", short_number(*kelvin)),
+                    None => "`kelvin(…)` around it".to_string(),
+                };
+                diagnostic.with_help(Some(format!(
+                    "for a temperature difference of {written} degrees write {difference}; for the absolute temperature in kelvin write {absolute}"
+                )))
+            }
+            EvalErrorKind::BelowAbsoluteZero { .. } => diagnostic.with_help(Some(
+                "absolute zero is 0 K, -273.15 degC or -459.67 degF; a temperature difference is written `5 K` or `5 delta_degC`".to_string(),
+            )),
             EvalErrorKind::AbsoluteTemperatureSum => diagnostic.with_help(Some(
                 "subtract them for a difference, or add a difference such as `5 delta_degC`".to_string(),
             )),
@@ -233,6 +277,7 @@ impl fmt::Display for EvalError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
         self.kind.fmt(formatter)?;
         match self.row.as_deref() {
+            Some((row, origin)) if origin.is_empty() => write!(formatter, " (in row {row})"),
             Some((row, origin)) => write!(formatter, " (in row {row} of `{origin}`)"),
             None => Ok(()),
         }
@@ -251,6 +296,10 @@ impl fmt::Display for EvalErrorKind {
                 write!(formatter, "`{name}` is a value, not a function; use `*` to multiply")
             }
             EvalErrorKind::UnknownUnit { symbol, .. } => write!(formatter, "unknown unit `{symbol}`"),
+            EvalErrorKind::CaseOnlyUnit { symbol, reading, .. } => write!(
+                formatter,
+                "unit `{symbol}` would be read as {reading}: it differs from a catalog unit only by letter case"
+            ),
             EvalErrorKind::DuplicateDefinition { name, first_line, .. } => {
                 write!(formatter, "`{name}` is already defined on line {first_line}")
             }
@@ -281,6 +330,28 @@ impl fmt::Display for EvalErrorKind {
             EvalErrorKind::DivisionByZero => formatter.write_str("division by zero"),
             EvalErrorKind::NotFinite => formatter.write_str("the result is not a finite number (overflow)"),
             EvalErrorKind::AbsoluteTemperatureSum => formatter.write_str("cannot add two absolute temperatures"),
+            EvalErrorKind::OffsetTemperature { operand, scale, kelvin, operation } => {
+                let written = format!("{} {}", short_number(scale.from_kelvin(*kelvin)), scale.symbol());
+                let named = match operand {
+                    Some(operand) if *operand != written => format!(" (`{operand}`)"),
+                    _ => String::new(),
+                };
+                write!(
+                    formatter,
+                    "an absolute temperature of {written}{named} cannot be {operation} as if it were {} K: say whether a difference or kelvin is meant",
+                    short_number(*kelvin)
+                )
+            }
+            EvalErrorKind::BelowAbsoluteZero { kelvin, scale } => match scale {
+                Some(scale) => write!(
+                    formatter,
+                    "{} {} is below absolute zero ({} K)",
+                    short_number(scale.from_kelvin(*kelvin)),
+                    scale.symbol(),
+                    short_number(*kelvin)
+                ),
+                None => write!(formatter, "{} K is below absolute zero", short_number(*kelvin)),
+            },
             EvalErrorKind::AbsoluteFromDifference => {
                 formatter.write_str("cannot subtract an absolute temperature from a temperature difference")
             }
@@ -343,4 +414,14 @@ impl fmt::Display for EvalErrorKind {
             ),
         }
     }
+}
+
+/// A number for a message: seven significant figures, then the shortest form (`60`, `333.15`,
+/// `261.4833`), so a value converted back to the user's scale reads as they wrote it.
+pub fn short_number(value: f64) -> String {
+    let rounded: f64 = format!("{value:.6e}").parse().unwrap_or(value);
+    if rounded == 0.0 {
+        return "0".to_string();
+    }
+    format!("{rounded}")
 }

@@ -10,7 +10,7 @@ use super::error::{EvalError, EvalErrorKind, Operation};
 use super::function::{CallError, Library, Provenance};
 use super::order::dependency_order;
 use super::sources::{IncludeLoader, NoIncludes, SourceMap};
-use super::value::{Column, Labels, Quantity, TemperatureKind, Value};
+use super::value::{Column, Labels, OffsetScale, Quantity, TemperatureKind, Value};
 use crate::syntax::{
     parse_sheet_at, BinaryOperator, Check, Comparison, Definition, Expression, ExpressionKind,
     FunctionDefinition, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
@@ -19,8 +19,9 @@ use crate::units::{Dimension, Exponent, TemperatureRole, Unit, UnitError};
 use rustc_hash::FxHashMap as HashMap;
 use std::sync::Arc;
 
-/// Relative tolerance of `==` and `!=` checks written without `within`.
-pub const DEFAULT_EQUALITY_TOLERANCE: f64 = 1e-9;
+/// Relative rounding allowance of every check written without `within`: sides closer than this
+/// count as equal (so `<=` passes and `<` fails at the boundary).
+pub const ROUNDING_ALLOWANCE: f64 = 1e-9;
 
 /// Everything a run of a sheet produced.
 #[derive(Debug, Clone)]
@@ -1074,7 +1075,8 @@ impl<'l> Calculator<'l> {
             } => self.call_builtin(function, arguments, span, scope)?,
             ExpressionKind::Negate(inner) => {
                 let value = self.expression(inner, scope)?;
-                super::columns::negate(value, span)?
+                super::columns::negate(value, span)
+                    .map_err(|error| point_at_operand(error, inner))?
             }
             ExpressionKind::Binary {
                 operator,
@@ -1083,7 +1085,10 @@ impl<'l> Calculator<'l> {
             } => {
                 let left_value = self.expression(left, scope)?;
                 let right_value = self.expression(right, scope)?;
-                super::columns::combine(*operator, &left_value, &right_value, span, right.span)?
+                super::columns::combine(*operator, &left_value, &right_value, span, right.span)
+                    .map_err(|error| {
+                        name_offset_operand(error, [(left, &left_value), (right, &right_value)])
+                    })?
             }
         };
         if let Value::Scalar(quantity) = &value {
@@ -1133,7 +1138,20 @@ impl<'l> Calculator<'l> {
         };
         let mut values = Vec::with_capacity(arguments.len());
         for argument in arguments {
-            values.push(self.expression(argument, scope)?);
+            let value = self.expression(argument, scope)?;
+            if !callee.takes_absolute_temperature() {
+                let shape = match &value {
+                    Value::Scalar(quantity) => Some(*quantity),
+                    Value::Column(column) => Some(column.shape()),
+                    Value::Labels(_) => None,
+                };
+                if let Some(shape) = shape {
+                    let operation = format!("passed to `{}`", function.text);
+                    refuse_offset_temperature(&shape, &operation, argument.span)
+                        .map_err(|error| point_at_operand(error, argument))?;
+                }
+            }
+            values.push(value);
         }
         self.calls.push(CallRecord {
             function: function.text.clone(),
@@ -1292,20 +1310,18 @@ impl<'l> Calculator<'l> {
             return Ok(Quantity::dimensionless(number));
         };
         let unit = self.unit(unit_expression)?;
-        let temperature = match unit.temperature {
-            TemperatureRole::Absolute => TemperatureKind::Absolute,
-            TemperatureRole::Difference => TemperatureKind::Difference,
-            TemperatureRole::None => TemperatureKind::Unspecified,
-        };
+        let temperature = literal_temperature(&unit);
         let value = unit.to_si(number, Some(digits));
         if !value.is_finite() {
             return Err(EvalError::new(EvalErrorKind::NotFinite, span).into());
         }
-        Ok(Quantity {
+        let quantity = Quantity {
             value,
             dimension: unit.dimension,
             temperature,
-        })
+        };
+        refuse_below_absolute_zero(&quantity, unit.is_absolute_temperature(), span)?;
+        Ok(quantity)
     }
 
     /// `{12, 40, 150} mD`: each number converted exactly, like a literal.
@@ -1667,17 +1683,19 @@ impl<'l> Calculator<'l> {
         };
         // How far row values are from failing: a check passes at a margin of zero or more
         // (strict comparisons need more than zero).
+        // Without a tolerance, sides within the rounding allowance count as equal, for every
+        // comparison alike: `0.3 m + 0.3 m + 0.3 m >= 0.9 m` passes and `0.3 m + 0.6 m < 0.9 m`
+        // fails, as they do on paper.
         let comparison = check.comparison;
         let margin = |l: f64, r: f64| {
-            let allowance = match tolerance {
-                None if matches!(comparison, Comparison::Equal | Comparison::NotEqual) => {
-                    DEFAULT_EQUALITY_TOLERANCE * r.abs().max(l.abs())
-                }
-                None => 0.0,
-                Some((fraction, true)) => fraction * r.abs(),
-                Some((absolute, false)) => absolute,
+            let (allowance, rounding) = match tolerance {
+                None => (ROUNDING_ALLOWANCE * r.abs().max(l.abs()), true),
+                Some((fraction, true)) => (fraction * r.abs(), false),
+                Some((absolute, false)) => (absolute, false),
             };
             match comparison {
+                Comparison::Less if rounding => r - allowance - l,
+                Comparison::Greater if rounding => l - (r + allowance),
                 Comparison::Less | Comparison::LessOrEqual => r + allowance - l,
                 Comparison::Greater | Comparison::GreaterOrEqual => l - (r - allowance),
                 Comparison::Equal => allowance - (l - r).abs(),
@@ -2060,6 +2078,20 @@ pub fn resolve_unit(expression: &UnitExpression) -> Result<Unit, EvalError> {
             },
             span,
         ),
+        UnitError::CaseOnly {
+            symbol,
+            reading,
+            suggestion,
+            suggestion_name,
+        } => EvalError::new(
+            EvalErrorKind::CaseOnlyUnit {
+                symbol,
+                reading,
+                suggestion,
+                suggestion_name,
+            },
+            span,
+        ),
         UnitError::ExponentOverflow => EvalError::new(EvalErrorKind::ExponentOverflow, span),
     };
     match &expression.kind {
@@ -2116,6 +2148,7 @@ pub fn show_in(
             span,
         ));
     }
+    refuse_below_absolute_zero(&quantity, unit.is_absolute_temperature(), span)?;
     let value = unit.from_si(quantity.value);
     if !value.is_finite() {
         return Err(EvalError::new(EvalErrorKind::NotFinite, span));
@@ -2134,7 +2167,7 @@ pub(crate) fn binary(
     span: Span,
     right_span: Span,
 ) -> Result<Quantity, EvalError> {
-    use TemperatureKind::{Absolute, Difference, Unspecified};
+    use TemperatureKind::Unspecified;
     let error = |kind| EvalError::new(kind, span);
     let overflow = |_| error(EvalErrorKind::ExponentOverflow);
     match operator {
@@ -2153,19 +2186,7 @@ pub(crate) fn binary(
                 }));
             }
             let temperature = if left.dimension.is_temperature() {
-                match (adding, left.temperature, right.temperature) {
-                    (true, Absolute, Absolute) => {
-                        return Err(error(EvalErrorKind::AbsoluteTemperatureSum))
-                    }
-                    (true, Absolute, _) | (true, _, Absolute) => Absolute,
-                    (false, Absolute | Unspecified, Absolute) => Difference,
-                    (false, Difference, Absolute) => {
-                        return Err(error(EvalErrorKind::AbsoluteFromDifference))
-                    }
-                    (false, Absolute, _) => Absolute,
-                    (_, Difference, _) | (_, _, Difference) => Difference,
-                    _ => Unspecified,
-                }
+                sum_temperature(adding, left.temperature, right.temperature).map_err(error)?
             } else {
                 Unspecified
             };
@@ -2174,13 +2195,17 @@ pub(crate) fn binary(
             } else {
                 left.value - right.value
             };
-            Ok(Quantity {
+            let sum = Quantity {
                 value,
                 dimension: left.dimension,
                 temperature,
-            })
+            };
+            refuse_below_absolute_zero(&sum, false, span)?;
+            Ok(sum)
         }
         BinaryOperator::Multiply => {
+            refuse_offset_temperature(&left, "multiplied", span)?;
+            refuse_offset_temperature(&right, "multiplied", span)?;
             let dimension = left
                 .dimension
                 .multiply(&right.dimension)
@@ -2192,6 +2217,8 @@ pub(crate) fn binary(
             })
         }
         BinaryOperator::Divide => {
+            refuse_offset_temperature(&left, "divided", span)?;
+            refuse_offset_temperature(&right, "divided by", span)?;
             if right.value == 0.0 {
                 return Err(EvalError::new(EvalErrorKind::DivisionByZero, right_span));
             }
@@ -2216,6 +2243,7 @@ pub(crate) fn binary(
                     right_span,
                 ));
             }
+            refuse_offset_temperature(&left, "raised to a power", span)?;
             let dimension = if left.dimension.is_dimensionless() {
                 left.dimension
             } else {
@@ -2243,6 +2271,113 @@ pub(crate) fn binary(
             Ok(Quantity::new(value, dimension))
         }
     }
+}
+
+/// Points an offset-temperature error at the operand that caused it and names it as written,
+/// so the suggested fix (`kelvin(dT)`) is in the user's own words.
+fn name_offset_operand(error: EvalError, operands: [(&Expression, &Value); 2]) -> EvalError {
+    let offending = operands.into_iter().find(|(_, value)| match value {
+        Value::Scalar(quantity) => quantity.is_absolute_temperature(),
+        Value::Column(column) => column.shape().is_absolute_temperature(),
+        Value::Labels(_) => false,
+    });
+    match offending {
+        Some((expression, _)) => point_at_operand(error, expression),
+        None => error,
+    }
+}
+
+/// An offset-temperature error about `expression`: pointed at it, naming it as written.
+fn point_at_operand(mut error: EvalError, expression: &Expression) -> EvalError {
+    if let EvalErrorKind::OffsetTemperature { operand, .. } = error.kind.as_mut() {
+        *operand = written_operand(expression);
+        error.span = expression.span;
+    }
+    error
+}
+
+/// A name or a literal as the user wrote it (`dT`, `10 degC`); `None` for anything longer.
+fn written_operand(expression: &Expression) -> Option<String> {
+    match &expression.kind {
+        ExpressionKind::Name(name) => Some(name.clone()),
+        ExpressionKind::Quantity {
+            digits,
+            unit: Some(unit),
+        } => Some(format!("{digits} {}", unit.text)),
+        _ => None,
+    }
+}
+
+/// The kind of `left ± right` for two temperatures: absolute minus absolute is a difference,
+/// absolute plus or minus a difference stays absolute on its scale, two absolutes never add.
+fn sum_temperature(
+    adding: bool,
+    left: TemperatureKind,
+    right: TemperatureKind,
+) -> Result<TemperatureKind, EvalErrorKind> {
+    use TemperatureKind::{Absolute, Difference, Unspecified};
+    Ok(match (adding, left, right) {
+        (true, Absolute(_), Absolute(_)) => return Err(EvalErrorKind::AbsoluteTemperatureSum),
+        (true, Absolute(scale), _) | (true, _, Absolute(scale)) => Absolute(scale),
+        (false, Absolute(_) | Unspecified, Absolute(_)) => Difference,
+        (false, Difference, Absolute(_)) => return Err(EvalErrorKind::AbsoluteFromDifference),
+        (false, Absolute(scale), _) => Absolute(scale),
+        (_, Difference, _) | (_, _, Difference) => Difference,
+        _ => Unspecified,
+    })
+}
+
+/// The kind of temperature a literal in `unit` is: `degC` and `degF` alone are absolute on
+/// their offset scale; `K` and `degR` start at absolute zero, so they multiply as written.
+pub(crate) fn literal_temperature(unit: &Unit) -> TemperatureKind {
+    match (unit.temperature, &unit.offset) {
+        (TemperatureRole::Absolute, Some(_)) => {
+            TemperatureKind::Absolute(OffsetScale::of_degree(unit.factor.value()))
+        }
+        (TemperatureRole::Difference, _) => TemperatureKind::Difference,
+        _ => TemperatureKind::Unspecified,
+    }
+}
+
+/// An absolute temperature from an offset scale never enters a product, quotient or power as
+/// kelvin: 60 degC times something is not 333.15 K times it unless the user says so.
+pub(crate) fn refuse_offset_temperature(
+    quantity: &Quantity,
+    operation: &str,
+    span: Span,
+) -> Result<(), EvalError> {
+    match quantity.offset_scale() {
+        Some(scale) => Err(EvalError::new(
+            EvalErrorKind::OffsetTemperature {
+                operand: None,
+                scale,
+                kelvin: quantity.value,
+                operation: operation.to_string(),
+            },
+            span,
+        )),
+        None => Ok(()),
+    }
+}
+
+/// Nothing is colder than absolute zero: refuses an absolute temperature (or a value about
+/// to be shown on an absolute scale, `shown_absolute`) below 0 K.
+pub(crate) fn refuse_below_absolute_zero(
+    quantity: &Quantity,
+    shown_absolute: bool,
+    span: Span,
+) -> Result<(), EvalError> {
+    let absolute = shown_absolute || quantity.is_absolute_temperature();
+    if absolute && quantity.dimension.is_temperature() && quantity.value < 0.0 {
+        return Err(EvalError::new(
+            EvalErrorKind::BelowAbsoluteZero {
+                kelvin: quantity.value,
+                scale: quantity.offset_scale(),
+            },
+            span,
+        ));
+    }
+    Ok(())
 }
 
 /// Scaling a temperature difference by a number keeps it a difference; anything else that

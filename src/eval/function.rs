@@ -67,6 +67,12 @@ pub trait Function: Sync {
     fn row_kernel(&self, _first_row: &[Quantity]) -> Option<RowKernel<'_>> {
         None
     }
+    /// Whether an absolute temperature from an offset scale (`20 degC`) may be passed: true
+    /// for functions that take a temperature as such (properties, comparisons, means); the
+    /// evaluator refuses it everywhere else, as it refuses it in a product.
+    fn takes_absolute_temperature(&self) -> bool {
+        false
+    }
 }
 
 /// Computes one row of a function from the rows' plain SI numbers.

@@ -7,12 +7,63 @@ use std::sync::Arc;
 /// What a temperature value stands for. Meaningful only when the dimension is temperature.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum TemperatureKind {
-    /// Written on an absolute scale (`20 degC`, `68 degF`, `500 degR`).
-    Absolute,
+    /// An absolute temperature written on an offset scale (`20 degC`, `68 degF`). Its kelvin
+    /// value is not the number the user wrote, so it never silently enters a product, a
+    /// quotient or a power: the user says whether a difference or kelvin was meant.
+    Absolute(OffsetScale),
     /// A difference: absolute minus absolute, or a `delta_degC`/`delta_degF` literal.
     Difference,
-    /// Kelvin or a computed temperature: usable either way.
+    /// Kelvin, Rankine or a computed temperature: usable either way.
     Unspecified,
+}
+
+/// The two temperature scales whose zero is not absolute zero.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum OffsetScale {
+    Celsius,
+    Fahrenheit,
+}
+
+impl OffsetScale {
+    /// The scale of a lone absolute temperature unit with an offset (`degC`, `degF`), told
+    /// apart by the size of its degree.
+    pub fn of_degree(kelvin_per_degree: f64) -> OffsetScale {
+        if kelvin_per_degree == 1.0 {
+            OffsetScale::Celsius
+        } else {
+            OffsetScale::Fahrenheit
+        }
+    }
+
+    pub fn symbol(self) -> &'static str {
+        match self {
+            OffsetScale::Celsius => "degC",
+            OffsetScale::Fahrenheit => "degF",
+        }
+    }
+
+    pub fn difference_symbol(self) -> &'static str {
+        match self {
+            OffsetScale::Celsius => "delta_degC",
+            OffsetScale::Fahrenheit => "delta_degF",
+        }
+    }
+
+    /// Kelvin in one degree of the scale.
+    pub fn degree(self) -> f64 {
+        match self {
+            OffsetScale::Celsius => 1.0,
+            OffsetScale::Fahrenheit => 5.0 / 9.0,
+        }
+    }
+
+    /// An absolute temperature in kelvin, on this scale.
+    pub fn from_kelvin(self, kelvin: f64) -> f64 {
+        match self {
+            OffsetScale::Celsius => kelvin - 273.15,
+            OffsetScale::Fahrenheit => kelvin * 1.8 - 459.67,
+        }
+    }
 }
 
 /// A value in SI coherent units with its dimension.
@@ -43,8 +94,17 @@ impl Quantity {
         }
     }
 
+    /// An absolute temperature from an offset scale (`degC`, `degF`).
     pub fn is_absolute_temperature(&self) -> bool {
-        self.dimension.is_temperature() && self.temperature == TemperatureKind::Absolute
+        self.offset_scale().is_some()
+    }
+
+    /// The offset scale an absolute temperature was written on, if it was.
+    pub fn offset_scale(&self) -> Option<OffsetScale> {
+        match self.temperature {
+            TemperatureKind::Absolute(scale) if self.dimension.is_temperature() => Some(scale),
+            _ => None,
+        }
     }
 
     pub fn is_temperature_difference(&self) -> bool {

@@ -11,14 +11,14 @@ use std::sync::Arc;
 
 pub const FUNCTIONS: &[(&str, Builtin)] = &[
     ("sum", Builtin::on_columns("sum(values)", "sum of a column's rows (compensated summation)", one_value, sum)),
-    ("mean", Builtin::on_columns("mean(values)", "arithmetic mean of a column", one_value, mean)),
+    ("mean", Builtin::on_columns("mean(values)", "arithmetic mean of a column", one_value, mean).taking_temperature()),
     ("geomean", Builtin::on_columns("geomean(values)", "geometric mean of a column of positive values (the usual average of permeabilities of a log-normal sample)", one_value, geomean)),
     ("harmean", Builtin::on_columns("harmean(values)", "harmonic mean of a column of positive values", one_value, harmean)),
-    ("count", Builtin::on_columns("count(values)", "number of rows of a column (1 for a single value)", count_one, count)),
+    ("count", Builtin::on_columns("count(values)", "number of rows of a column (1 for a single value)", count_one, count).taking_temperature()),
     ("layered_along", Builtin::on_columns("layered_along(coefficient, thickness)", "effective coefficient for flow along layers: sum(K b) / sum(b) (Freeze & Cherry 1979, eq. 2.31)", not_columns, layered_along)),
     ("layered_across", Builtin::on_columns("layered_across(coefficient, thickness)", "effective coefficient for flow across layers: sum(b) / sum(b / K) (Freeze & Cherry 1979, eq. 2.32)", not_columns, layered_across)),
-    ("interpolate", Builtin::on_columns("interpolate(xs, ys, x)", "y at x, linear between the rows of a table of columns xs, ys; outside the table is an error", not_columns, interpolate_linear)),
-    ("interpolate_log", Builtin::on_columns("interpolate_log(xs, ys, x)", "y at x with ln y linear in x (for values spanning decades); ys positive; outside the table is an error", not_columns, interpolate_log)),
+    ("interpolate", Builtin::on_columns("interpolate(xs, ys, x)", "y at x, linear between the rows of a table of columns xs, ys; outside the table is an error", not_columns, interpolate_linear).taking_temperature()),
+    ("interpolate_log", Builtin::on_columns("interpolate_log(xs, ys, x)", "y at x with ln y linear in x (for values spanning decades); ys positive; outside the table is an error", not_columns, interpolate_log).taking_temperature()),
 ];
 
 /// An aggregate of one value is that value.
@@ -100,7 +100,7 @@ fn scalar(value: f64, dimension: Dimension, temperature: TemperatureKind) -> Val
 
 /// Sums of absolute temperatures mean nothing (the scales' zeros are arbitrary).
 fn refuse_absolute_temperature(rows: &Rows, what: &str) -> Result<(), CallError> {
-    if rows.dimension.is_temperature() && rows.temperature == TemperatureKind::Absolute {
+    if rows.dimension.is_temperature() && matches!(rows.temperature, TemperatureKind::Absolute(_)) {
         return Err(CallError::Domain {
             argument: Some(0),
             message: format!(

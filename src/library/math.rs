@@ -1,4 +1,4 @@
-//! Mathematical built-ins: `sqrt exp ln log10 abs min max sin cos tan`. Each checks the
+//! Mathematical built-ins: `sqrt exp ln log10 abs min max kelvin sin cos tan`. Each checks the
 //! dimensions it needs and refuses arguments outside its domain instead of returning NaN.
 
 use super::Builtin;
@@ -46,7 +46,8 @@ pub const FUNCTIONS: &[(&str, Builtin)] = &[
             "smallest argument, row by row; or the smallest row of one column",
             min,
             super::columns::column_minimum,
-        ),
+        )
+        .taking_temperature(),
     ),
     (
         "max",
@@ -55,7 +56,17 @@ pub const FUNCTIONS: &[(&str, Builtin)] = &[
             "largest argument, row by row; or the largest row of one column",
             max,
             super::columns::column_maximum,
-        ),
+        )
+        .taking_temperature(),
+    ),
+    (
+        "kelvin",
+        Builtin::new(
+            "kelvin(T)",
+            "an absolute temperature as plain kelvin, for products and quotients: `R * kelvin(20 degC)`",
+            kelvin,
+        )
+        .taking_temperature(),
     ),
     (
         "sin",
@@ -183,6 +194,29 @@ fn min(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError
 
 fn max(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
     extreme(arguments, |best, candidate| candidate > best)
+}
+
+/// `kelvin(20 degC)` is 293.15 K that multiplies as written: the one way to say that an
+/// absolute temperature from an offset scale is meant as kelvin in a product or quotient.
+fn kelvin(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+    let argument = one_argument(arguments)?;
+    if !argument.dimension.is_temperature() {
+        return Err(CallError::WrongDimension {
+            argument: 0,
+            parameter: "T",
+            expected: Dimension::TEMPERATURE,
+            found: argument.dimension,
+        });
+    }
+    if argument.is_temperature_difference() {
+        return Err(domain(
+            "`T` is a temperature difference, which is already a number of kelvin; `kelvin` takes an absolute temperature",
+        ));
+    }
+    if argument.value < 0.0 {
+        return Err(domain("`T` is below absolute zero"));
+    }
+    Ok(Quantity::new(argument.value, argument.dimension))
 }
 
 fn sin(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {

@@ -42,6 +42,8 @@ pub struct Builtin {
     /// Set for functions of whole columns; `body` then serves scalar calls only.
     pub column_body: Option<ColumnBody>,
     pub kernel: Option<KernelMaker>,
+    /// Takes absolute temperatures from offset scales (see `Function::takes_absolute_temperature`).
+    pub takes_temperature: bool,
 }
 
 impl Builtin {
@@ -53,6 +55,7 @@ impl Builtin {
             body,
             column_body: None,
             kernel: None,
+            takes_temperature: false,
         }
     }
 
@@ -71,6 +74,12 @@ impl Builtin {
     /// Adds a fast path for the rows of a column after the first.
     pub const fn with_kernel(mut self, kernel: KernelMaker) -> Builtin {
         self.kernel = Some(kernel);
+        self
+    }
+
+    /// Accepts absolute temperatures such as `20 degC` (a property, a mean, a lookup).
+    pub const fn taking_temperature(mut self) -> Builtin {
+        self.takes_temperature = true;
         self
     }
 
@@ -112,6 +121,10 @@ impl Function for Builtin {
 
     fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
         self.kernel.and_then(|make| make(first_row))
+    }
+
+    fn takes_absolute_temperature(&self) -> bool {
+        self.takes_temperature
     }
 }
 

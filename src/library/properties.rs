@@ -8,6 +8,7 @@
 use super::air;
 use super::brine;
 use super::formulation::{Formulation, OutOfRange};
+use super::transport::require_non_negative;
 use super::water;
 use super::Builtin;
 use crate::eval::function::{expect_argument_count, expect_dimension, CallError, RowKernel};
@@ -45,18 +46,18 @@ const AIR_VISCOSITY: &[&Formulation] = &[&air::SUTHERLAND_AIR];
 const AIR_DENSITY: &[&Formulation] = &[&air::IDEAL_GAS_DRY_AIR];
 
 pub const FUNCTIONS: &[(&str, Builtin)] = &[
-    ("water_density", Builtin::new("water_density(T[, p])", "density of liquid water; p defaults to 101 325 Pa", water_density).citing(IF97).with_kernel(water_density_rows)),
-    ("water_viscosity", Builtin::new("water_viscosity(T[, p])", "dynamic viscosity of liquid water at the IF97 density", water_viscosity).citing(IF97_AND_VISCOSITY).with_kernel(water_viscosity_rows)),
-    ("water_kinematic_viscosity", Builtin::new("water_kinematic_viscosity(T[, p])", "kinematic viscosity mu/rho of liquid water", water_kinematic_viscosity).citing(IF97_AND_VISCOSITY)),
-    ("water_specific_heat", Builtin::new("water_specific_heat(T[, p])", "isobaric specific heat capacity cp of liquid water", water_specific_heat).citing(IF97)),
-    ("water_thermal_conductivity", Builtin::new("water_thermal_conductivity(T[, p])", "thermal conductivity of liquid water (critical enhancement neglected)", water_thermal_conductivity).citing(IF97_AND_CONDUCTIVITY)),
-    ("saturation_pressure", Builtin::new("saturation_pressure(T)", "saturation (vapour) pressure of water", saturation_pressure).citing(SATURATION)),
-    ("brine_density", Builtin::new("brine_density(T, p, S)", "density of NaCl brine; S is the NaCl mass fraction (0.1, 10 % or 100000 ppm)", brine_density).citing(BRINE_DENSITY)),
-    ("brine_viscosity", Builtin::new("brine_viscosity(T, S)", "dynamic viscosity of NaCl brine; S is the NaCl mass fraction", brine_viscosity).citing(BRINE_VISCOSITY)),
-    ("air_viscosity", Builtin::new("air_viscosity(T)", "dynamic viscosity of dry air (Sutherland's law)", air_viscosity).citing(AIR_VISCOSITY)),
-    ("air_density", Builtin::new("air_density(T, p)", "density of dry air as an ideal gas", air_density).citing(AIR_DENSITY)),
-    ("hydraulic_conductivity", Builtin::new("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", "K = k rho g0 / mu: for water at T (and p), or for any fluid of density rho and viscosity mu", hydraulic_conductivity).citing(IF97_AND_VISCOSITY).with_kernel(hydraulic_conductivity_rows)),
-    ("intrinsic_permeability", Builtin::new("intrinsic_permeability(K, T[, p]) or (K, rho, mu)", "k = K mu / (rho g0): for water at T (and p), or for any fluid", intrinsic_permeability).citing(IF97_AND_VISCOSITY).with_kernel(intrinsic_permeability_rows)),
+    ("water_density", Builtin::new("water_density(T[, p])", "density of liquid water; p defaults to 101 325 Pa", water_density).citing(IF97).with_kernel(water_density_rows).taking_temperature()),
+    ("water_viscosity", Builtin::new("water_viscosity(T[, p])", "dynamic viscosity of liquid water at the IF97 density", water_viscosity).citing(IF97_AND_VISCOSITY).with_kernel(water_viscosity_rows).taking_temperature()),
+    ("water_kinematic_viscosity", Builtin::new("water_kinematic_viscosity(T[, p])", "kinematic viscosity mu/rho of liquid water", water_kinematic_viscosity).citing(IF97_AND_VISCOSITY).taking_temperature()),
+    ("water_specific_heat", Builtin::new("water_specific_heat(T[, p])", "isobaric specific heat capacity cp of liquid water", water_specific_heat).citing(IF97).taking_temperature()),
+    ("water_thermal_conductivity", Builtin::new("water_thermal_conductivity(T[, p])", "thermal conductivity of liquid water (critical enhancement neglected)", water_thermal_conductivity).citing(IF97_AND_CONDUCTIVITY).taking_temperature()),
+    ("saturation_pressure", Builtin::new("saturation_pressure(T)", "saturation (vapour) pressure of water", saturation_pressure).citing(SATURATION).taking_temperature()),
+    ("brine_density", Builtin::new("brine_density(T, p, S)", "density of NaCl brine; S is the NaCl mass fraction (0.1, 10 % or 100000 ppm)", brine_density).citing(BRINE_DENSITY).taking_temperature()),
+    ("brine_viscosity", Builtin::new("brine_viscosity(T, S)", "dynamic viscosity of NaCl brine; S is the NaCl mass fraction", brine_viscosity).citing(BRINE_VISCOSITY).taking_temperature()),
+    ("air_viscosity", Builtin::new("air_viscosity(T)", "dynamic viscosity of dry air (Sutherland's law)", air_viscosity).citing(AIR_VISCOSITY).taking_temperature()),
+    ("air_density", Builtin::new("air_density(T, p)", "density of dry air as an ideal gas", air_density).citing(AIR_DENSITY).taking_temperature()),
+    ("hydraulic_conductivity", Builtin::new("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", "K = k rho g0 / mu: for water at T (and p), or for any fluid of density rho and viscosity mu", hydraulic_conductivity).citing(IF97_AND_VISCOSITY).with_kernel(hydraulic_conductivity_rows).taking_temperature()),
+    ("intrinsic_permeability", Builtin::new("intrinsic_permeability(K, T[, p]) or (K, rho, mu)", "k = K mu / (rho g0): for water at T (and p), or for any fluid", intrinsic_permeability).citing(IF97_AND_VISCOSITY).with_kernel(intrinsic_permeability_rows).taking_temperature()),
 ];
 
 /// An absolute temperature argument; a temperature difference is refused.
@@ -301,6 +302,7 @@ fn state(row: &[f64], index: usize, with_pressure: bool) -> (ThermodynamicTemper
 fn hydraulic_conductivity_rows(first_row: &[Quantity]) -> Option<RowKernel<'static>> {
     let (with_pressure, index) = water_rows(first_row, 1)?;
     Some(Box::new(move |row: &[f64]| {
+        require_non_negative(row[0], 0, "k")?;
         let (t, p) = state(row, index, with_pressure);
         let (density, viscosity) = water::density_and_viscosity(t, p).map_err(refused)?;
         Ok(row[0] * density.value * STANDARD_GRAVITY / viscosity.value)
@@ -310,6 +312,7 @@ fn hydraulic_conductivity_rows(first_row: &[Quantity]) -> Option<RowKernel<'stat
 fn intrinsic_permeability_rows(first_row: &[Quantity]) -> Option<RowKernel<'static>> {
     let (with_pressure, index) = water_rows(first_row, 1)?;
     Some(Box::new(move |row: &[f64]| {
+        require_non_negative(row[0], 0, "K")?;
         let (t, p) = state(row, index, with_pressure);
         let (density, viscosity) = water::density_and_viscosity(t, p).map_err(refused)?;
         Ok(row[0] * viscosity.value / (density.value * STANDARD_GRAVITY))
@@ -338,6 +341,7 @@ fn hydraulic_conductivity(
 ) -> Result<Quantity, CallError> {
     expect_argument_count(arguments, 2, 3, "2 or 3 (k, T[, p] or k, rho, mu)")?;
     let permeability = expect_dimension(arguments, 0, "k", AREA)?;
+    require_non_negative(permeability, 0, "k")?;
     let (density, viscosity) = fluid(arguments, provenance)?;
     Ok(Quantity::new(
         permeability * density * STANDARD_GRAVITY / viscosity,
@@ -351,6 +355,7 @@ fn intrinsic_permeability(
 ) -> Result<Quantity, CallError> {
     expect_argument_count(arguments, 2, 3, "2 or 3 (K, T[, p] or K, rho, mu)")?;
     let conductivity = expect_dimension(arguments, 0, "K", VELOCITY)?;
+    require_non_negative(conductivity, 0, "K")?;
     let (density, viscosity) = fluid(arguments, provenance)?;
     Ok(Quantity::new(
         conductivity * viscosity / (density * STANDARD_GRAVITY),

@@ -27,6 +27,16 @@ pub enum UnitError {
         symbol: String,
         suggestions: Vec<String>,
     },
+    /// A prefixed reading (`PA`: peta-ampere) that exists only because of letter case, where a
+    /// catalog unit has the same letters (`Pa`): refused rather than guessed.
+    CaseOnly {
+        symbol: String,
+        /// The reading it would get, e.g. "the prefix `P` (1e15) on `A` (ampere)".
+        reading: String,
+        /// The catalog unit with the same letters, e.g. `Pa` (pascal).
+        suggestion: String,
+        suggestion_name: String,
+    },
     ExponentOverflow,
 }
 
@@ -45,6 +55,8 @@ pub struct CatalogEntry {
 
 struct Catalog {
     by_symbol: HashMap<&'static str, usize>,
+    /// Catalog symbols by their lower-case letters, for case-aware suggestions.
+    by_folded: HashMap<String, Vec<&'static str>>,
     entries: Vec<CatalogEntry>,
     prefixes: Vec<(&'static str, Factor)>,
 }
@@ -55,6 +67,7 @@ fn catalog() -> &'static Catalog {
     CATALOG.get_or_init(|| {
         let mut entries = Vec::with_capacity(UNITS.len());
         let mut by_symbol = HashMap::new();
+        let mut by_folded: HashMap<String, Vec<&'static str>> = HashMap::new();
         for definition in UNITS {
             // The table is ours; a factor it cannot read is a bug caught by the catalog test.
             let factor =
@@ -70,6 +83,10 @@ fn catalog() -> &'static Catalog {
             };
             for symbol in definition.symbols {
                 by_symbol.insert(*symbol, entries.len());
+                by_folded
+                    .entry(symbol.to_lowercase())
+                    .or_default()
+                    .push(symbol);
             }
             entries.push(CatalogEntry { definition, unit });
         }
@@ -82,6 +99,7 @@ fn catalog() -> &'static Catalog {
             .collect();
         Catalog {
             by_symbol,
+            by_folded,
             entries,
             prefixes,
         }
@@ -123,6 +141,21 @@ impl Unit {
             };
             let entry = &catalog.entries[*index];
             if entry.definition.prefixable {
+                if let Some(same_letters) = catalog.unprefixed_with_same_letters(symbol) {
+                    return Err(UnitError::CaseOnly {
+                        symbol: symbol.to_string(),
+                        reading: format!(
+                            "the prefix `{prefix}` ({}) on `{rest}` ({})",
+                            prefix_factor.value(),
+                            entry.definition.name
+                        ),
+                        suggestion: same_letters.to_string(),
+                        suggestion_name: catalog.entries[catalog.by_symbol[same_letters]]
+                            .definition
+                            .name
+                            .to_string(),
+                    });
+                }
                 return Ok(Unit {
                     dimension: entry.unit.dimension,
                     factor: prefix_factor.multiply(&entry.unit.factor),
@@ -193,20 +226,71 @@ impl Unit {
     }
 }
 
-/// Up to three catalog spellings closest to an unknown symbol.
+impl Catalog {
+    /// A catalog symbol spelled with the same letters as `symbol` in another case (`Pa` for
+    /// `PA`), if there is one.
+    fn unprefixed_with_same_letters(&self, symbol: &str) -> Option<&'static str> {
+        self.by_folded
+            .get(&symbol.to_lowercase())?
+            .iter()
+            .find(|candidate| **candidate != symbol)
+            .copied()
+    }
+
+    /// Units, prefixed or not, with the same letters as `symbol` in another case (`mD` for
+    /// `md`, `kPa` for `KPA`), those keeping more of the user's own letter cases first.
+    fn same_letters(&self, symbol: &str) -> Vec<String> {
+        let folded = symbol.to_lowercase();
+        let mut found: Vec<String> = self
+            .by_folded
+            .get(&folded)
+            .into_iter()
+            .flatten()
+            .map(|candidate| candidate.to_string())
+            .collect();
+        for (prefix, _) in &self.prefixes {
+            let Some(rest) = folded.strip_prefix(&prefix.to_lowercase()) else {
+                continue;
+            };
+            for base in self.by_folded.get(rest).into_iter().flatten() {
+                if self.entries[self.by_symbol[base]].definition.prefixable {
+                    found.push(format!("{prefix}{base}"));
+                }
+            }
+        }
+        let kept_cases = |candidate: &String| {
+            candidate
+                .chars()
+                .zip(symbol.chars())
+                .filter(|(a, b)| a == b)
+                .count()
+        };
+        found.retain(|candidate| candidate != symbol);
+        found.sort_by_key(|candidate| std::cmp::Reverse(kept_cases(candidate)));
+        found.dedup();
+        found
+    }
+}
+
+/// Up to three catalog spellings closest to an unknown symbol: the same letters in another
+/// case first (`md` -> `mD`), then the closest spellings.
 pub fn suggest_symbols(symbol: &str) -> Vec<String> {
-    let mut scored: Vec<(f64, &str)> = catalog()
+    let catalog = catalog();
+    let mut suggestions = catalog.same_letters(symbol);
+    let mut scored: Vec<(f64, &str)> = catalog
         .by_symbol
         .keys()
         .map(|candidate| (strsim::jaro_winkler(symbol, candidate), *candidate))
         .filter(|(score, _)| *score > 0.7)
         .collect();
     scored.sort_by(|left, right| right.0.total_cmp(&left.0).then(left.1.cmp(right.1)));
-    scored
-        .into_iter()
-        .take(3)
-        .map(|(_, candidate)| candidate.to_string())
-        .collect()
+    for (_, candidate) in scored {
+        if !suggestions.iter().any(|known| known == candidate) {
+            suggestions.push(candidate.to_string());
+        }
+    }
+    suggestions.truncate(3);
+    suggestions
 }
 
 #[cfg(test)]
@@ -239,6 +323,33 @@ mod tests {
         assert_eq!(si("kg"), 1.0);
         assert_eq!(si("cP"), 0.001);
         assert!(Unit::lookup("kft").is_err());
+    }
+
+    /// Every prefixed spelling refused because a catalog unit has the same letters: pinned,
+    /// so that a new unit or prefix that adds one is noticed (and listed in the README).
+    #[test]
+    fn prefixed_readings_that_differ_only_by_case_are_refused() {
+        let catalog = catalog();
+        let mut refused = Vec::new();
+        for (prefix, _) in &catalog.prefixes {
+            for symbol in catalog.by_symbol.keys() {
+                let joined = format!("{prefix}{symbol}");
+                if let Err(UnitError::CaseOnly { .. }) = Unit::lookup(&joined) {
+                    refused.push(joined);
+                }
+            }
+        }
+        refused.sort();
+        assert_eq!(refused, ["EV", "PA", "YD", "hA", "hP", "pA", "yD"]);
+    }
+
+    #[test]
+    fn suggestions_put_the_same_letters_first() {
+        assert_eq!(suggest_symbols("md")[0], "mD");
+        assert_eq!(suggest_symbols("cp")[0], "cP");
+        assert_eq!(suggest_symbols("kpa")[0], "kPa");
+        assert_eq!(suggest_symbols("KPa")[0], "kPa");
+        assert_eq!(suggest_symbols("MPA")[0], "MPa");
     }
 
     #[test]
