@@ -160,7 +160,11 @@ fn session(criterion: &mut Criterion) {
     let library = Builtins::standard();
     let mut group = criterion.benchmark_group("session");
     let mut loaded = Session::new(library);
-    loaded.load(&generated_sheet(1_000));
+    loaded.load(
+        "<bench>",
+        &generated_sheet(1_000),
+        &mut fluxsheet::eval::NoIncludes,
+    );
     assert_eq!(loaded.lines().len(), 1_000);
     let mut flip = false;
     group.bench_function("entry_in_1000_lines", |bencher| {
@@ -187,7 +191,7 @@ fn session(criterion: &mut Criterion) {
             index - 1
         ));
     }
-    chained.load(&sheet);
+    chained.load("<bench>", &sheet, &mut fluxsheet::eval::NoIncludes);
     group.bench_function("redefine_input_with_100_dependents", |bencher| {
         bencher.iter(|| {
             flip = !flip;

@@ -18,7 +18,6 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
-pub(crate) mod includes;
 mod plots;
 mod properties;
 mod report;
@@ -119,10 +118,13 @@ pub enum Command {
     Report(report::ReportArgs),
     /// Evaluate one expression or line and print its value and unit
     #[command(
-        after_help = "Examples:\n  fluxsheet eval '1 acre*ft [m^3]' --digits 15\n  fluxsheet eval 'sqrt(4 m^2)'\n  fluxsheet eval '300 K [degC]'"
+        after_help = "Examples:\n  fluxsheet eval '1 acre*ft [m^3]' --digits 15\n  fluxsheet eval 'sqrt(4 m^2)'\n  fluxsheet eval '300 K [degC]'\n  fluxsheet eval '-40 degF [degC]'"
     )]
     Eval {
         /// The expression, optionally followed by `[unit]`, or a line `name = expression`
+        // A sheet expression may start with a minus sign (`-40 degF`); options still work
+        // before or after it.
+        #[arg(allow_hyphen_values = true, value_parser = expression_argument)]
         expression: String,
     },
     /// List the unit catalog: symbols, dimensions, exact factors and sources
@@ -163,6 +165,23 @@ impl OutputArgs {
             format,
             digits: self.digits,
         }
+    }
+}
+
+/// The expression of `eval`, which may start with one minus sign. A leading `--word` is a
+/// mistyped option, not an expression (no one writes `-(-x)` as `--x`), so clap refuses it as
+/// a usage error instead of the evaluator reporting an unknown name.
+fn expression_argument(text: &str) -> Result<String, String> {
+    let option_like = text
+        .strip_prefix("--")
+        .is_some_and(|rest| rest.starts_with(|c: char| c.is_alphabetic()));
+    if option_like {
+        Err(format!(
+            "`{text}` is not an option of `eval`, and an expression cannot start with `--` \
+             (`fluxsheet eval --help` lists the options)"
+        ))
+    } else {
+        Ok(text.to_string())
     }
 }
 
@@ -261,7 +280,8 @@ pub(crate) fn evaluate_file(
     deny: bool,
     settings: &Settings,
 ) -> Evaluation {
-    let mut loader = includes::FileIncludeLoader::new(&source.label, path, allow_outside);
+    let mut loader =
+        crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside);
     let mut evaluation = evaluate_with(
         &source.label,
         &source.text,

@@ -2,10 +2,12 @@
 //! media (Darcy, Fick, Fourier, Ohm).
 //!
 //! Layers, each using only those before it: `syntax` and `units` → `eval` → `library` →
-//! `render`. The front ends (`cli`, `repl`) are the only code that touches files or the terminal.
+//! `render`. The front ends (`cli`, `repl`, and `front`, which they share) are the only code that
+//! touches files or the terminal.
 
 pub mod cli;
 pub mod eval;
+pub mod front;
 pub mod library;
 pub mod numeric;
 pub mod render;

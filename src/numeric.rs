@@ -846,6 +846,40 @@ pub struct Root {
     pub iterations: u32,
     /// The function's value at `x` (signed; 0 for an exact root).
     pub residual: f64,
+    /// Why the search stopped, which says how well `x` is known.
+    pub convergence: Convergence,
+}
+
+/// What the x returned by [`brent`] is known to satisfy.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Convergence {
+    /// The function is exactly 0 at x.
+    Exact,
+    /// |f(x)| is within [`Tolerance::residual`]: closer to zero than the
+    /// caller can tell apart, so narrowing the bracket further would chase
+    /// rounding noise.
+    Residual,
+    /// The sign change lies in an interval of this width that holds x.
+    Bracket { width: f64 },
+}
+
+/// When [`brent`] may stop.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Tolerance {
+    /// Absolute, in units of x: the search stops once the sign change is
+    /// known within about `x` + 4·ε·|x| (ε = `f64::EPSILON`). 0 asks for
+    /// full 64-bit precision relative to the root.
+    pub x: f64,
+    /// Absolute, in units of f: a sample with |f| at or below it is taken
+    /// as the root. 0 accepts only an exact zero.
+    pub residual: f64,
+}
+
+impl Tolerance {
+    /// A tolerance on x alone.
+    pub fn x(x: f64) -> Tolerance {
+        Tolerance { x, residual: 0.0 }
+    }
 }
 
 /// Why [`brent`] found no root.
@@ -853,8 +887,8 @@ pub struct Root {
 pub enum SolveError<E> {
     /// The bracket ends are not finite, or are equal.
     BadBracket { lower: f64, upper: f64 },
-    /// The tolerance is negative, NaN or infinite.
-    BadTolerance { x_tolerance: f64 },
+    /// A tolerance is negative, NaN or infinite.
+    BadTolerance { tolerance: Tolerance },
     /// The function has the same sign at both ends, so the bracket is not
     /// known to hold a root.
     NoSignChange {
@@ -892,10 +926,12 @@ impl<E: fmt::Display> fmt::Display for SolveError<E> {
                 Number(*lower),
                 Number(*upper)
             ),
-            SolveError::BadTolerance { x_tolerance } => write!(
+            SolveError::BadTolerance { tolerance } => write!(
                 f,
-                "the x tolerance {} cannot be used: it must be a finite number, 0 or greater",
-                Number(*x_tolerance)
+                "the tolerances (x {}, residual {}) cannot be used: each must be a finite \
+                 number, 0 or greater",
+                Number(tolerance.x),
+                Number(tolerance.residual)
             ),
             SolveError::NoSignChange {
                 lower,
@@ -1021,12 +1057,25 @@ where
         }
     }
 
-    fn root(&self, at: Sample) -> Root {
+    fn root(&self, at: Sample, convergence: Convergence) -> Root {
         Root {
             x: at.x,
             iterations: self.evaluations,
             residual: at.fx,
+            convergence,
         }
+    }
+}
+
+/// Whether a sample is a root by its value alone: exactly zero, or within
+/// the residual tolerance.
+fn root_by_value(at: Sample, residual_tolerance: f64) -> Option<Convergence> {
+    if at.fx == 0.0 {
+        Some(Convergence::Exact)
+    } else if at.fx.abs() <= residual_tolerance {
+        Some(Convergence::Residual)
+    } else {
+        None
     }
 }
 
@@ -1039,12 +1088,15 @@ where
 /// guaranteed for any sign change and superlinear near a simple root.
 ///
 /// * `f` must have opposite signs at the two ends (either order of ends is
-///   accepted); an exact zero at an end is returned at once.
-/// * `x_tolerance` is absolute, in units of x: the returned x lies within
-///   about `x_tolerance` + 4·ε·|x| of the sign change (ε = `f64::EPSILON`).
-///   0 asks for full 64-bit precision. For engineering work 1e-10 times the
-///   size of the expected root is ample; note that a root at or near 0 with
-///   tolerance 0 may need many evaluations.
+///   accepted); an exact zero at an end is returned at once, and so is a
+///   value within the residual tolerance.
+/// * `tolerance.x` is absolute, in units of x: the returned x lies within
+///   about `tolerance.x` + 4·ε·|x| of the sign change (ε = `f64::EPSILON`).
+///   0 asks for full 64-bit precision relative to the root, which a bracket
+///   spanning many decades reaches too; note that a root at or near 0 with
+///   `tolerance.x` 0 may need many evaluations. `tolerance.residual` stops
+///   the search at any x where |f| is that small ([`Convergence`] says
+///   which test stopped it).
 /// * `max_iterations` bounds the number of evaluations of `f` (both ends
 ///   included, and always made) in the search; [`DEFAULT_MAX_ITERATIONS`]
 ///   suits most uses.
@@ -1073,14 +1125,15 @@ pub fn brent<E>(
     f: impl FnMut(f64) -> Result<f64, E>,
     lower: f64,
     upper: f64,
-    x_tolerance: f64,
+    tolerance: Tolerance,
     max_iterations: u32,
 ) -> Result<Root, SolveError<E>> {
     if !lower.is_finite() || !upper.is_finite() || lower == upper {
         return Err(SolveError::BadBracket { lower, upper });
     }
-    if x_tolerance.is_nan() || x_tolerance.is_infinite() || x_tolerance < 0.0 {
-        return Err(SolveError::BadTolerance { x_tolerance });
+    let usable = |value: f64| value.is_finite() && value >= 0.0;
+    if !usable(tolerance.x) || !usable(tolerance.residual) {
+        return Err(SolveError::BadTolerance { tolerance });
     }
     let mut evaluator = Evaluator {
         function: f,
@@ -1088,12 +1141,12 @@ pub fn brent<E>(
         largest_magnitude: 0.0,
     };
     let low_end = evaluator.sample_end(lower)?;
-    if low_end.fx == 0.0 {
-        return Ok(evaluator.root(low_end));
+    if let Some(convergence) = root_by_value(low_end, tolerance.residual) {
+        return Ok(evaluator.root(low_end, convergence));
     }
     let high_end = evaluator.sample_end(upper)?;
-    if high_end.fx == 0.0 {
-        return Ok(evaluator.root(high_end));
+    if let Some(convergence) = root_by_value(high_end, tolerance.residual) {
+        return Ok(evaluator.root(high_end, convergence));
     }
     if same_sign(low_end.fx, high_end.fx) {
         return Err(SolveError::NoSignChange {
@@ -1103,21 +1156,17 @@ pub fn brent<E>(
             f_upper: high_end.fx,
         });
     }
-    match search(
-        &mut evaluator,
-        low_end,
-        high_end,
-        x_tolerance,
-        max_iterations,
-    )? {
-        SearchEnd::Zero(at) => Ok(evaluator.root(at)),
-        SearchEnd::Bracket { best, contra } => settle(&mut evaluator, best, contra),
+    match search(&mut evaluator, low_end, high_end, tolerance, max_iterations)? {
+        SearchEnd::Root(at, convergence) => Ok(evaluator.root(at, convergence)),
+        SearchEnd::Bracket { best, contra } => {
+            settle(&mut evaluator, best, contra, tolerance.residual)
+        }
     }
 }
 
 enum SearchEnd {
-    /// f is exactly zero here.
-    Zero(Sample),
+    /// f is zero here, exactly or within the residual tolerance.
+    Root(Sample, Convergence),
     /// The sign change lies between `best` (smaller |f|) and `contra`,
     /// within tolerance.
     Bracket { best: Sample, contra: Sample },
@@ -1135,7 +1184,7 @@ fn search<F, E>(
     evaluator: &mut Evaluator<F>,
     low_end: Sample,
     high_end: Sample,
-    x_tolerance: f64,
+    tolerances: Tolerance,
     max_iterations: u32,
 ) -> Result<SearchEnd, SolveError<E>>
 where
@@ -1162,7 +1211,7 @@ where
         // Brent's tolerance: the requested absolute part plus a relative
         // part of a few rounding errors, with a floor so steps never vanish.
         let tolerance =
-            (2.0 * f64::EPSILON * best.x.abs() + 0.5 * x_tolerance).max(f64::MIN_POSITIVE);
+            (2.0 * f64::EPSILON * best.x.abs() + 0.5 * tolerances.x).max(f64::MIN_POSITIVE);
         let to_midpoint = 0.5 * (contra.x - best.x);
         if to_midpoint.abs() <= tolerance {
             return Ok(SearchEnd::Bracket { best, contra });
@@ -1207,8 +1256,8 @@ where
             tolerance.copysign(to_midpoint)
         };
         best = evaluator.sample(best.x + correction)?;
-        if best.fx == 0.0 {
-            return Ok(SearchEnd::Zero(best));
+        if let Some(convergence) = root_by_value(best, tolerances.residual) {
+            return Ok(SearchEnd::Root(best, convergence));
         }
     }
 }
@@ -1245,6 +1294,7 @@ fn settle<F, E>(
     evaluator: &mut Evaluator<F>,
     best: Sample,
     contra: Sample,
+    residual_tolerance: f64,
 ) -> Result<Root, SolveError<E>>
 where
     F: FnMut(f64) -> Result<f64, E>,
@@ -1258,25 +1308,28 @@ where
         let jump = left.fx.abs() + right.fx.abs();
         jump.is_finite() && jump <= JUMP_FRACTION * scale
     };
-    let better = |left: Sample, right: Sample| {
-        if right.fx.abs() < left.fx.abs() {
+    // The end with the smaller |f|, and the bracket's width.
+    let bracketed = |left: Sample, right: Sample| {
+        let best = if right.fx.abs() < left.fx.abs() {
             right
         } else {
             left
-        }
+        };
+        let width = right.x - left.x;
+        (best, Convergence::Bracket { width })
     };
     for _ in 0..JUMP_CHECK_EVALUATIONS {
         if jump_is_small(left, right, evaluator.largest_magnitude) {
-            let root = better(left, right);
-            return Ok(evaluator.root(root));
+            let (best, convergence) = bracketed(left, right);
+            return Ok(evaluator.root(best, convergence));
         }
         let middle = 0.5 * left.x + 0.5 * right.x;
         if middle <= left.x || middle >= right.x {
             break; // adjacent floats: the bracket cannot shrink further
         }
         let sample = evaluator.sample(middle)?;
-        if sample.fx == 0.0 {
-            return Ok(evaluator.root(sample));
+        if let Some(convergence) = root_by_value(sample, residual_tolerance) {
+            return Ok(evaluator.root(sample, convergence));
         }
         if same_sign(sample.fx, left.fx) {
             left = sample;
@@ -1285,7 +1338,8 @@ where
         }
     }
     if jump_is_small(left, right, evaluator.largest_magnitude) {
-        return Ok(evaluator.root(better(left, right)));
+        let (best, convergence) = bracketed(left, right);
+        return Ok(evaluator.root(best, convergence));
     }
     Err(SolveError::Discontinuous {
         near: 0.5 * left.x + 0.5 * right.x,
@@ -1825,7 +1879,14 @@ mod tests {
         // x³ − 2x − 5 = 0, Wallis's example for Newton's method; real root
         // 2.0945514815423265... (from memory, confirmed independently by
         // Newton iteration in 40-digit decimal arithmetic).
-        let root = brent(|x| ok(x * x * x - 2.0 * x - 5.0), 2.0, 3.0, 1e-15, 100).unwrap();
+        let root = brent(
+            |x| ok(x * x * x - 2.0 * x - 5.0),
+            2.0,
+            3.0,
+            Tolerance::x(1e-15),
+            100,
+        )
+        .unwrap();
         assert!(
             (root.x - 2.094_551_481_542_326_5).abs() <= 4e-15,
             "{root:?}"
@@ -1838,7 +1899,7 @@ mod tests {
     fn dottie_number() {
         // cos x = x at 0.7390851332151607... (the Dottie number; from memory,
         // confirmed independently by Newton iteration in 40-digit decimals).
-        let root = brent(|x| ok(x.cos() - x), 0.0, 1.0, 0.0, 100).unwrap();
+        let root = brent(|x| ok(x.cos() - x), 0.0, 1.0, Tolerance::x(0.0), 100).unwrap();
         assert!(
             (root.x - 0.739_085_133_215_160_7).abs() <= 2e-16,
             "{root:?}"
@@ -1848,23 +1909,24 @@ mod tests {
 
     #[test]
     fn bracket_order_does_not_matter() {
-        let forward = brent(|x| ok(x.cos() - x), 0.0, 1.0, 1e-12, 100).unwrap();
-        let backward = brent(|x| ok(x.cos() - x), 1.0, 0.0, 1e-12, 100).unwrap();
+        let forward = brent(|x| ok(x.cos() - x), 0.0, 1.0, Tolerance::x(1e-12), 100).unwrap();
+        let backward = brent(|x| ok(x.cos() - x), 1.0, 0.0, Tolerance::x(1e-12), 100).unwrap();
         assert!((forward.x - backward.x).abs() < 2e-12);
     }
 
     #[test]
     fn root_at_a_bracket_end_is_returned_at_once() {
-        let root = brent(|x| ok(x - 2.0), 2.0, 3.0, 1e-12, 100).unwrap();
+        let root = brent(|x| ok(x - 2.0), 2.0, 3.0, Tolerance::x(1e-12), 100).unwrap();
         assert_eq!(
             root,
             Root {
                 x: 2.0,
                 iterations: 1,
-                residual: 0.0
+                residual: 0.0,
+                convergence: Convergence::Exact,
             }
         );
-        let root = brent(|x| ok(x - 3.0), 2.0, 3.0, 1e-12, 100).unwrap();
+        let root = brent(|x| ok(x - 3.0), 2.0, 3.0, Tolerance::x(1e-12), 100).unwrap();
         assert_eq!((root.x, root.iterations), (3.0, 2));
     }
 
@@ -1872,7 +1934,7 @@ mod tests {
     fn bracket_ends_close_to_roots_do_not_look_like_a_jump() {
         // sin is 1.2e-16 at fl(π) and −2.4e-16 at fl(2π): the sign change is
         // the root π itself, one float away from the lower end (closed form).
-        let root = brent(|x| ok(x.sin()), PI, 2.0 * PI, 0.0, 100).unwrap();
+        let root = brent(|x| ok(x.sin()), PI, 2.0 * PI, Tolerance::x(0.0), 100).unwrap();
         assert!((root.x - PI).abs() <= 1e-15, "{root:?}");
     }
 
@@ -1880,14 +1942,21 @@ mod tests {
     fn steep_but_continuous_function_gives_a_root() {
         // tanh(1e6 (x − 1)) changes from −1 to 1 within ~1e-6 of x = 1: at a
         // tolerance of 1e-3 it looks like a step, but it is continuous.
-        let root = brent(|x| ok((1e6 * (x - 1.0)).tanh()), 0.0, 3.0, 1e-3, 100).unwrap();
+        let root = brent(
+            |x| ok((1e6 * (x - 1.0)).tanh()),
+            0.0,
+            3.0,
+            Tolerance::x(1e-3),
+            100,
+        )
+        .unwrap();
         assert!((root.x - 1.0).abs() <= 1e-3, "{root:?}");
         assert!(root.residual.abs() < 1e-3, "{root:?}");
     }
 
     #[test]
     fn same_sign_at_both_ends_is_reported() {
-        let error = brent(|x| ok(x * x + 1.0), -1.0, 1.0, 1e-12, 100).unwrap_err();
+        let error = brent(|x| ok(x * x + 1.0), -1.0, 1.0, Tolerance::x(1e-12), 100).unwrap_err();
         assert_eq!(
             error,
             SolveError::NoSignChange {
@@ -1904,7 +1973,7 @@ mod tests {
     #[test]
     fn pole_is_a_discontinuity_not_a_root() {
         // 1/(x − 1) changes sign across its pole at x = 1 but has no root.
-        let error = brent(|x| ok(1.0 / (x - 1.0)), 0.0, 2.0, 1e-12, 100).unwrap_err();
+        let error = brent(|x| ok(1.0 / (x - 1.0)), 0.0, 2.0, Tolerance::x(1e-12), 100).unwrap_err();
         match error {
             SolveError::Discontinuous {
                 near,
@@ -1917,7 +1986,7 @@ mod tests {
             other => panic!("expected a discontinuity, got {other:?}"),
         }
         // Same with a bracket that does not put the pole at a bisection point.
-        let shifted = brent(|x| ok(1.0 / (x - 1.0)), 0.3, 2.9, 1e-10, 100);
+        let shifted = brent(|x| ok(1.0 / (x - 1.0)), 0.3, 2.9, Tolerance::x(1e-10), 100);
         assert!(
             matches!(shifted, Err(SolveError::Discontinuous { .. })),
             "{shifted:?}"
@@ -1927,7 +1996,7 @@ mod tests {
     #[test]
     fn step_is_a_discontinuity_not_a_root() {
         let step = |x: f64| ok(if x < 1.0 { -1.0 } else { 1.0 });
-        match brent(step, 0.0, 3.0, 1e-12, 200) {
+        match brent(step, 0.0, 3.0, Tolerance::x(1e-12), 200) {
             Err(SolveError::Discontinuous {
                 near,
                 f_left,
@@ -1941,7 +2010,7 @@ mod tests {
         // Lopsided step: −1 below 2, +100 above.
         let lopsided = |x: f64| ok(if x < 2.0 { -1.0 } else { 100.0 });
         assert!(matches!(
-            brent(lopsided, -5.0, 7.0, 1e-9, 200),
+            brent(lopsided, -5.0, 7.0, Tolerance::x(1e-9), 200),
             Err(SolveError::Discontinuous { .. })
         ));
         let message = SolveError::<Infallible>::Discontinuous {
@@ -1974,7 +2043,7 @@ mod tests {
                 Ok(x - 1.5)
             }
         };
-        let error = brent(failing, 0.0, 5.0, 1e-12, 100).unwrap_err();
+        let error = brent(failing, 0.0, 5.0, Tolerance::x(1e-12), 100).unwrap_err();
         assert!(
             matches!(error, SolveError::Function(LookupFailed(_))),
             "{error:?}"
@@ -1992,13 +2061,13 @@ mod tests {
                 |x| ok(if x > 0.5 { f64::NAN } else { x - 1.0 }),
                 0.0,
                 2.0,
-                1e-12,
+                Tolerance::x(1e-12),
                 100
             ),
             Err(SolveError::NotFinite { x: 2.0, .. })
         ));
         assert!(matches!(
-            brent(|x| ok(1.0 / x), 0.0, 2.0, 1e-12, 100),
+            brent(|x| ok(1.0 / x), 0.0, 2.0, Tolerance::x(1e-12), 100),
             Err(SolveError::NotFinite { x: 0.0, value }) if value == f64::INFINITY
         ));
         // NaN inside the bracket.
@@ -2011,7 +2080,7 @@ mod tests {
                 }),
                 0.0,
                 2.0,
-                1e-12,
+                Tolerance::x(1e-12),
                 100
             ),
             Err(SolveError::NotFinite { .. })
@@ -2022,30 +2091,30 @@ mod tests {
     fn unusable_brackets_and_tolerances_are_rejected() {
         let line = |x: f64| ok(x);
         assert!(matches!(
-            brent(line, 1.0, 1.0, 1e-9, 100),
+            brent(line, 1.0, 1.0, Tolerance::x(1e-9), 100),
             Err(SolveError::BadBracket { .. })
         ));
         assert!(matches!(
-            brent(line, f64::NAN, 1.0, 1e-9, 100),
+            brent(line, f64::NAN, 1.0, Tolerance::x(1e-9), 100),
             Err(SolveError::BadBracket { .. })
         ));
         assert!(matches!(
-            brent(line, -1.0, f64::INFINITY, 1e-9, 100),
+            brent(line, -1.0, f64::INFINITY, Tolerance::x(1e-9), 100),
             Err(SolveError::BadBracket { .. })
         ));
         assert!(matches!(
-            brent(line, -1.0, 1.0, -1e-9, 100),
+            brent(line, -1.0, 1.0, Tolerance::x(-1e-9), 100),
             Err(SolveError::BadTolerance { .. })
         ));
         assert!(matches!(
-            brent(line, -1.0, 1.0, f64::NAN, 100),
+            brent(line, -1.0, 1.0, Tolerance::x(f64::NAN), 100),
             Err(SolveError::BadTolerance { .. })
         ));
     }
 
     #[test]
     fn evaluation_budget_is_respected() {
-        let error = brent(|x| ok(x.cos() - x), 0.0, 1.0, 0.0, 4).unwrap_err();
+        let error = brent(|x| ok(x.cos() - x), 0.0, 1.0, Tolerance::x(0.0), 4).unwrap_err();
         match error {
             SolveError::NotConverged {
                 iterations,
@@ -2072,15 +2141,86 @@ mod tests {
             (|x| 0.5 - (-x / 5.0).exp(), 0.0, 100.0, 5.0 * 2f64.ln()),
         ];
         for (function, lower, upper, expected) in cases {
-            let root = brent(|x| ok(function(x)), lower, upper, 1e-13, 100).unwrap();
+            let root = brent(|x| ok(function(x)), lower, upper, Tolerance::x(1e-13), 100).unwrap();
             assert!((root.x - expected).abs() < 1e-12, "{root:?} vs {expected}");
             assert!(root.iterations < 50, "{root:?}");
         }
     }
 
     #[test]
+    fn decade_spanning_brackets_give_roots_to_full_precision() {
+        // Closed forms: x³ = 2e-15 at 2e-15^(1/3) = 1.25992104989487316e-5 and
+        // x³ = 2 at 2^(1/3) = 1.25992104989487316 (both from Python mpmath
+        // cbrt, 30 digits), in a bracket of twelve decades.
+        for (goal, expected) in [
+            (2e-15, 1.259_921_049_894_873_2e-5),
+            (2.0, 1.259_921_049_894_873_2),
+        ] {
+            let root = brent(|x| ok(x * x * x - goal), 1e-6, 1e6, Tolerance::x(0.0), 200).unwrap();
+            assert!(
+                (root.x - expected).abs() <= 4.0 * f64::EPSILON * expected,
+                "{root:?} vs {expected}"
+            );
+            if let Convergence::Bracket { width } = root.convergence {
+                assert!(width.abs() <= 4.0 * f64::EPSILON * expected, "{root:?}");
+            }
+        }
+    }
+
+    #[test]
+    fn convergence_says_which_test_stopped_the_search() {
+        // e^x = 2 at ln 2 (closed form).
+        let by_width = brent(|x| ok(x.exp() - 2.0), -3.0, 4.0, Tolerance::x(0.0), 100).unwrap();
+        match by_width.convergence {
+            Convergence::Bracket { width } => {
+                assert!(
+                    width.abs() <= 4.0 * f64::EPSILON * 2f64.ln(),
+                    "{by_width:?}"
+                )
+            }
+            Convergence::Exact => assert_eq!(by_width.residual, 0.0),
+            Convergence::Residual => panic!("no residual tolerance was given: {by_width:?}"),
+        }
+        let loose = Tolerance {
+            x: 0.0,
+            residual: 1e-6,
+        };
+        let by_residual = brent(|x| ok(x.exp() - 2.0), -3.0, 4.0, loose, 100).unwrap();
+        assert!(
+            by_residual.convergence == Convergence::Residual
+                || by_residual.convergence == Convergence::Exact,
+            "{by_residual:?}"
+        );
+        assert!(by_residual.residual.abs() <= 1e-6, "{by_residual:?}");
+        assert!(
+            by_residual.iterations < by_width.iterations,
+            "{by_residual:?}"
+        );
+        assert!(matches!(
+            brent(
+                ok,
+                -1.0,
+                1.0,
+                Tolerance {
+                    x: 0.0,
+                    residual: -1.0
+                },
+                100
+            ),
+            Err(SolveError::BadTolerance { .. })
+        ));
+    }
+
+    #[test]
     fn loose_tolerance_still_gives_a_root_within_it() {
-        let root = brent(|x| ok(x * x * x - 2.0 * x - 5.0), 2.0, 3.0, 0.1, 100).unwrap();
+        let root = brent(
+            |x| ok(x * x * x - 2.0 * x - 5.0),
+            2.0,
+            3.0,
+            Tolerance::x(0.1),
+            100,
+        )
+        .unwrap();
         assert!((root.x - 2.094_551_481_542_326_5).abs() <= 0.1, "{root:?}");
     }
 
@@ -2122,7 +2262,13 @@ mod tests {
                 assert!(!value.is_nan(), "{a:?} {b:?}");
             }
             let (lower, upper, tolerance) = (pick(), pick(), pick());
-            let _ = brent(|x| ok(x - 0.25), lower, upper, tolerance.abs(), 50);
+            let _ = brent(
+                |x| ok(x - 0.25),
+                lower,
+                upper,
+                Tolerance::x(tolerance.abs()),
+                50,
+            );
         }
     }
 
@@ -2139,7 +2285,7 @@ mod tests {
             );
             let cubic = |x: f64| x * x * x + a * x * x + b * x + c;
             // A cubic tends to ±inf, so [-10, 10] holds a sign change here.
-            let root = brent(|x| ok(cubic(x)), -10.0, 10.0, 0.0, 200).unwrap();
+            let root = brent(|x| ok(cubic(x)), -10.0, 10.0, Tolerance::x(0.0), 200).unwrap();
             let below = cubic(root.x - 8.0 * f64::EPSILON * root.x.abs().max(1.0));
             let above = cubic(root.x + 8.0 * f64::EPSILON * root.x.abs().max(1.0));
             assert!(root.residual == 0.0 || !same_sign(below, above), "{root:?}");

@@ -280,7 +280,7 @@ impl Repl {
             let flow = if text.trim_start().starts_with(':') {
                 self.command(text.trim(), out, err)?
             } else {
-                self.read_data_files(text, None);
+                self.read_data_files(text);
                 let report = self.session.enter(text);
                 self.print_entry(&report, out, err)?;
                 Flow::Continue
@@ -375,9 +375,7 @@ impl Repl {
             )),
             LineResult::Error => Some(format!(
                 "{label}: error: {}",
-                line.diagnostics()
-                    .first()
-                    .map_or("", |diagnostic| diagnostic.message.as_str())
+                error_message(line.diagnostics())
             )),
             LineResult::Function { signature } => Some(format!("{signature}: function")),
             LineResult::Include { file } => Some(format!("include {file}")),
@@ -476,7 +474,7 @@ impl Repl {
             }
             ":save" => self.save(argument, out, err)?,
             ":clear" => {
-                let lines = self.session.lines().len();
+                let lines = self.session.own_lines().count();
                 self.session.clear();
                 self.names_changed = true;
                 writeln!(out, "cleared {}", count(lines, "line"))?;
@@ -501,7 +499,7 @@ impl Repl {
     }
 
     fn list_lines(&self, out: &mut dyn Write) -> io::Result<()> {
-        let lines = self.session.lines();
+        let lines: Vec<&SessionLine> = self.session.own_lines().collect();
         if lines.is_empty() {
             return writeln!(out, "the session has no lines yet");
         }
@@ -521,12 +519,7 @@ impl Repl {
                     let text = self.check_text(check);
                     text.strip_prefix("check ").unwrap_or(&text).to_string()
                 }
-                LineResult::Error => format!(
-                    "error: {}",
-                    line.diagnostics()
-                        .first()
-                        .map_or("", |diagnostic| diagnostic.message.as_str())
-                ),
+                LineResult::Error => format!("error: {}", error_message(line.diagnostics())),
                 LineResult::Skipped { because_of } => {
                     format!("not evaluated, `{because_of}` has no value")
                 }
@@ -706,12 +699,12 @@ impl Repl {
         Ok(())
     }
 
-    /// Reads the data files that the `column … from` lines of `text` name, relative to the sheet
-    /// at `sheet` (or the current folder for typed entries), under the same folder rule as
-    /// `run`, and hands them to the session.
-    fn read_data_files(&mut self, text: &str, sheet: Option<&Path>) {
-        let label = sheet.map_or("<session>".to_string(), |path| path.display().to_string());
-        let mut loader = crate::cli::includes::FileIncludeLoader::new(&label, sheet, false);
+    /// Reads the data files that the `column … from` lines of a typed entry name, relative to
+    /// the current folder, under the same folder rule as `run`, and hands them to the session.
+    /// (A loaded sheet's data files are read by `Session::load` through the same loader.)
+    fn read_data_files(&mut self, text: &str) {
+        let label = "<session>";
+        let mut loader = crate::front::includes::FileIncludeLoader::new(label, None, false);
         for (index, line) in text.lines().enumerate() {
             let Ok(parsed) = crate::syntax::parse_line(line, index + 1, 0) else {
                 continue;
@@ -722,7 +715,7 @@ impl Repl {
             if let crate::syntax::ExpressionKind::FileColumn { path, .. } =
                 &definition.expression.kind
             {
-                let read = crate::eval::IncludeLoader::load(&mut loader, path, &label)
+                let read = crate::eval::IncludeLoader::load(&mut loader, path, label)
                     .map(|file| file.text);
                 self.session.provide_data_file(path, read);
             }
@@ -746,24 +739,34 @@ impl Repl {
             }
         };
         let was_empty = self.session.lines().is_empty() && !self.session.is_modified();
-        self.read_data_files(&text, Some(path));
-        let report = self.session.load(&text);
+        // Includes and data files load as `run` loads them: relative to the sheet, inside its
+        // folder tree.
+        let mut loader = crate::front::includes::FileIncludeLoader::new(&label, Some(path), false);
+        let report = self.session.load(&label, &text, &mut loader);
         self.names_changed = true;
         out.flush()?;
-        for (number, line_text, diagnostic) in &report.rejected {
+        for (sheet, number, line_text, diagnostic) in &report.rejected {
             self.errors += 1;
-            writeln!(err, "{label}:{number}: line left out:")?;
+            writeln!(err, "{sheet}:{number}: line left out:")?;
             write_diagnostics(err, line_text, std::slice::from_ref(diagnostic), "")?;
         }
         let mut failed = 0;
-        for (number, index) in &report.kept {
-            let Some(line) = self.session.line(*index) else {
+        let main_lines = report
+            .kept
+            .iter()
+            .map(|(number, index)| (label.as_str(), *number, *index));
+        let included_lines = report
+            .included
+            .iter()
+            .map(|(sheet, number, index)| (sheet.as_str(), *number, *index));
+        for (sheet, number, index) in main_lines.chain(included_lines) {
+            let Some(line) = self.session.line(index) else {
                 continue;
             };
             if matches!(line.result(), LineResult::Error) {
                 failed += 1;
                 self.errors += 1;
-                writeln!(err, "{label}:{number}:")?;
+                writeln!(err, "{sheet}:{number}:")?;
                 write_diagnostics(err, line.text(), line.diagnostics(), "")?;
             }
         }
@@ -839,7 +842,7 @@ impl Repl {
                 writeln!(
                     out,
                     "saved {} to {}",
-                    count(self.session.lines().len(), "line"),
+                    count(self.session.own_lines().count(), "line"),
                     target.display()
                 )?;
                 self.file = Some(target);
@@ -857,7 +860,7 @@ impl Repl {
         if !self.session.is_modified() || self.session.lines().is_empty() {
             return Ok(());
         }
-        let count = self.session.lines().len();
+        let count = self.session.own_lines().count();
         let kept = if history {
             "; the entries stay in the history (Up arrow)"
         } else {
@@ -917,14 +920,34 @@ Tab completes names, functions and units; Ctrl-C cancels the line being typed."
 }
 
 /// Diagnostics of one line, drawn compactly: message, the line, an underline, a help line.
+/// The first error's message, never empty: an `error:` with nothing after it helps no one.
+fn error_message(diagnostics: &[Diagnostic]) -> &str {
+    diagnostics
+        .first()
+        .map(|diagnostic| diagnostic.message.as_str())
+        .filter(|message| !message.trim().is_empty())
+        .unwrap_or(UNDESCRIBED_ERROR)
+}
+
+/// Said of a line with an error but no description (a bug of ours, never a blank `error:`).
+const UNDESCRIBED_ERROR: &str = "this line could not be evaluated (no reason was recorded)";
+
 fn write_diagnostics(
     err: &mut dyn Write,
     text: &str,
     diagnostics: &[Diagnostic],
     indent: &str,
 ) -> io::Result<()> {
+    if diagnostics.is_empty() {
+        writeln!(err, "{indent}error: {UNDESCRIBED_ERROR}")?;
+        writeln!(err, "{indent}  | {text}")?;
+    }
     for diagnostic in diagnostics {
-        writeln!(err, "{indent}error: {}", diagnostic.message)?;
+        writeln!(
+            err,
+            "{indent}error: {}",
+            error_message(std::slice::from_ref(diagnostic))
+        )?;
         let start = diagnostic.span.start.min(text.len());
         let end = diagnostic.span.end.clamp(start, text.len());
         let column = text.get(..start).map_or(0, |before| before.chars().count());

@@ -14,6 +14,8 @@
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
 //! - `trust`: no silent wrong numbers: temperatures, absolute zero, check boundaries, domains,
 //!   letter case of units, and an oracle over random sheets.
+//! - `trust_front`: solve precision over wide brackets, sessions loading sheets with includes,
+//!   expressions starting with a minus sign on the command line.
 
 mod checker;
 mod cli;
@@ -27,6 +29,7 @@ mod repl;
 mod robustness;
 mod transport;
 mod trust;
+mod trust_front;
 mod trust_warnings;
 mod util;
 mod worksheets;

@@ -11,6 +11,11 @@
 //! name of the line that produced that result, or by its value and unit when it came from a
 //! bare expression, so a saved session is a sheet that runs on its own.
 //!
+//! A loaded sheet's includes are followed through the front end's `IncludeLoader`: the included
+//! sheets' lines join the session so that their names and functions can be used, but they are
+//! not listed or saved (the `include` line is), and a session entry cannot redefine them, just
+//! as a sheet defines a name once across its includes.
+//!
 //! Expressions are evaluated by the same `Calculator` as sheet files. Nothing here prints or
 //! touches files.
 
@@ -19,6 +24,7 @@ use super::error::{EvalError, EvalErrorKind};
 use super::evaluate::{with_origin, Calculator, Failure, LineResult, Scope, Shown};
 use super::function::Library;
 use super::order::dependency_order;
+use super::sources::IncludeLoader;
 use crate::syntax::{parse_line, Expression, FunctionDefinition, Line, LineKind, Span};
 use std::collections::HashMap;
 
@@ -35,6 +41,8 @@ pub struct SessionLine {
     diagnostics: Vec<Diagnostic>,
     /// The names its expressions refer to, without repeats.
     references: Vec<String>,
+    /// The label of the included sheet it comes from; `None` for the session's own lines.
+    included_from: Option<String>,
 }
 
 impl SessionLine {
@@ -64,6 +72,12 @@ impl SessionLine {
     /// The names it refers to.
     pub fn references(&self) -> &[String] {
         &self.references
+    }
+
+    /// The label of the included sheet this line comes from, if it is not the session's own:
+    /// such lines are neither listed nor saved.
+    pub fn included_from(&self) -> Option<&str> {
+        self.included_from.as_deref()
     }
 
     /// The line's value, when it has one.
@@ -107,13 +121,30 @@ pub struct LoadReport {
     /// The lines the sheet added or replaced, in sheet order: (line number in the sheet,
     /// index in the session).
     pub kept: Vec<(usize, usize)>,
+    /// The lines of the sheets it included, in load order: (sheet label, line number in that
+    /// sheet, index in the session).
+    pub included: Vec<(String, usize, usize)>,
     /// Definitions of the sheet that replaced an earlier one: (index, name).
     pub replaced: Vec<(usize, String)>,
-    /// Lines that did not parse and were left out: (line number in the sheet, its text, the
-    /// error with a span into that text).
-    pub rejected: Vec<(usize, String, Diagnostic)>,
+    /// Lines that did not parse, or defined a name twice across the sheet and its includes,
+    /// and were left out: (sheet label, line number in that sheet, its text, the error with a
+    /// span into that text).
+    pub rejected: Vec<(String, usize, String, Diagnostic)>,
     /// Lines of the session evaluated again because they depend on the sheet's definitions.
     pub recomputed: Vec<usize>,
+}
+
+/// The state of one `load`: what it did so far, and what it has seen.
+struct Loading {
+    report: LoadReport,
+    /// The lines to evaluate once every sheet is in.
+    seeds: Vec<usize>,
+    /// Names defined so far by this load: (sheet label, line number, from an included sheet).
+    defined: HashMap<String, (String, usize, bool)>,
+    /// Cycle keys and labels of the sheets on the way to the one being loaded.
+    chain: Vec<(String, String)>,
+    /// Cycle keys of the sheets included so far: each loads once.
+    loaded_keys: Vec<String>,
 }
 
 /// The last result, for `_`.
@@ -187,9 +218,17 @@ impl<'l> Session<'l> {
         }
     }
 
-    /// The kept lines, in sheet order.
+    /// The kept lines, in sheet order, with those of included sheets.
     pub fn lines(&self) -> &[SessionLine] {
         &self.lines
+    }
+
+    /// The session's own lines, in sheet order: those it lists and saves (not the lines of
+    /// included sheets).
+    pub fn own_lines(&self) -> impl Iterator<Item = &SessionLine> {
+        self.lines
+            .iter()
+            .filter(|line| line.included_from.is_none())
     }
 
     pub fn line(&self, index: usize) -> Option<&SessionLine> {
@@ -262,7 +301,7 @@ impl<'l> Session<'l> {
     /// The session as a sheet: every kept line, in order, ready for `fluxsheet run`.
     pub fn to_sheet(&self) -> String {
         let mut sheet = String::new();
-        for line in &self.lines {
+        for line in self.own_lines() {
             sheet.push_str(&line.text);
             sheet.push('\n');
         }
@@ -353,6 +392,16 @@ impl<'l> Session<'l> {
                         .push(Diagnostic::error(message, name_span));
                     return report;
                 }
+                if let Some(sheet) = self.definition(&name).and_then(SessionLine::included_from) {
+                    let message = format!(
+                        "`{name}` is defined in the included sheet `{sheet}`, and a sheet defines a name once: change it there and `:load` again, or choose another name"
+                    );
+                    report.outcome = Outcome::Refused;
+                    report
+                        .diagnostics
+                        .push(Diagnostic::error(message, name_span));
+                    return report;
+                }
                 if let Some(path) = self.cycle_through(&name, &references_of(&line)) {
                     let mut diagnostic =
                         EvalError::new(EvalErrorKind::Cycle { path }, name_span).to_diagnostic();
@@ -382,41 +431,27 @@ impl<'l> Session<'l> {
     }
 
     /// Adds a sheet's lines: definitions of names the session has replace them, the rest are
-    /// added at the end; then everything they affect is evaluated in dependency order.
-    pub fn load(&mut self, source: &str) -> LoadReport {
+    /// added at the end; then everything they affect is evaluated in dependency order. The
+    /// sheet is labelled `label` for `loader`, which reads its includes and data files under
+    /// the front end's rules.
+    pub fn load(
+        &mut self,
+        label: &str,
+        source: &str,
+        loader: &mut dyn IncludeLoader,
+    ) -> LoadReport {
         let was_clean = self.lines.is_empty() && !self.modified;
-        let mut report = LoadReport::default();
-        let mut seeds = Vec::new();
-        let mut raw_lines: Vec<&str> = source.split('\n').collect();
-        if source.ends_with('\n') {
-            raw_lines.pop();
-        }
-        for (position, raw_line) in raw_lines.iter().enumerate() {
-            let text = raw_line.strip_suffix('\r').unwrap_or(raw_line);
-            let line = match parse_line(text, position + 1, 0) {
-                Ok(line) => line,
-                Err(error) => {
-                    report.rejected.push((
-                        position + 1,
-                        text.to_string(),
-                        Diagnostic::from(&error),
-                    ));
-                    continue;
-                }
-            };
-            let existing = line_name(&line).and_then(|name| self.by_name.get(name).copied());
-            let index = match existing {
-                Some(index) => {
-                    let name = line_name(&line).unwrap_or_default().to_string();
-                    self.replace(index, text.to_string(), line);
-                    report.replaced.push((index, name));
-                    index
-                }
-                None => self.push(text.to_string(), line),
-            };
-            report.kept.push((position + 1, index));
-            seeds.push(index);
-        }
+        let mut loading = Loading {
+            report: LoadReport::default(),
+            seeds: Vec::new(),
+            defined: HashMap::new(),
+            chain: vec![(loader.main_key(label), label.to_string())],
+            loaded_keys: Vec::new(),
+        };
+        self.load_sheet(label, source, None, loader, &mut loading);
+        let Loading {
+            mut report, seeds, ..
+        } = loading;
         let order = self.evaluate_with_dependents(&seeds);
         let seeded: std::collections::HashSet<usize> = seeds.iter().copied().collect();
         report.recomputed = order
@@ -426,6 +461,150 @@ impl<'l> Session<'l> {
         // Loaded into a clean, empty session, the session is the sheet.
         self.modified = !was_clean || !report.replaced.is_empty();
         report
+    }
+
+    /// Adds the lines of one sheet, following its includes where they stand. `included_from`
+    /// is the sheet's label when it is an included one.
+    fn load_sheet(
+        &mut self,
+        label: &str,
+        source: &str,
+        included_from: Option<&str>,
+        loader: &mut dyn IncludeLoader,
+        loading: &mut Loading,
+    ) {
+        let mut raw_lines: Vec<&str> = source.split('\n').collect();
+        if source.ends_with('\n') {
+            raw_lines.pop();
+        }
+        for (position, raw_line) in raw_lines.iter().enumerate() {
+            let number = position + 1;
+            let text = raw_line.strip_suffix('\r').unwrap_or(raw_line);
+            let line = match parse_line(text, number, 0) {
+                Ok(line) => line,
+                Err(error) => {
+                    let diagnostic = Diagnostic::from(&error);
+                    loading.report.rejected.push((
+                        label.to_string(),
+                        number,
+                        text.to_string(),
+                        diagnostic,
+                    ));
+                    continue;
+                }
+            };
+            if let Some((name, span)) = line_name_and_span(&line) {
+                let earlier = loading.defined.get(name);
+                if let Some((earlier_label, earlier_number, earlier_included)) = earlier {
+                    // Within one sheet a later definition replaces an earlier one, as typed
+                    // entries do; across a sheet and its includes a name is defined once.
+                    if *earlier_included || included_from.is_some() {
+                        let message = format!(
+                            "`{name}` is already defined at {earlier_label}:{earlier_number}; a sheet and the sheets it includes define a name once"
+                        );
+                        loading.report.rejected.push((
+                            label.to_string(),
+                            number,
+                            text.to_string(),
+                            Diagnostic::error(message, span),
+                        ));
+                        continue;
+                    }
+                }
+                loading.defined.insert(
+                    name.to_string(),
+                    (label.to_string(), number, included_from.is_some()),
+                );
+            }
+            self.provide_data_files_of(&line, label, loader);
+            let include = match &line.kind {
+                LineKind::Include(include) => Some((include.path.clone(), include.path_span)),
+                _ => None,
+            };
+            let existing = line_name(&line).and_then(|name| self.by_name.get(name).copied());
+            let index = match existing {
+                Some(index) => {
+                    let name = line_name(&line).unwrap_or_default().to_string();
+                    self.replace(index, text.to_string(), line);
+                    loading.report.replaced.push((index, name));
+                    index
+                }
+                None => self.push(text.to_string(), line),
+            };
+            self.lines[index].included_from = included_from.map(str::to_string);
+            match included_from {
+                Some(sheet) => loading
+                    .report
+                    .included
+                    .push((sheet.to_string(), number, index)),
+                None => loading.report.kept.push((number, index)),
+            }
+            loading.seeds.push(index);
+            if let Some((path, span)) = include {
+                self.follow_include(index, &path, span, label, loader, loading);
+            }
+        }
+    }
+
+    /// Loads the sheet an `include` line at `index` names and records the outcome as that
+    /// line's result: the included sheet's label, or the error (each sheet loads once; a cycle
+    /// is an error).
+    fn follow_include(
+        &mut self,
+        index: usize,
+        path: &str,
+        span: Span,
+        from: &str,
+        loader: &mut dyn IncludeLoader,
+        loading: &mut Loading,
+    ) {
+        let failure = match loader.load(path, from) {
+            Err(message) => Some(EvalError::new(EvalErrorKind::Include { message }, span)),
+            Ok(sheet) if loading.chain.iter().any(|(key, _)| *key == sheet.key) => {
+                let mut chain: Vec<String> = loading
+                    .chain
+                    .iter()
+                    .map(|(_, label)| label.clone())
+                    .collect();
+                chain.push(sheet.label);
+                Some(EvalError::new(EvalErrorKind::IncludeCycle { chain }, span))
+            }
+            Ok(sheet) => {
+                self.lines[index].result = LineResult::Include {
+                    file: sheet.label.clone(),
+                };
+                if !loading.loaded_keys.contains(&sheet.key) {
+                    loading.loaded_keys.push(sheet.key.clone());
+                    loading.chain.push((sheet.key, sheet.label.clone()));
+                    self.load_sheet(
+                        &sheet.label,
+                        &sheet.text,
+                        Some(&sheet.label),
+                        loader,
+                        loading,
+                    );
+                    loading.chain.pop();
+                }
+                None
+            }
+        };
+        if let Some(error) = failure {
+            let line = &mut self.lines[index];
+            line.result = LineResult::Error;
+            line.diagnostics = vec![error.to_diagnostic()];
+        }
+    }
+
+    /// Reads the data file a `column … from` line names, relative to the sheet `label`.
+    fn provide_data_files_of(&mut self, line: &Line, label: &str, loader: &mut dyn IncludeLoader) {
+        let LineKind::Definition(definition) = &line.kind else {
+            return;
+        };
+        if let crate::syntax::ExpressionKind::FileColumn { path, .. } = &definition.expression.kind
+        {
+            let text = loader.load(path, label).map(|file| file.text);
+            self.provide_data_file(path, text);
+        }
     }
 
     // ----- keeping lines -----
@@ -496,6 +675,7 @@ impl<'l> Session<'l> {
             result,
             diagnostics: Vec::new(),
             references,
+            included_from: None,
         });
         if !matches!(self.lines[index].line.kind, LineKind::Blank) {
             self.modified = true;
@@ -515,6 +695,7 @@ impl<'l> Session<'l> {
                 result,
                 diagnostics: Vec::new(),
                 references,
+                included_from: None,
             },
         );
         self.unindex(index, &old);
@@ -597,6 +778,11 @@ impl<'l> Session<'l> {
                 by_name: &self.by_name,
             };
             let line = &self.lines[index];
+            // An include line's result was settled when its sheet was loaded.
+            if matches!(line.line.kind, LineKind::Include(_)) {
+                evaluated.push(index);
+                continue;
+            }
             let (result, diagnostics) = evaluate_line(&mut self.calculator, &scope, &line.line);
             let line = &mut self.lines[index];
             line.result = result;
@@ -842,8 +1028,21 @@ fn evaluate_line(
         LineKind::Blank => return (LineResult::Blank, Vec::new()),
         LineKind::Comment => return (LineResult::Comment, Vec::new()),
         LineKind::Heading(heading) => return (LineResult::Heading(heading.clone()), Vec::new()),
-        // Refused on entry; a loaded sheet's includes are not followed in a session.
-        LineKind::Invalid | LineKind::Include(_) => return (LineResult::Error, Vec::new()),
+        // Settled when its sheet is loaded (see `follow_include`); refused as an entry.
+        LineKind::Include(_) => {
+            let message = "an include is followed when its sheet is loaded: `:load` the sheet";
+            return (
+                LineResult::Error,
+                vec![Diagnostic::error(message, line.span)],
+            );
+        }
+        LineKind::Invalid => {
+            let message = "this line cannot be read as a sheet line";
+            return (
+                LineResult::Error,
+                vec![Diagnostic::error(message, line.span)],
+            );
+        }
         LineKind::Plot(plot) => calculator
             .plot(plot, scope)
             .map(|outcome| LineResult::Plot(Box::new(outcome))),
@@ -1020,7 +1219,11 @@ mod tests {
     #[test]
     fn loading_a_sheet_with_forward_references_and_new_definitions_later() {
         let mut session = Session::new(Builtins::standard());
-        let report = session.load("b = a * 2\na = 3 m\nc = missing + 1 m\nd = (\n");
+        let report = session.load(
+            "<sheet>",
+            "b = a * 2\na = 3 m\nc = missing + 1 m\nd = (\n",
+            &mut super::super::sources::NoIncludes,
+        );
         assert_eq!(report.kept, vec![(1, 0), (2, 1), (3, 2)]);
         assert_eq!(report.rejected.len(), 1);
         assert_eq!(value(&session, "b"), 6.0);

@@ -5,14 +5,15 @@
 use super::error::{EvalError, EvalErrorKind};
 use super::evaluate::{Calculator, Failure, Scope, Shown, ShownValue};
 use super::value::{Quantity, Value};
-use crate::numeric::{brent, SolveError};
+use crate::numeric::{brent, Convergence, Root, SolveError, Tolerance};
 use crate::syntax::{Definition, FunctionDefinition, Solve, Span};
 use rustc_hash::FxHashMap as HashMap;
 
 /// Most trials before a solve gives up; Brent's method needs far fewer on any continuous line.
 const MAX_ITERATIONS: u32 = 200;
-/// Bracket width, relative to the bracket's ends, at which a root is accepted.
-const RELATIVE_TOLERANCE: f64 = 1e-12;
+/// A line within this fraction of the target equals it to rounding: a few units in the last
+/// place of a double (common practice, no single source).
+const ROUNDING_LEVEL: f64 = 4.0 * f64::EPSILON;
 
 /// A scope with some lines' values replaced (the unknown's trial value, and the lines that
 /// depend on it).
@@ -171,7 +172,7 @@ impl Calculator<'_> {
                 .into()),
             }
         };
-        let tolerance = RELATIVE_TOLERANCE * lower.value.abs().max(upper.value.abs()).max(1e-300);
+        let tolerance = solve_tolerance(lower.value, upper.value, goal.value);
         let root = brent(
             &mut trial,
             lower.value,
@@ -207,11 +208,7 @@ impl Calculator<'_> {
         })?;
         self.notes.insert(
             span.start,
-            format!(
-                "Brent's method, {} iterations; residual {}",
-                root.iterations,
-                residual_text(&target_value, root.residual.abs())
-            ),
+            accuracy_note(&root, &target_value, goal.value, &unknown_value),
         );
         Ok(Value::Scalar(Quantity {
             value: root.x,
@@ -249,15 +246,66 @@ impl In {
     }
 }
 
-/// The residual, a difference, in the target's unit unless that unit has an offset (degC).
-fn residual_text(target: &ShownValue, residual: f64) -> String {
-    let unit = In::unit_of(target);
+/// When Brent's method may stop: once the root is bracketed to a few rounding errors of
+/// itself, however many decades the bracket spans, or once the line equals the goal to
+/// rounding. A bracket that reaches zero also gets an absolute floor, the float spacing at its
+/// larger end, so a root at zero (which has no relative precision) ends in a bounded number of
+/// trials; a bracket on one side of zero needs none.
+fn solve_tolerance(lower: f64, upper: f64, goal: f64) -> Tolerance {
+    let reaches_zero = lower.signum() != upper.signum() || lower == 0.0 || upper == 0.0;
+    Tolerance {
+        x: if reaches_zero {
+            f64::EPSILON * lower.abs().max(upper.abs())
+        } else {
+            0.0
+        },
+        residual: ROUNDING_LEVEL * goal.abs(),
+    }
+}
+
+/// The note on a solved line: iterations, the residual (also relative to the goal), and how
+/// closely the root is known: the final bracket's width relative to the root, or that the line
+/// met the goal to rounding.
+fn accuracy_note(root: &Root, target: &ShownValue, goal: f64, unknown: &ShownValue) -> String {
+    let residual = difference_text(target, root.residual.abs());
+    let relative_residual = if root.convergence == Convergence::Exact {
+        " (exact)".to_string()
+    } else if goal != 0.0 {
+        format!(
+            " ({} of the target)",
+            super::warnings::short(root.residual.abs() / goal.abs())
+        )
+    } else {
+        String::new()
+    };
+    let accuracy = match root.convergence {
+        Convergence::Exact => String::new(),
+        Convergence::Residual => "; the line meets the target to rounding".to_string(),
+        // Relative to the root unless the bracket reaches zero, where a relative width says nothing.
+        Convergence::Bracket { width } if width.abs() < root.x.abs() => format!(
+            "; root bracketed to {} of its value",
+            super::warnings::short(width.abs() / root.x.abs())
+        ),
+        Convergence::Bracket { width } => format!(
+            "; root bracketed to {}",
+            difference_text(unknown, width.abs())
+        ),
+    };
+    format!(
+        "Brent's method, {} iterations; residual {residual}{relative_residual}{accuracy}",
+        root.iterations
+    )
+}
+
+/// A difference in the line's unit unless that unit has an offset (degC), then in SI.
+fn difference_text(line: &ShownValue, difference: f64) -> String {
+    let unit = In::unit_of(line);
     match &unit.unit {
-        Some(found) if found.offset.is_none() => unit.write(residual),
+        Some(found) if found.offset.is_none() => unit.write(difference),
         _ => format!(
             "{} {}",
-            super::warnings::short(residual),
-            target.quantity.dimension.preferred_si_unit()
+            super::warnings::short(difference),
+            line.quantity.dimension.preferred_si_unit()
         ),
     }
 }
@@ -296,9 +344,10 @@ fn describe(
             unknown_unit.write(*lower),
             unknown_unit.write(*upper)
         ),
-        SolveError::BadTolerance { x_tolerance } => {
-            format!("the solver's tolerance {x_tolerance:e} is not usable")
-        }
+        SolveError::BadTolerance { tolerance } => format!(
+            "the solver's tolerances (x {:e}, residual {:e}) are not usable",
+            tolerance.x, tolerance.residual
+        ),
         SolveError::NotFinite { x, value } => format!(
             "`{target}` is not a finite number ({value}) at `{unknown}` = {}",
             unknown_unit.write(*x)

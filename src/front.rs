@@ -1,0 +1,4 @@
+//! What the front doors (`cli` for files, `repl` for sessions) share, so that neither imports
+//! the other: reading included sheets and data files from disk under the folder sandbox.
+
+pub mod includes;
