@@ -444,6 +444,17 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
         }
         return Ok(exit::SHEET_ERROR);
     }
+    // Warnings about the expression itself (an angle in radians, mixed unit systems) go to
+    // stderr; whether a one-line sheet's lines are used is not a question here.
+    let warnings: Vec<_> = evaluation
+        .diagnostics
+        .iter()
+        .filter(|diagnostic| diagnostic.code != Some("unused-line"))
+        .cloned()
+        .collect();
+    if !warnings.is_empty() && !json {
+        render::write_diagnostics(&mut stderr_stream(), &evaluation.sources, &warnings)?;
+    }
     let results: Vec<&LineResult> = evaluation
         .lines
         .iter()

@@ -789,3 +789,11 @@ mod oracle {
         }
     }
 }
+
+#[test]
+fn eval_shows_the_warnings_about_its_expression() {
+    let (code, stdout, stderr) = eval("sin(30)");
+    assert_eq!(code, 0);
+    assert!(stdout.starts_with("-0.988"), "{stdout}");
+    assert!(stderr.contains("sin(30 deg)"), "{stderr}");
+}

@@ -168,9 +168,7 @@ fn extreme(arguments: &[Value], pick: Extreme) -> Option<Result<Value, CallError
     let [Value::Column(_) | Value::Labels(_)] = arguments else {
         return None;
     };
-    aggregate(arguments, |values| {
-        pick(values).map(|(value, _)| value)
-    })
+    aggregate(arguments, |values| pick(values).map(|(value, _)| value))
 }
 
 pub fn column_minimum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {

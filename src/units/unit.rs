@@ -145,7 +145,7 @@ impl Unit {
                     return Err(UnitError::CaseOnly {
                         symbol: symbol.to_string(),
                         reading: format!(
-                            "the prefix `{prefix}` ({}) on `{rest}` ({})",
+                            "the prefix `{prefix}` ({:e}) on `{rest}` ({})",
                             prefix_factor.value(),
                             entry.definition.name
                         ),
