@@ -87,6 +87,11 @@ pub trait Function: Sync {
     fn takes_absolute_temperature(&self) -> bool {
         false
     }
+    /// Its parameters (meaning, dimension, domain, default) and an example call, one line
+    /// each, for `:about`, listings and editor hovers.
+    fn details(&self) -> Vec<String> {
+        Vec::new()
+    }
 }
 
 /// Computes one row of a function from the rows' plain SI numbers.
@@ -153,29 +158,13 @@ impl fmt::Display for CallError {
             } => write!(
                 formatter,
                 "argument `{parameter}` must be {}, found {}",
-                describe_dimension(expected),
-                describe_dimension(found)
+                expected.phrase(),
+                found.phrase()
             ),
             CallError::Domain { message, .. } | CallError::OutOfRange { message, .. } => {
                 formatter.write_str(message)
             }
         }
-    }
-}
-
-/// `a velocity (L T^-1)` or `L^(1/2)` for unnamed dimensions.
-pub fn describe_dimension(dimension: &Dimension) -> String {
-    match dimension.quantity_name() {
-        Some("dimensionless") => "dimensionless".to_string(),
-        Some(name) => format!("{} {name} ({dimension})", article(name)),
-        None => format!("of dimension {dimension}"),
-    }
-}
-
-fn article(word: &str) -> &'static str {
-    match word.chars().next() {
-        Some('a' | 'e' | 'i' | 'o' | 'u') => "an",
-        _ => "a",
     }
 }
 
