@@ -33,7 +33,9 @@ const PROMPT: &str = "fx> ";
 pub fn run(file: Option<&str>, options: RenderOptions, out: &mut dyn Write) -> io::Result<u8> {
     let library = Builtins::standard();
     let mut repl = Repl::new(library, options.digits);
-    let mut err = io::stderr();
+    // Whole lines at a time (a snippet is drawn in many small pieces), and a closed pipe ends
+    // no session.
+    let mut err = io::LineWriter::new(crate::front::streams::PipeSafe::new(io::stderr()));
     let terminal = io::stdin().is_terminal();
     if let Some(file) = file {
         if !repl.open(Path::new(file), out, &mut err)? {

@@ -231,7 +231,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
         Some(path) => match Earlier::load(path) {
             Ok(earlier) => Some(earlier),
             Err(message) => {
-                eprintln!("error: {message}");
+                crate::stderr_line!("error: {message}");
                 return Ok(exit::SHEET_ERROR);
             }
         },

@@ -51,13 +51,13 @@ pub fn run(out: &mut dyn Write, arguments: &ReportArgs, options: RenderOptions) 
     let source = match read_sheet(&arguments.file) {
         Ok(source) => source,
         Err(message) => {
-            eprintln!("error: {message}");
+            crate::stderr_line!("error: {message}");
             return Ok(exit::SHEET_ERROR);
         }
     };
     let output = &arguments.output;
     if arguments.file != "-" && same_file(Path::new(&arguments.file), output) {
-        eprintln!(
+        crate::stderr_line!(
             "error: refusing to write the report over its own sheet `{}`; choose another file \
 for -o",
             arguments.file
@@ -65,7 +65,7 @@ for -o",
         return Ok(exit::USAGE);
     }
     let Some(format) = format_of(output) else {
-        eprintln!(
+        crate::stderr_line!(
             "error: cannot tell the report format from `{}`: name it *.md or *.html",
             output.display()
         );
@@ -92,7 +92,7 @@ for -o",
         ReportFormat::Html => write_html(&mut contents, &context)?,
     }
     if let Err(error) = write_atomically(output, |file| file.write_all(&contents)) {
-        eprintln!("error: cannot write `{}`: {error}", output.display());
+        crate::stderr_line!("error: cannot write `{}`: {error}", output.display());
         return Ok(exit::SHEET_ERROR);
     }
     writeln!(out, "wrote {}", output.display())?;
