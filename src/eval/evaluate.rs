@@ -320,7 +320,7 @@ pub fn evaluate_with(
     for (index, file) in includes {
         evaluator.results[index] = Some(LineResult::Include { file });
     }
-    evaluator.overrides = overrides;
+    evaluator.overrides = &overrides;
     evaluator.run();
     let mut evaluation = evaluator.finish(main_lines);
     evaluation.sources = sources;
@@ -574,7 +574,7 @@ struct Evaluator<'a> {
     diagnostics: Vec<Diagnostic>,
     calculator: Calculator<'a>,
     /// `--set` values, by the name of the line they replace.
-    overrides: Vec<(String, Expression)>,
+    overrides: &'a [(String, Expression)],
     /// Lines whose value came from `--set`, with the sheet's own expression text.
     overridden: HashMap<usize, String>,
 }
@@ -591,7 +591,7 @@ impl<'a> Evaluator<'a> {
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
             calculator: Calculator::new(library),
-            overrides: Vec::new(),
+            overrides: &[],
             overridden: HashMap::default(),
         }
     }
@@ -613,7 +613,16 @@ impl<'a> Evaluator<'a> {
             .map(|line_index| {
                 let mut needs = Vec::new();
                 if let LineKind::Definition(definition) = &self.lines[*line_index].kind {
-                    for line in self.globals_used(&definition.expression) {
+                    // A `--set` value's names are needed too; its own name is the sheet's value
+                    // (`--set k=k*2`), and a cycle through another line is reported as one.
+                    let replacement_needs = self
+                        .replacement_for(&definition.name.text)
+                        .map(|replacement| self.globals_used(replacement))
+                        .unwrap_or_default()
+                        .into_iter()
+                        .filter(|line| line != line_index);
+                    let used = self.globals_used(&definition.expression);
+                    for line in used.into_iter().chain(replacement_needs) {
                         let node = node_of[&line];
                         if !needs.contains(&node) {
                             needs.push(node);
@@ -690,7 +699,7 @@ impl<'a> Evaluator<'a> {
 
     /// A `--set` must name a value line of the sheet (a command-line error otherwise).
     fn check_overrides(&mut self) {
-        for (name, expression) in &self.overrides {
+        for (name, expression) in self.overrides {
             if self.definitions.contains_key(name.as_str()) {
                 continue;
             }
@@ -819,6 +828,14 @@ impl<'a> Evaluator<'a> {
                     diagnostic = diagnostic.with_label(other.name.span, "part of the cycle");
                 }
             }
+            let overridden = names
+                .iter()
+                .find(|name| self.replacement_for(name).is_some());
+            if let Some(name) = overridden {
+                diagnostic = diagnostic.with_help(Some(format!(
+                    "the cycle goes through the value given by `--set {name}=…`"
+                )));
+            }
             self.diagnostics.push(diagnostic);
         }
         for member in members {
@@ -844,15 +861,20 @@ impl<'a> Evaluator<'a> {
         cause
     }
 
+    /// The `--set` value that replaces line `name`, if any.
+    fn replacement_for(&self, name: &str) -> Option<&'a Expression> {
+        let overrides: &'a [(String, Expression)] = self.overrides;
+        overrides
+            .iter()
+            .find(|(overridden, _)| overridden == name)
+            .map(|(_, expression)| expression)
+    }
+
     fn evaluate_definition(&mut self, index: usize) {
         let LineKind::Definition(definition) = &self.lines[index].kind else {
             return;
         };
-        let replacement = self
-            .overrides
-            .iter()
-            .find(|(name, _)| *name == definition.name.text)
-            .map(|(_, expression)| expression.clone());
+        let replacement = self.replacement_for(&definition.name.text);
         let scope = sheet_scope!(self);
         let calculator = &mut self.calculator;
         let outcome = match &replacement {
@@ -863,11 +885,24 @@ impl<'a> Evaluator<'a> {
             ),
             Some(replacement) => {
                 // The value given on the command line must have the dimension of the one
-                // it replaces.
-                let original = calculator.expression(&definition.expression, &scope);
+                // it replaces; inside it, the line's own name is the sheet's value.
+                let sheet_value = calculator.line_value(
+                    &definition.expression,
+                    definition.display_unit.as_ref(),
+                    &scope,
+                );
+                let original = sheet_value.as_ref().ok().map(Shown::value);
+                let own_value: HashMap<String, Shown> = sheet_value
+                    .iter()
+                    .map(|shown| (definition.name.text.clone(), shown.clone()))
+                    .collect();
+                let scope = super::solve::Overlay {
+                    base: &scope,
+                    values: &own_value,
+                };
                 let given = calculator.expression(replacement, &scope);
                 match (original, given) {
-                    (Ok(original), Ok(given)) if original.dimension() != given.dimension() => {
+                    (Some(original), Ok(given)) if original.dimension() != given.dimension() => {
                         let describe = |value: &Value| match value.dimension() {
                             Some(dimension) => super::function::describe_dimension(&dimension),
                             None => "text".to_string(),
