@@ -103,6 +103,8 @@ pub enum EvalErrorKind {
         sides: Dimension,
     },
     NegativeTolerance,
+    /// A relative tolerance of 100 % or more: any value of the right sign would pass.
+    ToleranceTooLarge,
     Call {
         function: String,
         error: CallError,
@@ -368,6 +370,9 @@ impl fmt::Display for EvalErrorKind {
                 with_unit(found)
             ),
             EvalErrorKind::NegativeTolerance => formatter.write_str("a tolerance cannot be negative"),
+            EvalErrorKind::ToleranceTooLarge => formatter.write_str(
+                "a relative tolerance must be below 100 %: a larger one lets any value of the right sign pass (give an absolute tolerance with a unit instead)",
+            ),
             EvalErrorKind::Call { function, error } => write!(formatter, "`{function}`: {error}"),
             EvalErrorKind::SheetFunctionArguments { function, expected, found } => {
                 write!(formatter, "`{function}` takes {expected} argument(s), but {found} were given")

@@ -1366,6 +1366,8 @@ impl<'l> Calculator<'l> {
         unit: Option<&UnitExpression>,
         span: Span,
     ) -> Result<Value, Failure> {
+        // `--max-rows` holds for every column, a list as much as a range.
+        super::columns::check_rows(items.len() as f64, self.max_rows, span)?;
         let mut values = Vec::with_capacity(items.len());
         let mut shape = Quantity::dimensionless(0.0);
         for item in items {
@@ -1701,6 +1703,11 @@ impl<'l> Calculator<'l> {
                     );
                 }
                 if value.dimension.is_dimensionless() {
+                    if !(value.value < 1.0) {
+                        let error =
+                            EvalError::new(EvalErrorKind::ToleranceTooLarge, tolerance.span);
+                        return Err(error.into());
+                    }
                     Some((value.value, true))
                 } else if Some(value.dimension) == right_dimension {
                     Some((value.value, false))
@@ -2427,12 +2434,14 @@ fn scaled_temperature(left: &Quantity, right: &Quantity) -> TemperatureKind {
     }
 }
 
-/// The fraction n/d (d <= 12) equal to `value` within rounding, for powers of units.
+/// The fraction n/d (d <= 12) equal to `value` within rounding, for powers of units. Only an
+/// exact zero is the power zero: `(2 m)^1e-10` is not dimensionless.
 fn simple_fraction(value: f64) -> Option<Exponent> {
     (1..=12).find_map(|denominator| {
         let numerator = value * f64::from(denominator);
         let rounded = numerator.round();
-        ((numerator - rounded).abs() < 1e-9 && rounded.abs() <= 1_000.0)
+        let zero_only_if_exact = rounded != 0.0 || value == 0.0;
+        ((numerator - rounded).abs() < 1e-9 && rounded.abs() <= 1_000.0 && zero_only_if_exact)
             .then(|| Exponent::new(rounded as i32, denominator))
     })
 }

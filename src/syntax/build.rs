@@ -341,6 +341,18 @@ impl Builder {
                 Some(unit) => Some(self.display_unit(unit)?),
                 None => None,
             };
+            // `f(x, x)` would silently bind the first argument only.
+            if parameters
+                .iter()
+                .any(|earlier: &Parameter| earlier.name.text == parameter_name.as_str())
+            {
+                return Err(SyntaxError {
+                    kind: SyntaxErrorKind::DuplicateParameter {
+                        name: parameter_name.as_str().to_string(),
+                    },
+                    span: self.span(&parameter_name),
+                });
+            }
             parameters.push(Parameter {
                 name: Name {
                     text: parameter_name.as_str().to_string(),
@@ -597,13 +609,14 @@ impl Builder {
             kind: ExpressionKind::Quantity {
                 unit: Some(unit), ..
             },
-            span,
+            ..
         })) = previous
         else {
             return Ok(());
         };
         let power_span = self.span(power);
-        if span.end == power_span.start {
+        // `(2 m)^2` has the parenthesis between the unit and the `^`.
+        if unit.span.end == power_span.start {
             return Err(SyntaxError {
                 kind: SyntaxErrorKind::SpacedUnitPower {
                     unit: unit.text.clone(),

@@ -27,6 +27,8 @@ pub enum SyntaxErrorKind {
     /// `2 m^ 2`: a `^` touching a unit, then a space; ambiguous between a unit power and a
     /// power of the quantity.
     SpacedUnitPower { unit: String },
+    /// `f(x, x)`: a parameter named twice.
+    DuplicateParameter { name: String },
 }
 
 impl fmt::Display for SyntaxError {
@@ -72,6 +74,9 @@ impl fmt::Display for SyntaxError {
                     formatter,
                     "unit exponent `{text}` is too large: exponents are limited to {limit} in size"
                 )
+            }
+            SyntaxErrorKind::DuplicateParameter { name } => {
+                write!(formatter, "parameter `{name}` is named twice")
             }
             SyntaxErrorKind::SpacedUnitPower { unit } => {
                 write!(
