@@ -131,6 +131,10 @@ pub enum EvalErrorKind {
     Include {
         message: String,
     },
+    /// An include chain deeper than [`super::INCLUDE_DEPTH_LIMIT`].
+    IncludeTooDeep {
+        limit: usize,
+    },
     IncludeCycle {
         chain: Vec<String>,
     },
@@ -395,6 +399,10 @@ impl fmt::Display for EvalErrorKind {
                 path.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" -> ")
             ),
             EvalErrorKind::Include { message } => write!(formatter, "cannot include: {message}"),
+            EvalErrorKind::IncludeTooDeep { limit } => write!(
+                formatter,
+                "includes are nested more than {limit} sheets deep, the limit"
+            ),
             EvalErrorKind::IncludeCycle { chain } => write!(
                 formatter,
                 "include cycle: {}",

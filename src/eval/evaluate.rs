@@ -9,7 +9,7 @@ use super::diagnostic::Diagnostic;
 use super::error::{EvalError, EvalErrorKind, Operation};
 use super::function::{CallError, Library, Provenance};
 use super::order::dependency_order;
-use super::sources::{IncludeLoader, NoIncludes, SourceMap};
+use super::sources::{IncludeLoader, NoIncludes, SourceMap, INCLUDE_DEPTH_LIMIT};
 use super::value::{Column, Labels, OffsetScale, Quantity, TemperatureKind, Value};
 use crate::syntax::{
     parse_sheet_at, BinaryOperator, Check, Comparison, Definition, Expression, ExpressionKind,
@@ -350,6 +350,9 @@ struct Loaded {
     data_files: HashMap<usize, Result<Arc<DataTable>, EvalError>>,
     /// Each data file read so far, by its loader key, so a file is parsed once.
     tables: HashMap<String, Result<Arc<DataTable>, String>>,
+    /// The label of each sheet loaded so far, by its loader key (a canonical path): a sheet
+    /// reached by two spellings (`c.fxs`, `sub/../c.fxs`) loads once.
+    sheets: HashMap<String, String>,
     max_rows: usize,
 }
 
@@ -400,6 +403,9 @@ impl Loaded {
         self.errors.extend(parsed.errors);
         if index == 0 {
             self.main_lines = self.lines.len();
+            if let Some((key, label)) = chain.first() {
+                self.sheets.insert(key.clone(), label.clone());
+            }
         }
         self.load_data_files(first, &label, loader);
         let includes: Vec<(usize, String, Span)> = (first..self.lines.len())
@@ -421,17 +427,19 @@ impl Loaded {
                     let error = EvalError::new(EvalErrorKind::IncludeCycle { chain: cycle }, span);
                     self.diagnostics.push(error.to_diagnostic());
                 }
+                Ok(_) if chain.len() > INCLUDE_DEPTH_LIMIT => {
+                    let limit = INCLUDE_DEPTH_LIMIT;
+                    let error = EvalError::new(EvalErrorKind::IncludeTooDeep { limit }, span);
+                    self.diagnostics.push(error.to_diagnostic());
+                }
                 Ok(sheet) => {
-                    self.includes.push((line, sheet.label.clone()));
                     // A sheet reached twice (two includes of one constants file) loads once.
-                    if self
-                        .sources
-                        .files()
-                        .iter()
-                        .any(|known| known.label == sheet.label)
-                    {
+                    if let Some(known) = self.sheets.get(&sheet.key) {
+                        self.includes.push((line, known.clone()));
                         continue;
                     }
+                    self.includes.push((line, sheet.label.clone()));
+                    self.sheets.insert(sheet.key.clone(), sheet.label.clone());
                     let included = self.sources.add(&sheet.label, &sheet.text);
                     chain.push((sheet.key, sheet.label));
                     self.load(included, chain, loader);
