@@ -18,6 +18,7 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
+mod output_file;
 mod plots;
 mod properties;
 mod report;
@@ -270,6 +271,18 @@ pub(crate) fn evaluate_file(
     deny: bool,
     settings: &Settings,
 ) -> Evaluation {
+    evaluate_file_reading(source, path, allow_outside, deny, settings).0
+}
+
+/// [`evaluate_file`], with every file the run read: the sheet, its includes and data files
+/// (the inputs an output file must not replace).
+pub(crate) fn evaluate_file_reading(
+    source: &SheetSource,
+    path: Option<&Path>,
+    allow_outside: bool,
+    deny: bool,
+    settings: &Settings,
+) -> (Evaluation, Vec<PathBuf>) {
     let mut loader =
         crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside);
     let mut evaluation = evaluate_with(
@@ -282,7 +295,12 @@ pub(crate) fn evaluate_file(
     if deny {
         deny_warnings(&mut evaluation);
     }
-    evaluation
+    let inputs = path
+        .map(Path::to_path_buf)
+        .into_iter()
+        .chain(loader.files_read().iter().cloned())
+        .collect();
+    (evaluation, inputs)
 }
 
 /// `NAME=VALUE` pairs of `--set`, checked for shape (the names are checked against the sheet).
@@ -331,7 +349,8 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             }
         };
         let path = (file != "-").then(|| Path::new(file.as_str()));
-        let evaluation = evaluate_file(&source, path, allow_outside, deny, &settings);
+        let (evaluation, inputs) =
+            evaluate_file_reading(&source, path, allow_outside, deny, &settings);
         if evaluation
             .diagnostics
             .iter()
@@ -346,7 +365,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         }
         worst = worst.max(exit_code_for(&evaluation));
         if let Some(target) = &arguments.plot {
-            match plots::write_plots(&evaluation, target) {
+            match plots::write_plots(&evaluation, target, &inputs) {
                 Ok(written) => {
                     for file in written {
                         crate::stderr_line!("wrote {}", file.display());
