@@ -578,16 +578,16 @@ fn list_functions(
     for (name, builtin) in library.functions_sorted() {
         if keep(name) {
             let sources: Vec<String> = builtin
-                .formulations
+                .formulations()
                 .iter()
                 .map(|formulation| {
                     format!("{} [valid: {}]", formulation.citation, formulation.validity)
                 })
                 .collect();
             rows.push(vec![
-                builtin.signature.to_string(),
+                builtin.signature(),
                 "function".to_string(),
-                builtin.summary.to_string(),
+                builtin.summary().to_string(),
                 sources.join("; "),
             ]);
         }

@@ -635,6 +635,9 @@ impl Repl {
             found = true;
             writeln!(out, "{}  (function)", function.signature())?;
             writeln!(out, "  {}", function.summary())?;
+            for line in function.details() {
+                writeln!(out, "  {line}")?;
+            }
             for formulation in function.formulations() {
                 writeln!(out, "  formulation: {}", formulation.title)?;
                 writeln!(out, "    source: {}", formulation.citation)?;

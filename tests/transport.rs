@@ -118,7 +118,7 @@ fn a_wrong_dimension_is_a_sheet_error_at_the_argument() {
     let diagnostic = &json["diagnostics"][0];
     assert_eq!(
         diagnostic["message"],
-        "`darcy_flux`: argument `K` must be a velocity (L T^-1), found a length (L)"
+        "`darcy_flux`: argument `K` must be a velocity (m/s), found a length (m)"
     );
     assert_eq!(diagnostic["column"], 12, "points at the first argument");
 
@@ -128,7 +128,7 @@ fn a_wrong_dimension_is_a_sheet_error_at_the_argument() {
     ]);
     assert_eq!(code, 3);
     assert!(
-        stderr.contains("argument `t` must be a time (T), found a length (L)"),
+        stderr.contains("argument `t` must be a time (s), found a length (m)"),
         "{stderr}"
     );
 }

@@ -350,13 +350,13 @@ fn every_relation_declares_and_records_its_formulations() {
             .find(|(listed, _)| *listed == name)
             .unwrap();
         assert!(
-            !builtin.formulations.is_empty() && !entry["source"].as_str().unwrap().is_empty(),
+            !builtin.formulations().is_empty() && !entry["source"].as_str().unwrap().is_empty(),
             "`{name}` computes a relation but cites no formulation"
         );
         let Some((_, arguments)) = SAMPLE_CALLS.iter().find(|(sample, _)| *sample == name) else {
             panic!("`{name}`: add a sample call to SAMPLE_CALLS so its provenance is checked");
         };
-        let declared: Vec<&str> = builtin.formulations.iter().map(|f| f.id).collect();
+        let declared: Vec<&str> = builtin.formulations().iter().map(|f| f.id).collect();
         let columns: Vec<String> = arguments
             .iter()
             .map(|argument| as_column(argument))

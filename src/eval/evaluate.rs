@@ -912,7 +912,7 @@ impl<'a> Evaluator<'a> {
                 match (original, given) {
                     (Some(original), Ok(given)) if original.dimension() != given.dimension() => {
                         let describe = |value: &Value| match value.dimension() {
-                            Some(dimension) => super::function::describe_dimension(&dimension),
+                            Some(dimension) => dimension.phrase(),
                             None => "text".to_string(),
                         };
                         let message = format!(
@@ -1873,9 +1873,9 @@ impl<'l> Calculator<'l> {
                                 message: format!(
                                     "`{}` is {} but `{}` is {}: series on one chart share a dimension",
                                     name.text,
-                                    super::function::describe_dimension(&shown.column.dimension),
+                                    shown.column.dimension.phrase(),
                                     plot.series[0].text,
-                                    super::function::describe_dimension(&reference.column.dimension)
+                                    reference.column.dimension.phrase()
                                 ),
                             },
                             name.span,

@@ -20,6 +20,7 @@ pub static LAYERED_ALONG: Formulation = Formulation {
 Cliffs NJ, section 2.4, eq. 2.31",
     validity: "steady flow parallel to the layers, each layer homogeneous; coefficients \
 K_i >= 0, thicknesses b_i > 0",
+    ranges: &[],
 };
 
 /// Layers in series: the same flux through every layer, the potential drops add.
@@ -30,6 +31,7 @@ pub static LAYERED_ACROSS: Formulation = Formulation {
 Cliffs NJ, section 2.4, eq. 2.32",
     validity: "steady flow perpendicular to the layers, each layer homogeneous; coefficients \
 K_i > 0, thicknesses b_i > 0",
+    ranges: &[],
 };
 
 // A `static`, as in `transport`: the layered entries cite formulation statics inline.
