@@ -183,3 +183,31 @@ fn the_listing_shows_the_relations_with_their_sources() {
     assert!(stdout.contains("theis_drawdown(Q, T, S, r, t)"), "{stdout}");
     assert!(stdout.contains("Theis, C. V., 1935"), "{stdout}");
 }
+
+/// The README's list of built-ins is written by hand; this keeps it complete: every relation's
+/// first form appears as its signature, and every other built-in by name.
+#[test]
+fn the_readme_lists_every_builtin() {
+    use fluxsheet::eval::Library;
+    let readme =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/README.md")).unwrap();
+    let library = fluxsheet::library::Builtins::standard();
+    let mut missing = Vec::new();
+    for relation in library.relations() {
+        let signature = library.function(relation.name).unwrap().signature();
+        let first_form = signature.split(" or ").next().unwrap();
+        if !readme.contains(&format!("`{first_form}`")) {
+            missing.push(first_form.to_string());
+        }
+    }
+    for (name, _) in library.functions_sorted() {
+        let as_word = |text: &str| {
+            text.split(|character: char| !(character.is_alphanumeric() || character == '_'))
+                .any(|word| word == name)
+        };
+        if !as_word(&readme) {
+            missing.push(name.to_string());
+        }
+    }
+    assert!(missing.is_empty(), "not in the README: {missing:?}");
+}

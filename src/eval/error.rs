@@ -260,8 +260,6 @@ impl EvalError {
     }
 }
 
-/// `a velocity (m/s)`, the wording of dimension errors.
-
 impl fmt::Display for EvalError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
         self.kind.fmt(formatter)?;
