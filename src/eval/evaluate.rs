@@ -1711,7 +1711,7 @@ impl<'l> Calculator<'l> {
                     );
                 }
                 if value.dimension.is_dimensionless() {
-                    if !(value.value < 1.0) {
+                    if value.value >= 1.0 || value.value.is_nan() {
                         let error =
                             EvalError::new(EvalErrorKind::ToleranceTooLarge, tolerance.span);
                         return Err(error.into());
