@@ -26,8 +26,9 @@ pub static HOOKE: Formulation = Formulation {
     title: "Hooke's law, sigma = E epsilon",
     citation: "Timoshenko, S. P. and Goodier, J. N., 1951, Theory of Elasticity, 2nd ed., \
 McGraw-Hill, New York, chapter 1",
-    validity: "linear elastic material under uniaxial stress; soils only over a small range \
-of stress around the state at which E was measured",
+    validity: "linear elastic material; E the modulus of the loading: Young's modulus under \
+uniaxial stress, the constrained modulus M with no lateral strain; soils only over a small \
+range of stress around the state at which the modulus was measured",
     ranges: &[],
 };
 /// The constrained modulus from Young's modulus and Poisson's ratio.
@@ -128,11 +129,17 @@ const UNIT_WEIGHT_OF_WATER: f64 = 1000.0 * 9.80665;
 pub static RELATIONS: &[Relation] = &[
     Relation {
         name: "hooke_stress",
-        summary: "stress sigma = E epsilon (Pa) from a strain and Young's modulus, the linear \
-stress-strain law; Hooke",
+        summary: "stress sigma = E epsilon (Pa) from a strain and a modulus (Young's under \
+uniaxial stress, the constrained modulus with no lateral strain), the linear stress-strain law; \
+Hooke",
         forms: &[Form {
             parameters: &[
-                YOUNG_MODULUS,
+                Parameter::new(
+                    "E",
+                    "an elastic modulus (Young's, or constrained)",
+                    PRESSURE,
+                    Domain::Positive,
+                ),
                 Parameter::new(
                     "epsilon",
                     "a strain (negative in extension)",
