@@ -218,8 +218,17 @@ pub(crate) fn spaced(from: f64, to: f64, count: usize, logarithmic: bool) -> Vec
             .map(|row| (low + (high - low) * row as f64 / last).exp())
             .collect()
     } else {
+        let width = to - from;
         (0..count)
-            .map(|row| from + (to - from) * row as f64 / last)
+            .map(|row| {
+                let fraction = row as f64 / last;
+                if width.is_finite() {
+                    from + width * fraction
+                } else {
+                    // Ends near the largest double: their difference overflows, a blend does not.
+                    from * (1.0 - fraction) + to * fraction
+                }
+            })
             .collect()
     };
     if let Some(first) = values.first_mut() {

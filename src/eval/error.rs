@@ -103,6 +103,8 @@ pub enum EvalErrorKind {
         sides: Dimension,
     },
     NegativeTolerance,
+    /// A relative tolerance of 100 % or more: any value of the right sign would pass.
+    ToleranceTooLarge,
     Call {
         function: String,
         error: CallError,
@@ -128,6 +130,10 @@ pub enum EvalErrorKind {
     },
     Include {
         message: String,
+    },
+    /// An include chain deeper than [`super::INCLUDE_DEPTH_LIMIT`].
+    IncludeTooDeep {
+        limit: usize,
     },
     IncludeCycle {
         chain: Vec<String>,
@@ -349,6 +355,9 @@ impl fmt::Display for EvalErrorKind {
                 found.phrase()
             ),
             EvalErrorKind::NegativeTolerance => formatter.write_str("a tolerance cannot be negative"),
+            EvalErrorKind::ToleranceTooLarge => formatter.write_str(
+                "a relative tolerance must be below 100 %: a larger one lets any value of the right sign pass (give an absolute tolerance with a unit instead)",
+            ),
             EvalErrorKind::Call { function, error } => write!(formatter, "`{function}`: {error}"),
             EvalErrorKind::SheetFunctionArguments { function, expected, found } => {
                 write!(formatter, "`{function}` takes {expected} argument(s), but {found} were given")
@@ -371,6 +380,10 @@ impl fmt::Display for EvalErrorKind {
                 path.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" -> ")
             ),
             EvalErrorKind::Include { message } => write!(formatter, "cannot include: {message}"),
+            EvalErrorKind::IncludeTooDeep { limit } => write!(
+                formatter,
+                "includes are nested more than {limit} sheets deep, the limit"
+            ),
             EvalErrorKind::IncludeCycle { chain } => write!(
                 formatter,
                 "include cycle: {}",

@@ -9,7 +9,7 @@ use super::diagnostic::Diagnostic;
 use super::error::{EvalError, EvalErrorKind, Operation};
 use super::function::{CallError, Library, Provenance};
 use super::order::dependency_order;
-use super::sources::{IncludeLoader, NoIncludes, SourceMap};
+use super::sources::{IncludeLoader, NoIncludes, SourceMap, INCLUDE_DEPTH_LIMIT};
 use super::value::{Column, Labels, OffsetScale, Quantity, TemperatureKind, Value};
 use crate::syntax::{
     parse_sheet_at, BinaryOperator, Check, Comparison, Definition, Expression, ExpressionKind,
@@ -320,7 +320,7 @@ pub fn evaluate_with(
     for (index, file) in includes {
         evaluator.results[index] = Some(LineResult::Include { file });
     }
-    evaluator.overrides = overrides;
+    evaluator.overrides = &overrides;
     evaluator.run();
     let mut evaluation = evaluator.finish(main_lines);
     evaluation.sources = sources;
@@ -350,6 +350,9 @@ struct Loaded {
     data_files: HashMap<usize, Result<Arc<DataTable>, EvalError>>,
     /// Each data file read so far, by its loader key, so a file is parsed once.
     tables: HashMap<String, Result<Arc<DataTable>, String>>,
+    /// The label of each sheet loaded so far, by its loader key (a canonical path): a sheet
+    /// reached by two spellings (`c.fxs`, `sub/../c.fxs`) loads once.
+    sheets: HashMap<String, String>,
     max_rows: usize,
 }
 
@@ -400,6 +403,9 @@ impl Loaded {
         self.errors.extend(parsed.errors);
         if index == 0 {
             self.main_lines = self.lines.len();
+            if let Some((key, label)) = chain.first() {
+                self.sheets.insert(key.clone(), label.clone());
+            }
         }
         self.load_data_files(first, &label, loader);
         let includes: Vec<(usize, String, Span)> = (first..self.lines.len())
@@ -421,17 +427,19 @@ impl Loaded {
                     let error = EvalError::new(EvalErrorKind::IncludeCycle { chain: cycle }, span);
                     self.diagnostics.push(error.to_diagnostic());
                 }
+                Ok(_) if chain.len() > INCLUDE_DEPTH_LIMIT => {
+                    let limit = INCLUDE_DEPTH_LIMIT;
+                    let error = EvalError::new(EvalErrorKind::IncludeTooDeep { limit }, span);
+                    self.diagnostics.push(error.to_diagnostic());
+                }
                 Ok(sheet) => {
-                    self.includes.push((line, sheet.label.clone()));
                     // A sheet reached twice (two includes of one constants file) loads once.
-                    if self
-                        .sources
-                        .files()
-                        .iter()
-                        .any(|known| known.label == sheet.label)
-                    {
+                    if let Some(known) = self.sheets.get(&sheet.key) {
+                        self.includes.push((line, known.clone()));
                         continue;
                     }
+                    self.includes.push((line, sheet.label.clone()));
+                    self.sheets.insert(sheet.key.clone(), sheet.label.clone());
                     let included = self.sources.add(&sheet.label, &sheet.text);
                     chain.push((sheet.key, sheet.label));
                     self.load(included, chain, loader);
@@ -574,7 +582,7 @@ struct Evaluator<'a> {
     diagnostics: Vec<Diagnostic>,
     calculator: Calculator<'a>,
     /// `--set` values, by the name of the line they replace.
-    overrides: Vec<(String, Expression)>,
+    overrides: &'a [(String, Expression)],
     /// Lines whose value came from `--set`, with the sheet's own expression text.
     overridden: HashMap<usize, String>,
 }
@@ -591,7 +599,7 @@ impl<'a> Evaluator<'a> {
             results: vec![None; lines.len()],
             diagnostics: Vec::new(),
             calculator: Calculator::new(library),
-            overrides: Vec::new(),
+            overrides: &[],
             overridden: HashMap::default(),
         }
     }
@@ -613,7 +621,16 @@ impl<'a> Evaluator<'a> {
             .map(|line_index| {
                 let mut needs = Vec::new();
                 if let LineKind::Definition(definition) = &self.lines[*line_index].kind {
-                    for line in self.globals_used(&definition.expression) {
+                    // A `--set` value's names are needed too; its own name is the sheet's value
+                    // (`--set k=k*2`), and a cycle through another line is reported as one.
+                    let replacement_needs = self
+                        .replacement_for(&definition.name.text)
+                        .map(|replacement| self.globals_used(replacement))
+                        .unwrap_or_default()
+                        .into_iter()
+                        .filter(|line| line != line_index);
+                    let used = self.globals_used(&definition.expression);
+                    for line in used.into_iter().chain(replacement_needs) {
                         let node = node_of[&line];
                         if !needs.contains(&node) {
                             needs.push(node);
@@ -690,7 +707,7 @@ impl<'a> Evaluator<'a> {
 
     /// A `--set` must name a value line of the sheet (a command-line error otherwise).
     fn check_overrides(&mut self) {
-        for (name, expression) in &self.overrides {
+        for (name, expression) in self.overrides {
             if self.definitions.contains_key(name.as_str()) {
                 continue;
             }
@@ -819,6 +836,14 @@ impl<'a> Evaluator<'a> {
                     diagnostic = diagnostic.with_label(other.name.span, "part of the cycle");
                 }
             }
+            let overridden = names
+                .iter()
+                .find(|name| self.replacement_for(name).is_some());
+            if let Some(name) = overridden {
+                diagnostic = diagnostic.with_help(Some(format!(
+                    "the cycle goes through the value given by `--set {name}=…`"
+                )));
+            }
             self.diagnostics.push(diagnostic);
         }
         for member in members {
@@ -844,15 +869,20 @@ impl<'a> Evaluator<'a> {
         cause
     }
 
+    /// The `--set` value that replaces line `name`, if any.
+    fn replacement_for(&self, name: &str) -> Option<&'a Expression> {
+        let overrides: &'a [(String, Expression)] = self.overrides;
+        overrides
+            .iter()
+            .find(|(overridden, _)| overridden == name)
+            .map(|(_, expression)| expression)
+    }
+
     fn evaluate_definition(&mut self, index: usize) {
         let LineKind::Definition(definition) = &self.lines[index].kind else {
             return;
         };
-        let replacement = self
-            .overrides
-            .iter()
-            .find(|(name, _)| *name == definition.name.text)
-            .map(|(_, expression)| expression.clone());
+        let replacement = self.replacement_for(&definition.name.text);
         let scope = sheet_scope!(self);
         let calculator = &mut self.calculator;
         let outcome = match &replacement {
@@ -863,11 +893,24 @@ impl<'a> Evaluator<'a> {
             ),
             Some(replacement) => {
                 // The value given on the command line must have the dimension of the one
-                // it replaces.
-                let original = calculator.expression(&definition.expression, &scope);
+                // it replaces; inside it, the line's own name is the sheet's value.
+                let sheet_value = calculator.line_value(
+                    &definition.expression,
+                    definition.display_unit.as_ref(),
+                    &scope,
+                );
+                let original = sheet_value.as_ref().ok().map(Shown::value);
+                let own_value: HashMap<String, Shown> = sheet_value
+                    .iter()
+                    .map(|shown| (definition.name.text.clone(), shown.clone()))
+                    .collect();
+                let scope = super::solve::Overlay {
+                    base: &scope,
+                    values: &own_value,
+                };
                 let given = calculator.expression(replacement, &scope);
                 match (original, given) {
-                    (Ok(original), Ok(given)) if original.dimension() != given.dimension() => {
+                    (Some(original), Ok(given)) if original.dimension() != given.dimension() => {
                         let describe = |value: &Value| match value.dimension() {
                             Some(dimension) => dimension.phrase(),
                             None => "text".to_string(),
@@ -1331,6 +1374,8 @@ impl<'l> Calculator<'l> {
         unit: Option<&UnitExpression>,
         span: Span,
     ) -> Result<Value, Failure> {
+        // `--max-rows` holds for every column, a list as much as a range.
+        super::columns::check_rows(items.len() as f64, self.max_rows, span)?;
         let mut values = Vec::with_capacity(items.len());
         let mut shape = Quantity::dimensionless(0.0);
         for item in items {
@@ -1666,6 +1711,11 @@ impl<'l> Calculator<'l> {
                     );
                 }
                 if value.dimension.is_dimensionless() {
+                    if value.value >= 1.0 || value.value.is_nan() {
+                        let error =
+                            EvalError::new(EvalErrorKind::ToleranceTooLarge, tolerance.span);
+                        return Err(error.into());
+                    }
                     Some((value.value, true))
                 } else if Some(value.dimension) == right_dimension {
                     Some((value.value, false))
@@ -2392,12 +2442,14 @@ fn scaled_temperature(left: &Quantity, right: &Quantity) -> TemperatureKind {
     }
 }
 
-/// The fraction n/d (d <= 12) equal to `value` within rounding, for powers of units.
+/// The fraction n/d (d <= 12) equal to `value` within rounding, for powers of units. Only an
+/// exact zero is the power zero: `(2 m)^1e-10` is not dimensionless.
 fn simple_fraction(value: f64) -> Option<Exponent> {
     (1..=12).find_map(|denominator| {
         let numerator = value * f64::from(denominator);
         let rounded = numerator.round();
-        ((numerator - rounded).abs() < 1e-9 && rounded.abs() <= 1_000.0)
+        let zero_only_if_exact = rounded != 0.0 || value == 0.0;
+        ((numerator - rounded).abs() < 1e-9 && rounded.abs() <= 1_000.0 && zero_only_if_exact)
             .then(|| Exponent::new(rounded as i32, denominator))
     })
 }

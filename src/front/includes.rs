@@ -15,6 +15,9 @@ pub struct FileIncludeLoader {
     allow_outside: bool,
     /// Folder of each loaded sheet, by label, to resolve its own includes.
     folders: HashMap<String, PathBuf>,
+    /// Every file read (included sheets and data files), canonical: the inputs of the run,
+    /// which no output may overwrite.
+    files_read: Vec<PathBuf>,
 }
 
 impl FileIncludeLoader {
@@ -42,7 +45,13 @@ impl FileIncludeLoader {
             main_key,
             allow_outside,
             folders,
+            files_read: Vec::new(),
         }
+    }
+
+    /// The files read so far (included sheets and data files), canonical.
+    pub fn files_read(&self) -> &[PathBuf] {
+        &self.files_read
     }
 }
 
@@ -73,6 +82,9 @@ impl IncludeLoader for FileIncludeLoader {
         }
         let bytes =
             std::fs::read(&canonical).map_err(|error| format!("cannot read `{path}`: {error}"))?;
+        if !self.files_read.contains(&canonical) {
+            self.files_read.push(canonical.clone());
+        }
         let text = String::from_utf8(bytes)
             .map_err(|_| format!("cannot read `{path}`: it is not UTF-8 text"))?;
         let label = joined.to_string_lossy().replace("/./", "/");

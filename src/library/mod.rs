@@ -23,6 +23,7 @@ pub mod flow;
 pub mod formulation;
 pub mod heat;
 pub mod laboratory;
+pub mod layered;
 pub mod liners;
 pub mod math;
 pub mod relation;
@@ -164,7 +165,10 @@ fn all_relations() -> impl Iterator<Item = &'static relation::Relation> {
 
 /// Every built-in that is not a relation: mathematics and functions of whole columns.
 fn all_builtins() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
-    math::FUNCTIONS.iter().chain(columns::FUNCTIONS.iter())
+    math::FUNCTIONS
+        .iter()
+        .chain(columns::FUNCTIONS.iter())
+        .chain(layered::FUNCTIONS.iter())
 }
 
 /// The standard library handed to the evaluator.

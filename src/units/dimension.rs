@@ -177,7 +177,8 @@ impl Dimension {
 fn checked(exponent: Option<Exponent>) -> Result<Exponent, ExponentOverflow> {
     match exponent {
         Some(value)
-            if value.numer().abs() <= EXPONENT_LIMIT && *value.denom() <= EXPONENT_LIMIT =>
+            if value.numer().unsigned_abs() <= EXPONENT_LIMIT.unsigned_abs()
+                && value.denom().unsigned_abs() <= EXPONENT_LIMIT.unsigned_abs() =>
         {
             Ok(value)
         }

@@ -1,3 +1,6 @@
+//! Over 800 lines because of the published coefficient tables and their check tables; the
+//! equations themselves are short.
+//!
 //! Liquid water: IAPWS-IF97 regions 1 and 4 for the thermodynamic state, IAPWS 2008 viscosity and
 //! IAPWS 2011 thermal conductivity for transport.
 //!
