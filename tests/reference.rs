@@ -299,5 +299,10 @@ fn field_units_of_heat_and_water_conductivity() {
     ] {
         assert_close(si_value(expression), expected, 1e-15, expression);
     }
-    assert_close(si_value("1 HFU"), si_value("1 ucal/(cm^2*s)"), 1e-15, "HFU by definition");
+    assert_close(
+        si_value("1 HFU"),
+        si_value("1 ucal/(cm^2*s)"),
+        1e-15,
+        "HFU by definition",
+    );
 }

@@ -313,6 +313,51 @@ const SAMPLE_CALLS: &[(&str, &[&str])] = &[
     ("water_specific_heat", &["20 degC"]),
     ("water_thermal_conductivity", &["20 degC"]),
     ("water_viscosity", &["20 degC"]),
+    (
+        "archie_saturation",
+        &["40 ohm*m", "0.05 ohm*m", "0.2", "1", "2", "2"],
+    ),
+    ("arps_resistivity", &["0.5 ohm*m", "24 degC", "80 degC"]),
+    ("batzle_wang_brine_density", &["60 degC", "20 MPa", "0.1"]),
+    ("batzle_wang_brine_viscosity", &["60 degC", "0.1"]),
+    ("brine_specific_heat", &["60 degC", "20 MPa", "0.1"]),
+    ("conductivity_at_25c", &["850 uS/cm", "12 degC", "0.02 1/K"]),
+    ("dissolved_solids", &["900 uS/cm", "0.65 (mg/L)/(uS/cm)"]),
+    ("geothermal_gradient", &["65 mW/m^2", "2.5 W/(m*K)"]),
+    (
+        "half_space_temperature",
+        &["10 degC", "40 degC", "2 m", "30 d", "1e-6 m^2/s"],
+    ),
+    (
+        "salt_brine_density",
+        &["60 degC", "5 MPa", "0.05", "0.01", "0.02"],
+    ),
+    (
+        "salt_brine_specific_heat",
+        &["60 degC", "5 MPa", "0.05", "0.01", "0.02"],
+    ),
+    ("salt_brine_viscosity", &["60 degC", "0.05", "0.01", "0.02"]),
+    ("seasonal_amplitude", &["10 K", "3 m", "8e-7 m^2/s", "1 yr"]),
+    ("seasonal_lag", &["3 m", "8e-7 m^2/s", "1 yr"]),
+    ("thermal_diffusivity", &["2.5 W/(m*K)", "2.5 MJ/(m^3*K)"]),
+    (
+        "thermal_peclet_number",
+        &["0.1 m/yr", "4.18 MJ/(m^3*K)", "100 m", "2.5 W/(m*K)"],
+    ),
+    (
+        "vertical_flow_temperature",
+        &["10 degC", "16 degC", "40 m", "100 m", "1.3"],
+    ),
+    (
+        "volumetric_heat_capacity",
+        &[
+            "0.3",
+            "2650 kg/m^3",
+            "0.84 kJ/(kg*K)",
+            "1000 kg/m^3",
+            "4.19 kJ/(kg*K)",
+        ],
+    ),
 ];
 
 /// `40 mD` as a two-row column, `{40, 40} mD`.
