@@ -1,13 +1,15 @@
 //! Diffusion of solutes: Fick's first law in free solution and in a saturated porous medium,
-//! and the pore diffusion coefficient from a tortuosity factor or the formation factor.
+//! the pore diffusion coefficient from a tortuosity factor or the formation factor, and Fick's
+//! second law in a half-space after a step change at its surface (the erfc solution) with the
+//! depth a given relative concentration reaches in a given time.
 //!
 //! A molar concentration gradient (mol/m⁴) gives a molar flux, a mass-concentration gradient
 //! (kg/m⁴, e.g. `mg/(L*m)`) a mass flux: each relation has one form for each. The flux is
 //! positive along x, so it is negative where the concentration rises.
 
 use super::dimensions::{
-    AREA_PER_TIME, DIMENSIONLESS, MASS_CONCENTRATION_GRADIENT, MASS_FLUX,
-    MOLAR_CONCENTRATION_GRADIENT, MOLAR_FLUX,
+    AREA_PER_TIME, DIMENSIONLESS, LENGTH, MASS_CONCENTRATION_GRADIENT, MASS_FLUX,
+    MOLAR_CONCENTRATION_GRADIENT, MOLAR_FLUX, TIME,
 };
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
 use crate::eval::function::CallError;
@@ -52,12 +54,40 @@ pub static POROUS_FICK: Formulation = Formulation {
 concentration, J per unit of total cross-section",
     ranges: &[],
 };
+/// Fick's second law in a half-space after a step change of concentration at its surface.
+pub static HALF_SPACE_DIFFUSION: Formulation = Formulation {
+    id: "half-space-diffusion-erfc",
+    title: "diffusion into a half-space after a step change at its surface, \
+(c - c_i)/(c_s - c_i) = erfc(x / (2 sqrt(D t / R)))",
+    citation: "Crank, J., 1975, The Mathematics of Diffusion, 2nd ed., Clarendon Press, Oxford, \
+chapter 2 (semi-infinite medium, constant surface concentration); apparent diffusion D/R for \
+a linearly sorbing solute as in Shackelford, C. D. and Daniel, D. E., 1991, Diffusion in \
+saturated soil. I: Background, Journal of Geotechnical Engineering 117(3), 467-484",
+    validity: "one-dimensional diffusion without advection into a homogeneous medium of \
+uniform initial concentration c_i, much thicker than the depth reached; surface concentration \
+c_s held from t = 0; constant D; linear equilibrium sorption (R)",
+    ranges: &[],
+};
 const FREE_DIFFUSION: Parameter = Parameter::new(
     "D0",
     "a free-solution diffusion coefficient",
     AREA_PER_TIME,
     Domain::NonNegative,
 );
+const DEPTH_TIME: Parameter = Parameter::new(
+    "t",
+    "the time since the step change",
+    TIME,
+    Domain::Positive,
+);
+const HALF_SPACE_D: Parameter = Parameter::new(
+    "D",
+    "a diffusion coefficient (De in a porous medium)",
+    AREA_PER_TIME,
+    Domain::Positive,
+);
+const SORPTION_RETARDATION: Parameter =
+    Parameter::new("R", "a retardation factor", DIMENSIONLESS, Domain::Positive).or(1.0);
 const POROSITY: Parameter = Parameter::new("n", "a porosity", DIMENSIONLESS, Domain::Fraction);
 const MOLAR_GRADIENT: Parameter = Parameter::new(
     "dc_dx",
@@ -173,7 +203,84 @@ concentration; Shackelford & Daniel 1991",
             },
         ],
     },
+    Relation {
+        name: "half_space_diffusion",
+        summary: "relative concentration (c - c_i)/(c_s - c_i) = erfc(x / (2 sqrt(D t / R))) at \
+depth x, time t after the surface concentration stepped to c_s (dimensionless); D diffusion \
+coefficient (De in a porous medium), R retardation factor (1 when left out); Crank 1975",
+        forms: &[Form {
+            parameters: &[
+                Parameter::new(
+                    "x",
+                    "the depth below the surface",
+                    LENGTH,
+                    Domain::NonNegative,
+                ),
+                DEPTH_TIME,
+                HALF_SPACE_D,
+                SORPTION_RETARDATION,
+            ],
+            result: DIMENSIONLESS,
+            unit: "1",
+            formulations: &[&HALF_SPACE_DIFFUSION],
+            example: "half_space_diffusion(0.5 m, 30 yr, 5e-10 m^2/s)",
+            body: half_space_diffusion,
+        }],
+    },
+    Relation {
+        name: "diffusion_front_depth",
+        summary: "depth x = 2 sqrt(D t / R) erfcinv(c_ratio) (m) at which the relative \
+concentration (c - c_i)/(c_s - c_i) has reached c_ratio after time t; the inverse of \
+half_space_diffusion in x; Crank 1975",
+        forms: &[Form {
+            parameters: &[
+                DEPTH_TIME,
+                HALF_SPACE_D,
+                Parameter::new(
+                    "c_ratio",
+                    "a relative concentration marking the front",
+                    DIMENSIONLESS,
+                    Domain::OpenFraction,
+                ),
+                SORPTION_RETARDATION,
+            ],
+            result: LENGTH,
+            unit: "m",
+            formulations: &[&HALF_SPACE_DIFFUSION],
+            example: "diffusion_front_depth(30 yr, 5e-10 m^2/s, 0.1)",
+            body: diffusion_front_depth,
+        }],
+    },
 ];
+
+/// Fick's second law with c(0, t) = c_s, c(x, 0) = c_i: erfc of x over 2√(D t / R).
+fn half_space_diffusion(values: &[f64]) -> Result<f64, CallError> {
+    let [depth, time, diffusion, retardation] = arguments(values);
+    Ok(libm::erfc(
+        depth / (2.0 * (diffusion * time / retardation).sqrt()),
+    ))
+}
+
+fn diffusion_front_depth(values: &[f64]) -> Result<f64, CallError> {
+    let [time, diffusion, ratio, retardation] = arguments(values);
+    Ok(2.0 * (diffusion * time / retardation).sqrt() * inverse_erfc(ratio))
+}
+
+/// y with erfc(y) = `ratio`, for `ratio` in (0, 1): y in (0, 27), where erfc falls
+/// monotonically from 1 to below the smallest normal double. Bisection to the last bit, since
+/// erfc is monotone and the bracket is known; about 60 halvings.
+fn inverse_erfc(ratio: f64) -> f64 {
+    let (mut low, mut high) = (0.0_f64, 27.3_f64);
+    while high - low > f64::EPSILON * high {
+        let middle = 0.5 * (low + high);
+        if libm::erfc(middle) > ratio {
+            low = middle;
+        } else {
+            high = middle;
+        }
+    }
+    0.5 * (low + high)
+}
 
 fn fick_flux(values: &[f64]) -> Result<f64, CallError> {
     let [diffusion, gradient] = arguments(values);
@@ -266,5 +373,94 @@ mod tests {
             Expected::Value(-2.03e-9 / 12.0 * 10.0, MOLAR_FLUX, 1e-12),
             "-(D0/F) dc/dx",
         );
+    }
+
+    #[test]
+    fn half_space_diffusion_matches_the_erfc_table() {
+        // Arguments chosen so that x / (2 sqrt(D t)) is exactly 0.5 and 1: erf(0.5) =
+        // 0.5204998778 and erf(1) = 0.8427007929 (Abramowitz & Stegun 1964, table 7.1).
+        let (diffusion, time) = (1e-9_f64, 2.5e8_f64);
+        let scale = 2.0 * (diffusion * time).sqrt(); // 1 m
+        for (argument, erf) in [(0.5, 0.520_499_877_8), (1.0, 0.842_700_792_9)] {
+            check(
+                "half_space_diffusion",
+                &[
+                    si(argument * scale, LENGTH),
+                    si(time, TIME),
+                    si(diffusion, AREA_PER_TIME),
+                ],
+                Expected::Value(1.0 - erf, DIMENSIONLESS, 1e-9),
+                "Abramowitz & Stegun 1964, table 7.1",
+            );
+        }
+        // A retardation factor R slows the front as D/R: R = 4 halves the argument.
+        check(
+            "half_space_diffusion",
+            &[
+                si(0.5 * scale, LENGTH),
+                si(time, TIME),
+                si(4.0 * diffusion, AREA_PER_TIME),
+                number(4.0),
+            ],
+            Expected::Value(1.0 - 0.520_499_877_8, DIMENSIONLESS, 1e-9),
+            "D/R, Abramowitz & Stegun 1964, table 7.1",
+        );
+        // An independent erfc: the Maclaurin series of erf (A&S 7.1.5) at x = 0.8.
+        let x: f64 = 0.8;
+        let (mut term, mut erf) = (x, 0.0);
+        for n in 0..40 {
+            erf += term / (2 * n + 1) as f64;
+            term *= -x * x / (n + 1) as f64;
+        }
+        erf *= 2.0 / std::f64::consts::PI.sqrt();
+        check(
+            "half_space_diffusion",
+            &[
+                si(0.8 * scale, LENGTH),
+                si(time, TIME),
+                si(diffusion, AREA_PER_TIME),
+            ],
+            Expected::Value(1.0 - erf, DIMENSIONLESS, 1e-13),
+            "A&S 7.1.5 series",
+        );
+    }
+
+    #[test]
+    fn the_front_depth_inverts_the_erfc_solution() {
+        // erfc(1) = 1 - 0.8427007929 (A&S table 7.1): that front sits at x = 2 sqrt(D t).
+        let (diffusion, time) = (5e-10, 30.0 * 365.25 * 86400.0);
+        check(
+            "diffusion_front_depth",
+            &[
+                si(time, TIME),
+                si(diffusion, AREA_PER_TIME),
+                number(1.0 - 0.842_700_792_9),
+            ],
+            Expected::Value(2.0 * (diffusion * time).sqrt(), LENGTH, 1e-9),
+            "Abramowitz & Stegun 1964, table 7.1",
+        );
+        for ratio in [1e-12, 1e-3, 0.1, 0.5, 0.9, 0.999_999] {
+            let (depth, _) = call(
+                "diffusion_front_depth",
+                &[
+                    si(time, TIME),
+                    si(diffusion, AREA_PER_TIME),
+                    number(ratio),
+                    number(2.5),
+                ],
+            );
+            let depth = depth.expect("a depth");
+            check(
+                "half_space_diffusion",
+                &[
+                    depth,
+                    si(time, TIME),
+                    si(diffusion, AREA_PER_TIME),
+                    number(2.5),
+                ],
+                Expected::Value(ratio, DIMENSIONLESS, 1e-12),
+                "round trip",
+            );
+        }
     }
 }

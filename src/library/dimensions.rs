@@ -38,3 +38,11 @@ pub const VOLUMETRIC_HEAT_CAPACITY: Dimension = Dimension::from_integers([-1, 1,
 pub const PER_TEMPERATURE: Dimension = Dimension::from_integers([0, 0, 0, 0, -1, 0, 0]);
 /// Dissolved solids per conductivity, (mg/L)/(uS/cm) in the trade.
 pub const DENSITY_PER_CONDUCTIVITY: Dimension = Dimension::from_integers([0, 2, -3, -2, 0, 0, 0]);
+/// A rate constant (1/s): first-order decay.
+pub const PER_TIME: Dimension = Dimension::from_integers([0, 0, -1, 0, 0, 0, 0]);
+/// A molar concentration (mol/m³); a mass concentration has the dimension of a density.
+pub const MOLAR_CONCENTRATION: Dimension = Dimension::from_integers([-3, 0, 0, 0, 0, 1, 0]);
+/// Volume per mass (m³/kg): a distribution coefficient Kd, usually written in L/kg or mL/g.
+pub const VOLUME_PER_MASS: Dimension = Dimension::from_integers([3, -1, 0, 0, 0, 0, 0]);
+/// The inverse of a pressure (1/Pa): a coefficient of volume compressibility m_v.
+pub const COMPRESSIBILITY: Dimension = Dimension::from_integers([1, -1, 2, 0, 0, 0, 0]);

@@ -1,5 +1,6 @@
 //! Built-in relations, functions and constants, in families by physics: flow (Darcy),
-//! diffusion, heat, electrical, laboratory tests, liners, wells, water, brine, air; plus
+//! diffusion, solute transport, heat, electrical, laboratory tests, liners, consolidation,
+//! wells, water, brine, air; plus
 //! mathematics, functions of whole columns, and constants.
 //!
 //! A relation is one declarative entry (`relation::Relation`): its parameters with dimensions
@@ -13,6 +14,7 @@
 pub mod air;
 pub mod brine;
 pub mod columns;
+pub mod consolidation;
 pub mod constants;
 pub mod diffusion;
 pub mod dimensions;
@@ -28,6 +30,7 @@ pub mod math;
 pub mod relation;
 #[cfg(test)]
 mod testing;
+pub mod transport;
 pub mod water;
 pub mod wells;
 
@@ -149,10 +152,12 @@ fn all_relations() -> impl Iterator<Item = &'static relation::Relation> {
     flow::RELATIONS
         .iter()
         .chain(diffusion::RELATIONS)
+        .chain(transport::RELATIONS)
         .chain(heat::RELATIONS)
         .chain(electrical::RELATIONS)
         .chain(laboratory::RELATIONS)
         .chain(liners::RELATIONS)
+        .chain(consolidation::RELATIONS)
         .chain(wells::RELATIONS)
         .chain(water::RELATIONS)
         .chain(brine::RELATIONS)

@@ -549,7 +549,8 @@ mod tests {
                             .iter()
                             .position(|parameter| parameter.name == range.parameter)
                             .expect("a range names a parameter");
-                        for value in [range.low * (1.0 - 1e-9), range.high * (1.0 + 1e-9)] {
+                        let step = |bound: f64| (bound.abs() * 1e-9).max(f64::MIN_POSITIVE);
+                        for value in [range.low - step(range.low), range.high + step(range.high)] {
                             let mut arguments = example.clone();
                             arguments[index].value = value;
                             let mut provenance = Provenance::default();
