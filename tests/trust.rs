@@ -253,7 +253,7 @@ const OUT_OF_DOMAIN: &[(&str, &str, &str)] = &[
     (
         "brine_density",
         "brine_density(20 degC, 1 bar, -0.1)",
-        "must not be negative",
+        "not a fraction of 0 or more",
     ),
     (
         "brine_viscosity",
@@ -491,7 +491,7 @@ const OUT_OF_DOMAIN: &[(&str, &str, &str)] = &[
     (
         "salt_brine_density",
         "salt_brine_density(20 degC, 1 bar, 0.1, -0.01, 0)",
-        "must not be negative",
+        "KCl mass fraction",
     ),
     (
         "salt_brine_specific_heat",

@@ -360,7 +360,7 @@ fn core_sweep_pins() {
 /// pasted: rho 1040.4525595928078, rho_w 971.7977826915796 kg/m^3; mu 4.428594083984076e-4,
 /// mu_w 3.5507263740548647e-4 Pa s; cp 3766.865444060635, cp_w 4195.521841492736 J/(kg K)),
 /// put on IAPWS water from the `seuif97` crate as the model's structure says (1/rho = w_w/rho_w
-/// + sum w_i/rho_i; mu/mu_w; cp = w_w cp_w + sum w_i cp_i). Then Thiem's injectivity, the heat
+/// plus sum w_i/rho_i; mu/mu_w; cp = w_w cp_w + sum w_i cp_i). Then Thiem's injectivity, the heat
 /// carried, and Freeze & Cherry's harmonic layered mean with 1 HFU = 41.84 mW/m^2.
 #[test]
 fn geothermal_doublet_pins() {

@@ -386,8 +386,10 @@ fn solute_heat_capacity(a: &[f64; 6], t_c: f64, salt_total: f64) -> f64 {
 // The sheet relations
 // ---------------------------------------------------------------------------------------------
 
+/// A salt fraction: its bounds are the formulation's (0 to the fitted limit), so a refusal
+/// names the range.
 const fn fraction(name: &'static str, meaning: &'static str) -> Parameter {
-    Parameter::new(name, meaning, DIMENSIONLESS, Domain::NonNegative)
+    Parameter::new(name, meaning, DIMENSIONLESS, Domain::Any)
 }
 const SALINITY: Parameter = fraction("S", "the NaCl mass fraction (0.1, 10 % or 100000 ppm)");
 const W_NACL: Parameter = fraction("w_NaCl", "the NaCl mass fraction");
