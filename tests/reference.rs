@@ -56,6 +56,8 @@ const NIST_SP_811: &[(&str, f64, bool)] = &[
     ("1 wk", 6.048e5, true),
     ("1 h", 3.6e3, true),
     ("1 eV", 1.602176634e-19, true),
+    ("1 mho", 1.0, true),
+    ("1 umho/cm", 1e-4, true),
 ];
 
 #[test]
@@ -277,4 +279,30 @@ fn unit_factors_agree_with_uom() {
     for (expression, reference, tolerance) in cases {
         assert_close(si_value(expression), reference, tolerance, expression);
     }
+}
+
+/// Units of heat flow and water conductivity in the field's own spellings. Sources: the heat
+/// flow unit is 1 ucal/(cm^2 s) with the thermochemical calorie of NIST SP 811 Appendix B.8
+/// (4.184 J exactly), 41.84 mW/m^2 (common practice); the rest are SI prefixes (SI Brochure
+/// 9th ed., Table 7) on SI units.
+#[test]
+fn field_units_of_heat_and_water_conductivity() {
+    for (expression, expected) in [
+        ("1 HFU", 41.84e-3),
+        ("1 mW/m^2", 1e-3),
+        ("1 uS/cm", 1e-4),
+        ("1 mS/m", 1e-3),
+        ("1 mS/cm", 0.1),
+        ("1 ohm*m", 1.0),
+        ("1 W/(m*K)", 1.0),
+        ("1 cal/(cm*s*K)", 418.4),
+    ] {
+        assert_close(si_value(expression), expected, 1e-15, expression);
+    }
+    assert_close(
+        si_value("1 HFU"),
+        si_value("1 ucal/(cm^2*s)"),
+        1e-15,
+        "HFU by definition",
+    );
 }

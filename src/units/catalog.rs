@@ -526,6 +526,24 @@ pub const UNITS: &[UnitDefinition] = &[
         SI_BROCHURE_DERIVED,
         "",
     ),
+    unit(
+        &["mho"],
+        "mho",
+        CONDUCTANCE,
+        "1",
+        true,
+        NIST_811,
+        "the siemens under its old name; umho/cm is uS/cm",
+    ),
+    unit(
+        &["HFU"],
+        "heat flow unit",
+        [0, 1, -3, 0, 0, 0, 0],
+        "4.184/1000000/0.0001",
+        false,
+        COMMON_PRACTICE,
+        "1 ucal/(cm^2*s) with the thermochemical calorie (NIST SP 811 B.8): 41.84 mW/m^2",
+    ),
     // Ratios and angles
     unit(
         &["%"],
