@@ -16,6 +16,7 @@ pub mod brine;
 pub mod columns;
 pub mod consolidation;
 pub mod constants;
+pub mod dewatering;
 pub mod diffusion;
 pub mod dimensions;
 pub mod electrical;
@@ -25,9 +26,11 @@ pub mod formulation;
 pub mod heat;
 pub mod laboratory;
 pub mod layered;
+pub mod leaky;
 pub mod liners;
 pub mod math;
 pub mod relation;
+pub mod slug_tests;
 #[cfg(test)]
 mod testing;
 pub mod transport;
@@ -159,6 +162,9 @@ fn all_relations() -> impl Iterator<Item = &'static relation::Relation> {
         .chain(liners::RELATIONS)
         .chain(consolidation::RELATIONS)
         .chain(wells::RELATIONS)
+        .chain(dewatering::RELATIONS)
+        .chain(leaky::RELATIONS)
+        .chain(slug_tests::RELATIONS)
         .chain(water::RELATIONS)
         .chain(brine::RELATIONS)
         .chain(electrolyte::RELATIONS)
@@ -171,6 +177,7 @@ fn all_builtins() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
         .iter()
         .chain(columns::FUNCTIONS.iter())
         .chain(layered::FUNCTIONS.iter())
+        .chain(dewatering::FUNCTIONS.iter())
 }
 
 /// The standard library handed to the evaluator.

@@ -162,7 +162,68 @@ u > 0.05 (common practice cites 0.01 to 0.05): use theis_drawdown there; Cooper 
             body: cooper_jacob_drawdown,
         }],
     },
+    Relation {
+        name: "theis_recovery_drawdown",
+        summary: "residual drawdown s' = Q / (4 pi T) (W(u) - W(u')) (m) at time t after \
+pumping began, pumping having stopped at tp < t; u = r^2 S / (4 T t), u' = r^2 S / (4 T (t - tp)); \
+Theis 1935",
+        forms: &[Form {
+            parameters: &[
+                RATE,
+                TRANSMISSIVITY,
+                STORATIVITY,
+                DISTANCE,
+                TIME_PUMPED,
+                Parameter::new("tp", "the time pumping stopped", TIME, Domain::Positive),
+            ],
+            result: LENGTH,
+            unit: "m",
+            formulations: &[&THEIS_RECOVERY, &WELL_FUNCTION],
+            example: "theis_recovery_drawdown(15 L/s, 2e-3 m^2/s, 1e-4, 30 m, 3 d, 2 d)",
+            body: theis_recovery_drawdown,
+        }],
+    },
+    Relation {
+        name: "specific_capacity",
+        summary: "specific capacity Q/s = 4 pi T / W(rw^2 S / (4 T t)) (m^2/s) of a well of \
+radius rw pumped for t (well losses left out); solve it for T from a measured Q/s; Theis 1935",
+        forms: &[Form {
+            parameters: &[
+                TRANSMISSIVITY,
+                STORATIVITY,
+                Parameter::new("rw", "the well radius", LENGTH, Domain::Positive),
+                TIME_PUMPED,
+            ],
+            result: AREA_PER_TIME,
+            unit: "m^2/s",
+            formulations: &[&SPECIFIC_CAPACITY, &WELL_FUNCTION],
+            example: "specific_capacity(2e-3 m^2/s, 1e-4, 0.15 m, 1 d)",
+            body: specific_capacity,
+        }],
+    },
 ];
+
+/// Theis's recovery: the pumping well's drawdown plus an injection well from t_p on.
+pub static THEIS_RECOVERY: Formulation = Formulation {
+    id: "theis-recovery",
+    title: "Theis recovery, s' = Q / (4 pi T) (W(u) - W(u')), u' = r^2 S / (4 T (t - tp))",
+    citation: THEIS_1935,
+    validity: "Theis conditions; pumping at constant Q from 0 to tp, then stopped; the same \
+storage coefficient in drawdown and recovery; t > tp",
+    ranges: &[],
+};
+
+/// Specific capacity from the Theis solution at the well face.
+pub static SPECIFIC_CAPACITY: Formulation = Formulation {
+    id: "specific-capacity-theis",
+    title: "specific capacity from Theis, Q/s = 4 pi T / W(rw^2 S / (4 T t))",
+    citation: "Theis, C. V., 1963, Estimating the transmissivity of a water-table aquifer from \
+the specific capacity of a well, U.S. Geological Survey Water-Supply Paper 1536-I, 332-336 \
+(from memory); the Theis solution at the well radius",
+    validity: "Theis conditions at the well face: a fully penetrating, 100 % efficient well \
+(no well loss, no skin), pumped at constant rate for t",
+    ranges: &[],
+};
 
 /// Euler–Mascheroni constant γ.
 const EULER_GAMMA: f64 = 0.577_215_664_901_532_9;
@@ -300,6 +361,29 @@ here, or use `theis_drawdown`",
         });
     }
     Ok(scale * (-EULER_GAMMA - u.ln()))
+}
+
+/// Residual drawdown by Theis (1935): the well's drawdown minus that of an image injection
+/// from tp on.
+fn theis_recovery_drawdown(values: &[f64]) -> Result<f64, CallError> {
+    let [discharge, transmissivity, storativity, radius, time, stopped] = arguments(values);
+    if time <= stopped {
+        return Err(CallError::Domain {
+            argument: Some(4),
+            message: "`t` must be after `tp`: recovery is measured after pumping stopped"
+                .to_string(),
+        });
+    }
+    let factor = radius * radius * storativity / (4.0 * transmissivity);
+    let scale = discharge / (4.0 * PI * transmissivity);
+    Ok(scale * (well_function(factor / time) - well_function(factor / (time - stopped))))
+}
+
+/// Q/s = 4π T / W(rw² S / (4 T t)).
+fn specific_capacity(values: &[f64]) -> Result<f64, CallError> {
+    let [transmissivity, storativity, radius, time] = arguments(values);
+    let u = radius * radius * storativity / (4.0 * transmissivity * time);
+    Ok(4.0 * PI * transmissivity / well_function(u))
 }
 
 /// Rounds a positive bound up to three significant figures, so the printed time still meets it.
@@ -747,5 +831,72 @@ mod tests {
         let up = call("theis_drawdown", &injection).0.expect("valid");
         assert_eq!(down.value, -up.value);
         assert!(down.value > 0.0);
+    }
+}
+
+#[cfg(test)]
+mod recovery_tests {
+    //! Recovery and specific capacity against the Theis solution by hand and the published
+    //! straight-line forms.
+
+    use super::*;
+    use crate::library::testing::{check, number, si, Expected};
+
+    #[test]
+    fn recovery_is_theis_minus_an_image_injection() {
+        // Q = 4 pi m^3/s and T = 1 m^2/s make s' = W(u) - W(u'); r = 2 m, S = 1e-3:
+        // u = 1e-3 / t. At t = 10 s after stopping at 5 s: W(1e-4) - W(2e-4) by the Theis
+        // table (8.6332 - 7.9402 = 0.6930, Huisman's table from memory) and ln 2 = 0.6931 by
+        // the Theis recovery straight line (Theis 1935).
+        let arguments = [
+            si(4.0 * PI, VOLUME_FLOW_RATE),
+            si(1.0, AREA_PER_TIME),
+            number(1e-3),
+            si(2.0, LENGTH),
+            si(10.0, TIME),
+            si(5.0, TIME),
+        ];
+        let exact = well_function(1e-4) - well_function(2e-4);
+        check(
+            "theis_recovery_drawdown",
+            &arguments,
+            Expected::Value(exact, LENGTH, 1e-14),
+            "closed form",
+        );
+        check(
+            "theis_recovery_drawdown",
+            &arguments,
+            Expected::Value(0.6930, LENGTH, 2e-4),
+            "Theis table difference",
+        );
+        assert!((exact - 2_f64.ln()).abs() < 2e-4, "straight line");
+        let mut early = arguments;
+        early[4] = si(4.0, TIME);
+        check(
+            "theis_recovery_drawdown",
+            &early,
+            Expected::Domain(4),
+            "before pumping stopped",
+        );
+    }
+
+    #[test]
+    fn specific_capacity_follows_theis_at_the_well() {
+        // T = 2e-3 m^2/s, S = 1e-4, rw = 0.15 m, t = 1 d: u = 0.0225 x 1e-4 / (8e-3 x 86400)
+        // = 3.2552e-9; Q/s = 4 pi T / W(u); Cooper-Jacob's form 4 pi T / (-0.5772 - ln u) is
+        // within 1e-8 of it at such small u.
+        let u: f64 = 0.15 * 0.15 * 1e-4 / (4.0 * 2e-3 * 86_400.0);
+        let cooper_jacob = 4.0 * PI * 2e-3 / (-EULER_GAMMA - u.ln());
+        check(
+            "specific_capacity",
+            &[
+                si(2e-3, AREA_PER_TIME),
+                number(1e-4),
+                si(0.15, LENGTH),
+                si(86_400.0, TIME),
+            ],
+            Expected::Value(cooper_jacob, AREA_PER_TIME, 1e-8),
+            "Cooper-Jacob form at small u",
+        );
     }
 }
