@@ -237,6 +237,99 @@ const COLUMN_UTILITIES: &[&str] = &[
 /// form lists each number twice. Invented inputs, inside every published range.
 const SAMPLE_CALLS: &[(&str, &[&str])] = &[
     ("air_density", &["20 degC", "101.325 kPa"]),
+    (
+        "bouwer_rice_conductivity",
+        &["5 cm", "10 cm", "3 m", "5 m", "20 m", "120 s", "0.3"],
+    ),
+    (
+        "bouwer_rice_head_ratio",
+        &["1e-5 m/s", "5 cm", "10 cm", "3 m", "5 m", "20 m", "120 s"],
+    ),
+    (
+        "dupuit_forchheimer_discharge",
+        &["1e-4 m/s", "12 m", "8 m", "150 m"],
+    ),
+    (
+        "dupuit_thiem_discharge",
+        &["2e-4 m/s", "20 m", "15 m", "0.3 m", "250 m"],
+    ),
+    (
+        "dupuit_thiem_head",
+        &["20 L/s", "2e-4 m/s", "20 m", "0.3 m", "250 m"],
+    ),
+    ("equivalent_radius_area", &["60 m", "25 m"]),
+    ("equivalent_radius_perimeter", &["60 m", "25 m"]),
+    (
+        "hantush_drawdown",
+        &["15 L/s", "2e-3 m^2/s", "1e-4", "30 m", "1 d", "600 m"],
+    ),
+    ("hantush_well_function", &["0.01", "0.1"]),
+    (
+        "hvorslev_conductivity",
+        &["2.5 cm", "5 cm", "1.5 m", "300 s"],
+    ),
+    (
+        "hvorslev_head_ratio",
+        &["1e-6 m/s", "2.5 cm", "5 cm", "1.5 m", "300 s"],
+    ),
+    ("sichardt_radius", &["4 m", "2e-4 m/s"]),
+    (
+        "specific_capacity",
+        &["2e-3 m^2/s", "1e-4", "0.15 m", "1 d"],
+    ),
+    (
+        "theis_recovery_drawdown",
+        &["15 L/s", "2e-3 m^2/s", "1e-4", "30 m", "3 d", "2 d"],
+    ),
+    (
+        "wells_theis_drawdown",
+        &[
+            "15 L/s",
+            "0 m",
+            "0 m",
+            "2e-3 m^2/s",
+            "1e-4",
+            "1 d",
+            "30 m",
+            "5 m",
+        ],
+    ),
+    (
+        "wells_theis_drawdown_barrier",
+        &[
+            "15 L/s",
+            "0 m",
+            "0 m",
+            "2e-3 m^2/s",
+            "1e-4",
+            "1 d",
+            "30 m",
+            "5 m",
+            "100 m",
+        ],
+    ),
+    (
+        "wells_theis_drawdown_recharge",
+        &[
+            "15 L/s",
+            "0 m",
+            "0 m",
+            "2e-3 m^2/s",
+            "1e-4",
+            "1 d",
+            "30 m",
+            "5 m",
+            "100 m",
+        ],
+    ),
+    (
+        "wells_thiem_drawdown",
+        &["15 L/s", "0 m", "0 m", "2e-3 m^2/s", "300 m", "30 m", "5 m"],
+    ),
+    (
+        "wells_thiem_drawdown_recharge",
+        &["15 L/s", "0 m", "0 m", "2e-3 m^2/s", "30 m", "5 m", "100 m"],
+    ),
     ("air_viscosity", &["20 degC"]),
     ("archie_formation_factor", &["0.25", "1", "2"]),
     ("archie_porosity", &["40 ohm*m", "2 ohm*m", "1", "2"]),
@@ -448,7 +541,16 @@ fn every_relation_declares_and_records_its_formulations() {
             .iter()
             .map(|argument| as_column(argument))
             .collect();
-        let mut sheets = vec![format!("x = {name}({})\n", columns.join(", "))];
+        // The several-well functions take the wells as columns but the rest as values.
+        let mut sheets = if name.starts_with("wells_") {
+            vec![format!(
+                "x = {name}({}, {})\n",
+                columns[..3].join(", "),
+                arguments[3..].join(", ")
+            )]
+        } else {
+            vec![format!("x = {name}({})\n", columns.join(", "))]
+        };
         if !name.starts_with("layered_") {
             sheets.push(format!("x = {name}({})\n", arguments.join(", ")));
         }
