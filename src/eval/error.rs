@@ -167,6 +167,10 @@ pub enum EvalErrorKind {
     Solve {
         message: String,
     },
+    /// A `fit` line that cannot run or cannot give an answer.
+    Fit {
+        message: String,
+    },
     /// A `--set` override that names no input line, or has the wrong dimension.
     Override {
         message: String,
@@ -400,6 +404,7 @@ impl fmt::Display for EvalErrorKind {
             EvalErrorKind::BadRange { message }
             | EvalErrorKind::DataFile { message }
             | EvalErrorKind::Solve { message }
+            | EvalErrorKind::Fit { message }
             | EvalErrorKind::Override { message }
             | EvalErrorKind::Plot { message } => formatter.write_str(message),
             EvalErrorKind::TooManyRows { rows, limit } => write!(

@@ -8,6 +8,7 @@ pub mod data;
 pub mod diagnostic;
 pub mod error;
 pub mod evaluate;
+mod fit;
 pub mod function;
 pub mod order;
 pub mod session;

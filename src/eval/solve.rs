@@ -218,13 +218,13 @@ impl Calculator<'_> {
 }
 
 /// Writes SI values in the unit a line shows in (`1.35e-6 m/s`, `21.5 degC`), for messages.
-struct In {
+pub(super) struct In {
     unit: Option<crate::units::Unit>,
     text: String,
 }
 
 impl In {
-    fn unit_of(shown: &ShownValue) -> In {
+    pub(super) fn unit_of(shown: &ShownValue) -> In {
         let unit = crate::syntax::parse_unit(&shown.unit)
             .ok()
             .and_then(|expression| super::evaluate::resolve_unit(&expression).ok());
@@ -234,7 +234,7 @@ impl In {
         }
     }
 
-    fn write(&self, si_value: f64) -> String {
+    pub(super) fn write(&self, si_value: f64) -> String {
         let number = match &self.unit {
             Some(unit) => unit.from_si(si_value),
             None => si_value,
@@ -360,20 +360,25 @@ fn describe(
 /// that depend on `unknown` and that `target` needs, in dependency order, ending with `target`.
 /// Empty if `target` does not depend on `unknown`.
 fn lines_between(scope: &dyn Scope, target: &str, unknown: &str) -> Vec<String> {
+    lines_between_any(scope, target, &[unknown])
+}
+
+/// The lines on the way from any of `unknowns` to `target`, in dependency order.
+pub(super) fn lines_between_any(scope: &dyn Scope, target: &str, unknowns: &[&str]) -> Vec<String> {
     let mut depends: HashMap<String, bool> = HashMap::default();
     let mut order = Vec::new();
-    visit(scope, target, unknown, &mut depends, &mut order);
+    visit(scope, target, unknowns, &mut depends, &mut order);
     order
 }
 
 fn visit(
     scope: &dyn Scope,
     name: &str,
-    unknown: &str,
+    unknowns: &[&str],
     depends: &mut HashMap<String, bool>,
     order: &mut Vec<String>,
 ) -> bool {
-    if name == unknown {
+    if unknowns.contains(&name) {
         return true;
     }
     if let Some(known) = depends.get(name) {
@@ -388,7 +393,7 @@ fn visit(
     collect_names(scope, &definition.expression, &[], &mut used, 0);
     let mut any = false;
     for used_name in used {
-        any |= visit(scope, &used_name, unknown, depends, order);
+        any |= visit(scope, &used_name, unknowns, depends, order);
     }
     if any {
         depends.insert(name.to_string(), true);

@@ -257,6 +257,7 @@ fn collect_systems(expression: &Expression, systems: &mut Systems) {
                 collect_systems(part, systems);
             }
         }
+        ExpressionKind::Fit(_) => {}
         ExpressionKind::Call { arguments, .. } => {
             for argument in arguments {
                 collect_systems(argument, systems);
@@ -523,6 +524,7 @@ fn for_each_subexpression<'a>(expression: &'a Expression, visit: &mut impl FnMut
                 for_each_subexpression(part, visit);
             }
         }
+        ExpressionKind::Fit(_) => {}
         ExpressionKind::Call { arguments, .. } => {
             for argument in arguments {
                 for_each_subexpression(argument, visit);

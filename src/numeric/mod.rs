@@ -12,10 +12,12 @@ use std::fmt;
 
 mod aggregates;
 mod interpolation;
+mod least_squares;
 mod roots;
 
 pub use aggregates::*;
 pub use interpolation::*;
+pub use least_squares::*;
 pub use roots::*;
 
 // ---------------------------------------------------------------------------

@@ -106,6 +106,17 @@ pub struct Solve {
     pub upper: Expression,
 }
 
+/// `fit model to observed varying a, b [log]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Fit {
+    pub model: Name,
+    pub observed: Name,
+    /// The inputs varied; the first is the line's value.
+    pub varying: Vec<Name>,
+    /// Least squares on the logarithms of the model and the observations.
+    pub logarithmic: bool,
+}
+
 /// A bare `expression [unit]`.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Display {
@@ -183,6 +194,7 @@ pub enum ExpressionKind {
         path_span: Span,
     },
     Solve(Box<Solve>),
+    Fit(Box<Fit>),
     Call {
         function: Name,
         arguments: Vec<Expression>,
@@ -235,6 +247,7 @@ impl Expression {
             ExpressionKind::Quantity { .. }
             | ExpressionKind::Name(_)
             | ExpressionKind::List { .. }
+            | ExpressionKind::Fit(_)
             | ExpressionKind::FileColumn { .. } => {}
             ExpressionKind::Range(range) => {
                 for part in range.parts() {
@@ -273,6 +286,13 @@ impl Expression {
             ExpressionKind::Range(range) => {
                 for part in range.parts() {
                     part.for_each_name(visit);
+                }
+            }
+            ExpressionKind::Fit(fit) => {
+                visit(&fit.model.text, fit.model.span);
+                visit(&fit.observed.text, fit.observed.span);
+                for name in &fit.varying {
+                    visit(&name.text, name.span);
                 }
             }
             ExpressionKind::Solve(solve) => {

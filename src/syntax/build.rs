@@ -307,7 +307,7 @@ impl Builder {
                 }
                 Rule::parameters => parameters = Some(self.parameters(inner)?),
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
-                Rule::ranged | Rule::file_column | Rule::solve => {
+                Rule::ranged | Rule::file_column | Rule::solve | Rule::fit => {
                     expression = Some(self.line_value(inner)?)
                 }
                 _ => {}
@@ -468,8 +468,10 @@ impl Builder {
         let mut expressions = Vec::new();
         let mut names = Vec::new();
         let mut path = None;
+        let mut logarithmic = false;
         for inner in pair.into_inner() {
             match inner.as_rule() {
+                Rule::log_keyword => logarithmic = true,
                 Rule::expression => expressions.push(self.expression(inner)?),
                 Rule::name => names.push(Name {
                     text: inner.as_str().to_string(),
@@ -505,6 +507,18 @@ impl Builder {
                     unknown,
                     lower,
                     upper,
+                }))
+            }
+            Rule::fit => {
+                let mut names = names.into_iter();
+                let (Some(model), Some(observed)) = (names.next(), names.next()) else {
+                    return Err(internal(span.start));
+                };
+                ExpressionKind::Fit(Box::new(Fit {
+                    model,
+                    observed,
+                    varying: names.collect(),
+                    logarithmic,
                 }))
             }
             _ => return Err(internal(span.start)),
@@ -959,6 +973,17 @@ mod tests {
             ExpressionKind::FileColumn { header, path, .. } => {
                 format!("column({},{path})", header.text)
             }
+            ExpressionKind::Fit(fit) => format!(
+                "fit({},{},{}{})",
+                fit.model.text,
+                fit.observed.text,
+                fit.varying
+                    .iter()
+                    .map(|name| name.text.as_str())
+                    .collect::<Vec<_>>()
+                    .join(","),
+                if fit.logarithmic { ",log" } else { "" }
+            ),
             ExpressionKind::Solve(solve) => format!(
                 "solve({}=={},{},{},{})",
                 solve.line.text,

@@ -98,6 +98,7 @@ impl<'l> Calculator<'l> {
                 path_span,
             } => self.file_column(header, path, *path_span, span)?,
             ExpressionKind::Solve(solve) => self.solve(solve, span, scope)?,
+            ExpressionKind::Fit(fit) => self.fit(fit, span, scope)?,
             ExpressionKind::Name(name) => self.name(name, span, scope)?,
             ExpressionKind::Call {
                 function,
@@ -266,6 +267,7 @@ impl<'l> Calculator<'l> {
         let like = match &expression.kind {
             ExpressionKind::Name(name) => Some(name),
             ExpressionKind::Solve(solve) => Some(&solve.unknown.text),
+            ExpressionKind::Fit(fit) => fit.varying.first().map(|name| &name.text),
             _ => None,
         };
         if let Some(name) = like {
