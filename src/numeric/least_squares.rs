@@ -148,6 +148,16 @@ pub fn fit_least_squares<E>(
     observed: &[f64],
     logarithmic: bool,
 ) -> Result<Fitted, FitError<E>> {
+    fit_with_patience(model, initial, observed, logarithmic, PATIENCE)
+}
+
+fn fit_with_patience<E>(
+    model: &mut Model<'_, E>,
+    initial: &[f64],
+    observed: &[f64],
+    logarithmic: bool,
+    patience: usize,
+) -> Result<Fitted, FitError<E>> {
     let (m, n) = (observed.len(), initial.len());
     if m <= n {
         return Err(FitError::TooFewObservations {
@@ -185,7 +195,7 @@ pub fn fit_least_squares<E>(
         residuals,
     };
     let (solver, report) = LevenbergMarquardt::new()
-        .with_patience(PATIENCE)
+        .with_patience(patience)
         .minimize(solver);
     let best = solver.current.clone();
     drop(solver);
@@ -280,7 +290,7 @@ pub fn covariance<E>(
 fn describe(reason: &TerminationReason) -> String {
     match reason {
         TerminationReason::LostPatience => {
-            format!("no convergence within {PATIENCE} evaluations of the model")
+            "the solver's limit of model evaluations was reached".to_string()
         }
         TerminationReason::Numerical(what) => {
             format!("the model gave a value that is not a number ({what})")
@@ -307,4 +317,153 @@ pub fn student_t_975(nu: f64) -> f64 {
         + (5.0 * z5 + 16.0 * z3 + 3.0 * z) / (96.0 * nu * nu)
         + (3.0 * z7 + 19.0 * z5 + 17.0 * z3 - 15.0 * z) / (384.0 * nu.powi(3))
         + (79.0 * z9 + 776.0 * z7 + 1482.0 * z5 - 1920.0 * z3 - 945.0 * z) / (92_160.0 * nu.powi(4))
+}
+
+#[cfg(test)]
+mod tests {
+    //! Synthetic records from known parameters, with and without noise; the standard errors
+    //! against a covariance computed here from the analytic Jacobian; refusals.
+
+    use super::*;
+
+    /// y = a exp(−b x), a Theis-like decay with two positive parameters.
+    fn decay(xs: &[f64]) -> impl FnMut(&[f64]) -> Result<Vec<f64>, ()> + '_ {
+        move |p: &[f64]| Ok(xs.iter().map(|x| p[0] * (-p[1] * x).exp()).collect())
+    }
+
+    fn xs() -> Vec<f64> {
+        (0..40).map(|i| 0.1 * f64::from(i)).collect()
+    }
+
+    /// A fixed pseudo-random noise in [−1, 1] (a linear congruential generator), so the test
+    /// is the same on every run.
+    fn noise(count: usize) -> Vec<f64> {
+        let mut state: u64 = 12_345;
+        (0..count)
+            .map(|_| {
+                state = state
+                    .wrapping_mul(6_364_136_223_846_793_005)
+                    .wrapping_add(1);
+                ((state >> 11) as f64 / (1u64 << 53) as f64) * 2.0 - 1.0
+            })
+            .collect()
+    }
+
+    #[test]
+    fn noise_free_records_give_the_parameters_back() {
+        let xs = xs();
+        let observed: Vec<f64> = xs.iter().map(|x| 2.5 * (-0.7 * x).exp()).collect();
+        for logarithmic in [false, true] {
+            let fitted = fit_least_squares(&mut decay(&xs), &[1.0, 0.2], &observed, logarithmic)
+                .expect("fits");
+            assert!(
+                ((fitted.parameters[0] - 2.5) / 2.5).abs() < 1e-8,
+                "{fitted:?}"
+            );
+            assert!(
+                ((fitted.parameters[1] - 0.7) / 0.7).abs() < 1e-8,
+                "{fitted:?}"
+            );
+            assert!(fitted.rms < 1e-8);
+            assert!(fitted.iterations > 1);
+        }
+    }
+
+    #[test]
+    fn standard_errors_agree_with_the_analytic_covariance() {
+        let xs = xs();
+        let observed: Vec<f64> = xs
+            .iter()
+            .zip(noise(xs.len()))
+            .map(|(x, e)| 2.5 * (-0.7 * x).exp() + 0.02 * e)
+            .collect();
+        let fitted =
+            fit_least_squares(&mut decay(&xs), &[1.0, 0.2], &observed, false).expect("fits");
+        let (a, b) = (fitted.parameters[0], fitted.parameters[1]);
+        assert!(
+            (a - 2.5).abs() < 0.05 && (b - 0.7).abs() < 0.05,
+            "{fitted:?}"
+        );
+        // J = [exp(−b x), −a x exp(−b x)]; Cov = s² (JᵀJ)⁻¹ inverted by hand (2 × 2).
+        let (mut saa, mut sab, mut sbb, mut ssr) = (0.0, 0.0, 0.0, 0.0);
+        for (x, y) in xs.iter().zip(&observed) {
+            let e = (-b * x).exp();
+            let (ja, jb) = (e, -a * x * e);
+            saa += ja * ja;
+            sab += ja * jb;
+            sbb += jb * jb;
+            ssr += (a * e - y).powi(2);
+        }
+        let variance = ssr / (xs.len() - 2) as f64;
+        let determinant = saa * sbb - sab * sab;
+        let se_a = (variance * sbb / determinant).sqrt();
+        let se_b = (variance * saa / determinant).sqrt();
+        assert!(
+            ((fitted.standard_errors[0] - se_a) / se_a).abs() < 1e-5,
+            "{fitted:?} {se_a}"
+        );
+        assert!(
+            ((fitted.standard_errors[1] - se_b) / se_b).abs() < 1e-5,
+            "{fitted:?} {se_b}"
+        );
+        let t = student_t_975(38.0);
+        assert!((fitted.half_widths[0] - t * fitted.standard_errors[0]).abs() < 1e-15);
+        assert!(((fitted.rms - (ssr / 40.0).sqrt()) / fitted.rms).abs() < 1e-6);
+    }
+
+    #[test]
+    fn student_t_matches_the_table() {
+        // A&S table 26.10, 0.975 quantile: 10 -> 2.228139, 30 -> 2.042272, 120 -> 1.979930.
+        for (nu, quantile) in [(10.0, 2.228_139), (30.0, 2.042_272), (120.0, 1.979_930)] {
+            assert!((student_t_975(nu) - quantile).abs() < 2e-4, "{nu}");
+        }
+        assert_eq!(student_t_975(3.0), 3.182_446);
+    }
+
+    #[test]
+    fn refusals() {
+        let xs = xs();
+        let observed: Vec<f64> = xs.iter().map(|x| 3.0 * x).collect();
+        // Only the product a b is seen by the data.
+        let mut product = |p: &[f64]| -> Result<Vec<f64>, ()> {
+            Ok(xs.iter().map(|x| p[0] * p[1] * x).collect())
+        };
+        assert!(matches!(
+            fit_least_squares(&mut product, &[1.0, 1.0], &observed, false),
+            Err(FitError::NotIdentifiable { .. })
+        ));
+        // A parameter the model ignores.
+        let mut ignores =
+            |p: &[f64]| -> Result<Vec<f64>, ()> { Ok(xs.iter().map(|x| p[0] * x).collect()) };
+        assert!(matches!(
+            fit_least_squares(&mut ignores, &[1.0, 1.0], &observed, false),
+            Err(FitError::NotIdentifiable { parameter: 1 })
+        ));
+        // Too few evaluations allowed to get there.
+        let decaying: Vec<f64> = xs.iter().map(|x| 2.5 * (-0.7 * x).exp()).collect();
+        assert!(matches!(
+            fit_with_patience(&mut decay(&xs), &[1e3, 50.0], &decaying, false, 2),
+            Err(FitError::NotConverged { .. })
+        ));
+        // As many observations as parameters; a negative observation in log space.
+        assert!(matches!(
+            fit_least_squares(&mut decay(&xs[..2]), &[1.0, 1.0], &decaying[..2], false),
+            Err(FitError::TooFewObservations { .. })
+        ));
+        let mut negative = decaying.clone();
+        negative[4] = -0.1;
+        assert_eq!(
+            fit_least_squares(&mut decay(&xs), &[1.0, 1.0], &negative, true).err(),
+            Some(FitError::BadObservation {
+                row: 5,
+                value: -0.1
+            })
+        );
+        // A model error stops the fit and comes back as it was.
+        let mut failing = |_: &[f64]| -> Result<Vec<f64>, &str> { Err("no value") };
+        assert_eq!(
+            fit_least_squares(&mut failing, &[1.0], &decaying, false).err(),
+            Some(FitError::Model("no value"))
+        );
+    }
 }
