@@ -6,6 +6,7 @@
 //! - `checker`: check lines, `check` over folders, warnings, reports, `--against`.
 //! - `cli`: commands, formats, exit codes and the JSON contract.
 //! - `errors`: each error class on a small sheet, its exit code and rendered message.
+//! - `fitting`: `fit` lines recover known parameters from synthetic records; refusals.
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robust_inputs`: the table of bad inputs (exit code and message for each), outputs that
@@ -23,6 +24,7 @@ mod checker;
 mod cli;
 mod columns;
 mod errors;
+mod fitting;
 mod includes;
 mod plot;
 mod properties;
