@@ -290,12 +290,38 @@ fn columns(criterion: &mut Criterion) {
     group.finish();
 }
 
+/// A pumping test of 1 000 readings (1 % noise from a fixed pattern) fitted for T and S: the
+/// whole sheet, so the cost includes re-evaluating the model column on every trial.
+fn fit_record(criterion: &mut Criterion) {
+    let library = Builtins::standard();
+    let noise: Vec<String> = (0..1000)
+        .map(|i| format!("{:.6}", 1.0 + 0.01 * (7.0 * f64::from(i)).sin()))
+        .collect();
+    let sheet = format!(
+        "Q = 20 L/s\nr = 40 m\nt = 1 min to 3 d count 1000 log\nnoise = {{{}}}\n\
+         s_seen = theis_drawdown(Q, 2.5e-3 m^2/s, 2e-4, r, t) * noise\n\
+         T = 1e-3 m^2/s\nS = 1e-5\ns_model = theis_drawdown(Q, T, S, r, t)\n\
+         T_fit = fit s_model to s_seen varying T, S log\n",
+        noise.join(", ")
+    );
+    let mut group = criterion.benchmark_group("fit");
+    group.bench_function("theis_1000_points", |bencher| {
+        bencher.iter(|| {
+            let evaluation = evaluate_sheet(black_box(&sheet), library);
+            assert!(!evaluation.has_errors());
+            evaluation
+        })
+    });
+    group.finish();
+}
+
 criterion_group!(
     benches,
     sheets,
     property_calls,
     check_folder,
     session,
-    columns
+    columns,
+    fit_record
 );
 criterion_main!(benches);
