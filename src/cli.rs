@@ -24,12 +24,7 @@ mod properties;
 mod report;
 
 /// Exit codes, as documented in the README.
-pub mod exit {
-    pub const OK: u8 = 0;
-    pub const CHECK_FAILED: u8 = 1;
-    pub const USAGE: u8 = 2;
-    pub const SHEET_ERROR: u8 = 3;
-}
+pub use crate::front::exit;
 
 #[derive(Parser, Debug)]
 #[command(

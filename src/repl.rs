@@ -1,5 +1,8 @@
 //! The interactive session: `fluxsheet` alone, or `fluxsheet repl [FILE]`.
 //!
+//! Over 800 lines: the line editor loop, the scripted loop and the session commands (`:load`,
+//! `:save`, `:about`, …) share the printing of results and errors kept here.
+//!
 //! On a terminal, lines are read with a line editor (completion, hints, history kept across
 //! sessions); otherwise lines are read from standard input, so a session can be scripted.
 //! Each entry goes to an `eval::session::Session`; results go to standard output, errors and
@@ -39,18 +42,18 @@ pub fn run(file: Option<&str>, options: RenderOptions, out: &mut dyn Write) -> i
     let terminal = io::stdin().is_terminal();
     if let Some(file) = file {
         if !repl.open(Path::new(file), out, &mut err)? {
-            return Ok(crate::cli::exit::SHEET_ERROR);
+            return Ok(crate::front::exit::SHEET_ERROR);
         }
     }
     if terminal {
         interactive(&mut repl, out, &mut err)?;
-        Ok(crate::cli::exit::OK)
+        Ok(crate::front::exit::OK)
     } else {
         scripted(&mut repl, &mut io::stdin().lock(), out, &mut err)?;
         Ok(if repl.errors > 0 {
-            crate::cli::exit::SHEET_ERROR
+            crate::front::exit::SHEET_ERROR
         } else {
-            crate::cli::exit::OK
+            crate::front::exit::OK
         })
     }
 }
@@ -988,6 +991,7 @@ fn error_message(diagnostics: &[Diagnostic]) -> &str {
 /// Said of a line with an error but no description (a bug of ours, never a blank `error:`).
 const UNDESCRIBED_ERROR: &str = "this line could not be evaluated (no reason was recorded)";
 
+/// Draws a session line's diagnostics with the same snippet renderer as `run`.
 fn write_diagnostics(
     err: &mut dyn Write,
     text: &str,
@@ -997,30 +1001,18 @@ fn write_diagnostics(
     if diagnostics.is_empty() {
         writeln!(err, "{indent}error: {UNDESCRIBED_ERROR}")?;
         writeln!(err, "{indent}  | {text}")?;
+        return Ok(());
     }
-    for diagnostic in diagnostics {
-        writeln!(
-            err,
-            "{indent}error: {}",
-            error_message(std::slice::from_ref(diagnostic))
-        )?;
-        let start = diagnostic.span.start.min(text.len());
-        let end = diagnostic.span.end.clamp(start, text.len());
-        let column = text.get(..start).map_or(0, |before| before.chars().count());
-        let width = text
-            .get(start..end)
-            .map_or(1, |inside| inside.chars().count())
-            .max(1);
-        writeln!(err, "{indent}  | {text}")?;
-        writeln!(
-            err,
-            "{indent}  | {}{}",
-            " ".repeat(column),
-            "^".repeat(width)
-        )?;
-        if let Some(help) = &diagnostic.help {
-            writeln!(err, "{indent}  = help: {help}")?;
-        }
+    let mut sources = crate::eval::SourceMap::default();
+    sources.add("<session>", text);
+    let mut drawn = Vec::new();
+    crate::render::write_diagnostics(
+        &mut codespan_reporting::term::termcolor::NoColor::new(&mut drawn),
+        &sources,
+        diagnostics,
+    )?;
+    for line in String::from_utf8_lossy(&drawn).lines() {
+        writeln!(err, "{indent}{line}")?;
     }
     Ok(())
 }

@@ -1,6 +1,9 @@
 //! Builds the syntax tree from pest pairs. Operator precedence and associativity live in one
 //! table here (`binding_power`), not in the grammar. `expect_*` helpers would be user errors; a pair shape
 //! the grammar rules out is reported as `internal`, never a panic.
+//!
+//! Over 800 lines: one builder per grammar rule, kept together with the precedence table
+//! they share, and the tests of each rule's tree at the foot.
 
 use super::ast::*;
 use super::error::{SyntaxError, SyntaxErrorKind};
