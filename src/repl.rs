@@ -32,7 +32,7 @@ pub const HISTORY_VARIABLE: &str = "FLUXSHEET_HISTORY";
 const PROMPT: &str = "fx> ";
 
 /// Runs a session; returns the exit code. On a terminal it is 0; reading from a pipe, it is 3
-/// if any entry had an error, as for a sheet.
+/// if any entry had an error and 1 if a check line fails at the end, as for a sheet.
 pub fn run(file: Option<&str>, options: RenderOptions, out: &mut dyn Write) -> io::Result<u8> {
     let library = Builtins::standard();
     let mut repl = Repl::new(library, options.digits);
@@ -50,8 +50,14 @@ pub fn run(file: Option<&str>, options: RenderOptions, out: &mut dyn Write) -> i
         Ok(crate::front::exit::OK)
     } else {
         scripted(&mut repl, &mut io::stdin().lock(), out, &mut err)?;
+        // As for a sheet: errors win, then a check line that fails at the end of the script.
+        let failing_check = repl.session.lines().iter().any(
+            |line| matches!(line.result(), crate::eval::LineResult::Check(check) if !check.passed),
+        );
         Ok(if repl.errors > 0 {
             crate::front::exit::SHEET_ERROR
+        } else if failing_check {
+            crate::front::exit::CHECK_FAILED
         } else {
             crate::front::exit::OK
         })
