@@ -40,6 +40,11 @@ pub enum EvalErrorKind {
         symbol: String,
         suggestions: Vec<String>,
     },
+    /// `a`, `ton`: a spelling the trade uses for more than one unit.
+    AmbiguousUnit {
+        symbol: String,
+        choices: Vec<(String, String)>,
+    },
     /// `PA`: a prefixed reading (peta-ampere) that exists only because of case, beside `Pa`.
     CaseOnlyUnit {
         symbol: String,
@@ -283,6 +288,15 @@ impl fmt::Display for EvalErrorKind {
                 write!(formatter, "`{name}` is a value, not a function; use `*` to multiply")
             }
             EvalErrorKind::UnknownUnit { symbol, .. } => write!(formatter, "unknown unit `{symbol}`"),
+            EvalErrorKind::AmbiguousUnit { symbol, choices } => write!(
+                formatter,
+                "`{symbol}` means more than one unit in the trade: write {}",
+                choices
+                    .iter()
+                    .map(|(choice, meaning)| format!("`{choice}` for {meaning}"))
+                    .collect::<Vec<_>>()
+                    .join(" or ")
+            ),
             EvalErrorKind::CaseOnlyUnit { symbol, reading, .. } => write!(
                 formatter,
                 "unit `{symbol}` would be read as {reading}: it differs from a catalog unit only by letter case"
