@@ -325,7 +325,7 @@ fn trade_spellings_match_their_definitions() {
         ("1 gpd", gallon / 86_400.0, 1e-15),
         ("1 MGD", 1e6 * gallon / 86_400.0, 1e-15),
         ("1 ton_US", 907.184_74, 1e-15),
-        ("1 ton_UK", 1016.046_908_8, 1e-15),
+        ("1 ton_UK", 1_016.046_908_8, 1e-15),
         ("1 kip", 1000.0 * pound_force, 1e-15),
         ("1 ksi", 1000.0 * pound_force / 0.0254 / 0.0254, 1e-15),
         ("1 tsf", 2000.0 * pound_force / 0.3048 / 0.3048, 1e-15),
