@@ -339,7 +339,7 @@ fn trade_spellings_match_their_definitions() {
         ("1 sec", 1.0, 1e-15),
         ("1 day", 86_400.0, 1e-15),
         ("1 year", 31_557_600.0, 1e-15),
-        ("1 ac", 4046.856_422_4, 1e-15),
+        ("1 ac", 4_046.856_422_4, 1e-15),
         ("1 ft_H2O", 0.3048 * 9806.65, 1e-15),
         // Powers written as the trade writes them, and pasted Unicode.
         ("1 m3", 1.0, 1e-15),
