@@ -227,7 +227,7 @@ impl EvalError {
             }
             EvalErrorKind::UnknownUnit { suggestions, .. } if !suggestions.is_empty() => {
                 let list = suggestions.iter().map(|symbol| format!("`{symbol}`")).collect::<Vec<_>>();
-                diagnostic.with_help(Some(format!("did you mean {}? (`fluxsheet units` lists them all)", list.join(", "))))
+                diagnostic.with_help(Some(format!("did you mean {}? (`fluxsheet units` lists them all); a product of a number and a name needs `*`", list.join(", "))))
             }
             EvalErrorKind::CaseOnlyUnit { suggestion, suggestion_name, .. } => diagnostic.with_help(Some(format!(
                 "did you mean `{suggestion}` ({suggestion_name})? Unit symbols are case-sensitive; if the prefixed unit is really meant, write the power of ten times the base unit"

@@ -881,6 +881,7 @@ fn internal(position: usize) -> SyntaxError {
         kind: SyntaxErrorKind::Unexpected {
             expected: vec!["valid syntax (internal parser error)"],
             found: None,
+            hint: None,
         },
         span: Span::new(position, position),
     }
@@ -913,6 +914,7 @@ fn convert(error: pest::error::Error<Rule>, text: &str, offset: usize) -> Syntax
         kind: SyntaxErrorKind::Unexpected {
             expected,
             found: if rest.is_empty() { None } else { Some(found) },
+            hint: super::error::hint_for(text),
         },
         span: Span::new(
             offset + position,
