@@ -247,7 +247,7 @@ pub fn covariance<E>(
 ) -> Result<DMatrix<f64>, FitError<E>> {
     let normal = jacobian.transpose() * jacobian;
     let diagonal: Vec<f64> = (0..n).map(|j| normal[(j, j)]).collect();
-    if let Some(parameter) = diagonal.iter().position(|&d| !(d > 0.0) || !d.is_finite()) {
+    if let Some(parameter) = diagonal.iter().position(|&d| d <= 0.0 || !d.is_finite()) {
         return Err(FitError::NotIdentifiable { parameter });
     }
     let scaled = DMatrix::from_fn(n, n, |i, j| {
