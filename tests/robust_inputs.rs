@@ -92,6 +92,27 @@ const BAD_INPUTS: &[(&str, i32, &str)] = &[
         3,
         "does not depend on `y`",
     ),
+    (
+        "x = {1, 2, 3} m\na = 2\nb = 1\ny_seen = {2, 4, 6} m\ny = a * x\nf = fit y to y_seen varying a, b",
+        3,
+        "does not depend on `b`",
+    ),
+    (
+        "x = {1, 2, 3, 4} m\na = 2\nb = 1\ny_seen = {2, 4, 6, 8} m\ny = a * b * x\nf = fit y to y_seen varying a, b",
+        3,
+        "the data cannot identify",
+    ),
+    (
+        "x = {1, 2, 3} m\na = 2\ny_seen = 4 m\ny = a * x\nf = fit y to y_seen varying a",
+        3,
+        "must be a column",
+    ),
+    (
+        "x = {1, 2, 3} m\na = 2\ny_seen = {1, 0, 3} m\ny = a * x\nf = fit y to y_seen varying a log",
+        3,
+        "needs positive observations",
+    ),
+    ("y = {1, 2} m\nf = fit y y varying a", 3, "expected `to`"),
     ("$run|list.fxs|--max-rows|2", 3, "longer than the limit of 2 rows"),
     ("plot x against y", 3, "unknown name `y`"),
     // CSV data files
