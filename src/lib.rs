@@ -39,6 +39,8 @@ pub mod eval;
 #[doc(hidden)]
 pub mod front;
 pub mod library;
+#[doc(hidden)]
+pub mod lsp;
 pub mod numeric;
 pub mod render;
 #[doc(hidden)]
