@@ -23,7 +23,7 @@ pub enum Expected {
 /// The completions at byte `offset`.
 pub fn completions(document: &Document, offset: usize) -> Vec<CompletionItem> {
     match expected_at(document, offset) {
-        Expected::Unit(dimension) => unit_items(dimension),
+        Expected::Unit(dimension) => unit_items(document, dimension),
         Expected::Name => name_items(document),
     }
 }
@@ -115,30 +115,64 @@ fn argument_dimension(before: &str) -> Option<Dimension> {
     None
 }
 
-fn unit_items(expected: Option<Dimension>) -> Vec<CompletionItem> {
-    catalog_entries()
-        .iter()
-        .flat_map(|entry| {
-            let dimension = entry.unit.dimension;
-            let fits = expected.is_none_or(|expected| expected == dimension);
-            entry
-                .definition
-                .symbols
-                .iter()
-                .map(move |symbol| CompletionItem {
-                    label: symbol.to_string(),
-                    kind: Some(CompletionItemKind::UNIT),
-                    detail: Some(format!(
-                        "{} — {}",
-                        entry.definition.name,
-                        dimension.phrase()
-                    )),
-                    sort_text: Some(format!("{}{symbol}", if fits { 0 } else { 1 })),
-                    preselect: (fits && expected.is_some()).then_some(true),
-                    ..CompletionItem::default()
-                })
-        })
-        .collect()
+/// Catalog units, those of the expected dimension first; with a dimension known, also the
+/// compound units that spell it (`m/s`, and those the sheet already shows it in, `ft/d`).
+fn unit_items(document: &Document, expected: Option<Dimension>) -> Vec<CompletionItem> {
+    let mut compound: Vec<String> = Vec::new();
+    if let Some(expected) = expected {
+        compound.push(expected.preferred_si_unit());
+        for outcome in &document.evaluation.lines {
+            if let LineResult::Value(shown) = &outcome.result {
+                let unit = shown.unit();
+                if shown.value().dimension() == Some(expected)
+                    && !unit.is_empty()
+                    && !compound.iter().any(|known| known == unit)
+                {
+                    compound.push(unit.to_string());
+                }
+            }
+        }
+    }
+    let phrase = expected
+        .map(|dimension| dimension.phrase())
+        .unwrap_or_default();
+    // In this order: the SI spelling first, then the sheet's own in the order they appear.
+    let spelled = compound
+        .into_iter()
+        .enumerate()
+        .map(|(rank, unit)| CompletionItem {
+            sort_text: Some(format!("0{rank:04}")),
+            label: unit,
+            kind: Some(CompletionItemKind::UNIT),
+            detail: Some(phrase.clone()),
+            ..CompletionItem::default()
+        });
+    let catalog = catalog_entries().iter().flat_map(|entry| {
+        let dimension = entry.unit.dimension;
+        let fits = expected.is_none_or(|expected| expected == dimension);
+        entry
+            .definition
+            .symbols
+            .iter()
+            .map(move |symbol| CompletionItem {
+                label: symbol.to_string(),
+                kind: Some(CompletionItemKind::UNIT),
+                detail: Some(format!(
+                    "{} — {}",
+                    entry.definition.name,
+                    dimension.phrase()
+                )),
+                sort_text: Some(format!("{}{symbol}", if fits { 1 } else { 2 })),
+                ..CompletionItem::default()
+            })
+    });
+    let mut items: Vec<CompletionItem> = spelled.collect();
+    for item in catalog {
+        if !items.iter().any(|known| known.label == item.label) {
+            items.push(item);
+        }
+    }
+    items
 }
 
 fn name_items(document: &Document) -> Vec<CompletionItem> {
