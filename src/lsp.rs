@@ -20,4 +20,4 @@ mod transport;
 mod uri;
 
 pub use document::Document;
-pub use server::{capabilities, run};
+pub use server::{capabilities, run, Server};

@@ -433,3 +433,87 @@ fn errors_in_included_sheets_are_published_there_and_on_the_include_line() {
     assert_eq!(early.child.wait().unwrap().code(), Some(1));
     assert_eq!(client.finish(), Some(0));
 }
+
+/// A real editor: headless Neovim from the distribution's packages opens a sheet with a unit
+/// error and reads the diagnostic back. Without Neovim the test is skipped on a workstation
+/// and fails in CI (`.ci/run` installs it).
+#[test]
+fn neovim_shows_a_unit_error_from_the_server() {
+    let Some(neovim) = neovim() else {
+        assert!(
+            std::env::var_os("CI").is_none(),
+            "Neovim is required in CI (.ci/run installs it)"
+        );
+        eprintln!("skipped: no nvim on this machine");
+        return;
+    };
+    let folder = tempfile::tempdir().unwrap();
+    let root = folder.path().canonicalize().unwrap();
+    let sheet = root.join("pad.fxs");
+    std::fs::write(&sheet, "k = 420 mD\nh = 2 m + 3 s\n").unwrap();
+    let out = root.join("diagnostics.txt");
+    let script = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/neovim.lua");
+    let mut child = Command::new(neovim)
+        .args([
+            "--headless",
+            "--clean",
+            "-n",
+            "-u",
+            "NONE",
+            "-i",
+            "NONE",
+            "-c",
+        ])
+        .arg(format!("luafile {}", script.display()))
+        .env("FLUXSHEET_SHEET", &sheet)
+        .env("FLUXSHEET_BINARY", env!("CARGO_BIN_EXE_fluxsheet"))
+        .env("FLUXSHEET_OUT", &out)
+        .env("HOME", &root)
+        .env("XDG_STATE_HOME", &root)
+        .stdin(Stdio::null())
+        .stdout(Stdio::null())
+        .stderr(Stdio::null())
+        .spawn()
+        .unwrap();
+    let started = std::time::Instant::now();
+    while child.try_wait().unwrap().is_none() {
+        if started.elapsed() > Duration::from_secs(120) {
+            let _ = child.kill();
+            panic!("neovim did not finish");
+        }
+        std::thread::sleep(Duration::from_millis(50));
+    }
+    let diagnostics = std::fs::read_to_string(&out).unwrap();
+    let (code, _, run_errors) = {
+        let output = Command::new(env!("CARGO_BIN_EXE_fluxsheet"))
+            .args(["run", "pad.fxs"])
+            .current_dir(&root)
+            .env("NO_COLOR", "1")
+            .output()
+            .unwrap();
+        (
+            output.status.code(),
+            (),
+            String::from_utf8_lossy(&output.stderr).into_owned(),
+        )
+    };
+    assert_eq!(code, Some(3));
+    let lines: Vec<&str> = diagnostics.lines().collect();
+    assert_eq!(lines.len(), 1, "{diagnostics}");
+    // Line 2 (0-based 1), from column 4 (0-based): `2 m + 3 s`; severity 1 is an error.
+    let (place, message) = lines[0].split_at("1:4:1:".len());
+    assert_eq!(place, "1:4:1:");
+    let first_line = message.split(" | ").next().unwrap();
+    assert!(first_line.contains("cannot add"), "{message}");
+    assert!(
+        run_errors.contains(first_line),
+        "{first_line} not in {run_errors}"
+    );
+}
+
+fn neovim() -> Option<std::path::PathBuf> {
+    let path = std::env::var_os("PATH")?;
+    std::env::split_paths(&path)
+        .map(|folder| folder.join("nvim"))
+        .find(|candidate| candidate.exists())
+}
