@@ -517,3 +517,33 @@ fn neovim() -> Option<std::path::PathBuf> {
         .map(|folder| folder.join("nvim"))
         .find(|candidate| candidate.exists())
 }
+
+/// The highlighting grammar colours every keyword the parser's grammar has.
+#[test]
+fn the_highlighting_grammar_knows_every_keyword_of_the_language() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let pest = std::fs::read_to_string(root.join("grammar/worksheet.pest")).unwrap();
+    let highlighting: Value = serde_json::from_str(
+        &std::fs::read_to_string(root.join("editors/vscode/syntaxes/fluxsheet.tmLanguage.json"))
+            .unwrap(),
+    )
+    .unwrap();
+    let pattern = highlighting["repository"]["keyword"]["match"].as_str().unwrap();
+    let highlighted: Vec<&str> = pattern
+        .trim_start_matches("\\b(")
+        .trim_end_matches(")\\b")
+        .split('|')
+        .collect();
+    // Keyword rules read `name_keyword = @{ "word" ~ !name_character }`; `within` is the
+    // tolerance's literal.
+    let keywords: Vec<&str> = pest
+        .lines()
+        .filter(|line| line.contains("_keyword = @{ \""))
+        .filter_map(|line| line.split('"').nth(1))
+        .chain(["within"])
+        .collect();
+    assert!(keywords.len() >= 15, "{keywords:?}");
+    for keyword in keywords {
+        assert!(highlighted.contains(&keyword), "`{keyword}` is not highlighted");
+    }
+}
