@@ -528,7 +528,9 @@ fn the_highlighting_grammar_knows_every_keyword_of_the_language() {
             .unwrap(),
     )
     .unwrap();
-    let pattern = highlighting["repository"]["keyword"]["match"].as_str().unwrap();
+    let pattern = highlighting["repository"]["keyword"]["match"]
+        .as_str()
+        .unwrap();
     let highlighted: Vec<&str> = pattern
         .trim_start_matches("\\b(")
         .trim_end_matches(")\\b")
@@ -544,6 +546,9 @@ fn the_highlighting_grammar_knows_every_keyword_of_the_language() {
         .collect();
     assert!(keywords.len() >= 15, "{keywords:?}");
     for keyword in keywords {
-        assert!(highlighted.contains(&keyword), "`{keyword}` is not highlighted");
+        assert!(
+            highlighted.contains(&keyword),
+            "`{keyword}` is not highlighted"
+        );
     }
 }
