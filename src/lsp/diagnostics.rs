@@ -4,7 +4,7 @@
 
 use super::document::Document;
 use super::position::LineIndex;
-use crate::eval::{LineResult, Severity, SourceMap};
+use crate::eval::{LineResult, Severity};
 use crate::syntax::Span;
 use lsp_types::{
     Diagnostic, DiagnosticRelatedInformation, DiagnosticSeverity, Location, NumberOrString, Range,
@@ -43,7 +43,6 @@ pub fn diagnostics(document: &Document) -> Vec<(Uri, Vec<Diagnostic>)> {
 }
 
 fn convert(document: &Document, diagnostic: &crate::eval::Diagnostic) -> Option<Diagnostic> {
-    let sources = &document.evaluation.sources;
     let mut message = diagnostic.message.clone();
     if let Some(help) = &diagnostic.help {
         message.push_str("\nhelp: ");
@@ -60,7 +59,7 @@ fn convert(document: &Document, diagnostic: &crate::eval::Diagnostic) -> Option<
         })
         .collect();
     Some(Diagnostic {
-        range: range_in_file(sources, diagnostic.span),
+        range: range_in_file(document, diagnostic.span),
         severity: Some(match diagnostic.severity {
             Severity::Error => DiagnosticSeverity::ERROR,
             Severity::Warning => DiagnosticSeverity::WARNING,
@@ -75,10 +74,13 @@ fn convert(document: &Document, diagnostic: &crate::eval::Diagnostic) -> Option<
     })
 }
 
-/// The range of a span within the file that holds it.
-pub fn range_in_file(sources: &SourceMap, span: Span) -> Range {
+/// The range of a span within the file that holds it (the document's own line index for the
+/// document, so a sheet with many diagnostics is not scanned once per diagnostic).
+pub fn range_in_file(document: &Document, span: Span) -> Range {
+    let sources = &document.evaluation.sources;
     let (index, _, range) = crate::render::snippet::place(sources, span);
     match sources.file(index) {
+        Some(_) if index == 0 => document.index.range(&document.text, range),
         Some(file) => LineIndex::new(&file.text).range(&file.text, range),
         None => Range::default(),
     }
@@ -86,11 +88,10 @@ pub fn range_in_file(sources: &SourceMap, span: Span) -> Range {
 
 /// A span as a location in whichever file holds it.
 pub fn location(document: &Document, span: Span) -> Option<Location> {
-    let sources = &document.evaluation.sources;
-    let file = sources.file_index_of(span.start);
+    let file = document.evaluation.sources.file_index_of(span.start);
     Some(Location::new(
         document.file_uri(file)?,
-        range_in_file(sources, span),
+        range_in_file(document, span),
     ))
 }
 
