@@ -24,12 +24,7 @@ mod properties;
 mod report;
 
 /// Exit codes, as documented in the README.
-pub mod exit {
-    pub const OK: u8 = 0;
-    pub const CHECK_FAILED: u8 = 1;
-    pub const USAGE: u8 = 2;
-    pub const SHEET_ERROR: u8 = 3;
-}
+pub use crate::front::exit;
 
 #[derive(Parser, Debug)]
 #[command(
@@ -157,6 +152,17 @@ pub enum Command {
         after_help = "Editors start it themselves; the README shows the set-up for Neovim, Helix and VS Code."
     )]
     Lsp,
+    /// Print a shell completion script (bash, zsh, fish or powershell) to standard output
+    #[command(
+        after_help = "Examples:\n  fluxsheet completions bash > ~/.local/share/bash-completion/completions/fluxsheet\n  fluxsheet completions zsh > \"${fpath[1]}/_fluxsheet\"\n  fluxsheet completions fish > ~/.config/fish/completions/fluxsheet.fish"
+    )]
+    Completions {
+        /// The shell
+        shell: clap_complete::Shell,
+    },
+    /// Print the manual page (roff) to standard output
+    #[command(after_help = "Example:\n  fluxsheet manual > fluxsheet.1 && man ./fluxsheet.1")]
+    Manual,
 }
 
 impl OutputArgs {
@@ -221,6 +227,17 @@ pub fn run(command_line: CommandLine) -> u8 {
         Command::Repl { file } => crate::repl::run(file.as_deref(), options, &mut out),
         // Served above, before standard output is locked.
         Command::Lsp => Ok(exit::OK),
+        Command::Completions { shell } => {
+            let mut definition = <CommandLine as clap::CommandFactory>::command();
+            clap_complete::generate(*shell, &mut definition, "fluxsheet", &mut out);
+            Ok(exit::OK)
+        }
+        Command::Manual => {
+            let definition = <CommandLine as clap::CommandFactory>::command();
+            clap_mangen::Man::new(definition)
+                .render(&mut out)
+                .map(|_| exit::OK)
+        }
     };
     finish(result, &mut out)
 }

@@ -38,3 +38,4 @@ mod trust_front;
 mod trust_warnings;
 mod util;
 mod worksheets;
+mod wrong_attempts;

@@ -1,5 +1,8 @@
 //! An interactive session: a sheet that grows one entry at a time.
 //!
+//! Over 800 lines: entries, redefinition with dependents, loading a sheet with its includes and
+//! data files, and saving, all over one table of kept lines; tests at the foot.
+//!
 //! Each kept line is parsed once, when it is entered, and keeps its value. The session knows
 //! which lines refer to which names, so an entry costs parsing that one line and evaluating it;
 //! redefining a name re-evaluates only the lines that depend on it, directly or through other

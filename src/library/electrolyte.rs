@@ -1,6 +1,9 @@
 //! Chloride brines after Laliberté: density, viscosity and specific heat of water with NaCl,
 //! KCl and CaCl2 in it, the brine functions an engineer reaches first.
 //!
+//! Over 800 lines because of the published coefficient tables of three salts and the check
+//! values that test them; the model itself is short.
+//!
 //! Why this model. Laliberté's model was fitted per solute to the measured data of the
 //! literature (for NaCl: 869 density points over 0-140 °C, 552 viscosity points over 5-154 °C,
 //! 356 heat-capacity points over 1.5-120 °C, mass fractions to about 0.26), it covers KCl and
@@ -21,7 +24,7 @@
 //!
 //! Coefficients: Laliberté (2009), tables of updated density and viscosity coefficients and of
 //! heat-capacity coefficients, with each solute's fitted range of temperature and mass
-//! fraction. They were taken from the transcription of those tables in the ChEDL data file
+//! fraction. They were taken from the copy of those tables in the ChEDL data file
 //! `Laliberte2009.tsv` (Python package `chemicals` 1.5.2), not read from the paper itself.
 
 use uom::si::f64::{
