@@ -80,6 +80,10 @@ pub struct RunArgs {
     /// Write the sheet's `plot` lines as SVG: the first to FILE, the next to FILE-2.svg, …
     #[arg(long, value_name = "FILE.svg")]
     pub plot: Option<PathBuf>,
+    /// After the table, show the working of each computed line: the expression, the values put
+    /// in, the result, and the formula of each built-in relation with its source
+    #[arg(long)]
+    pub working: bool,
     #[command(flatten)]
     pub limits: LimitArgs,
 }
@@ -384,6 +388,11 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             writeln!(out, "{}", source.label)?;
         }
         render::table::write_sheet(out, &evaluation, options)?;
+        if arguments.working {
+            let working =
+                render::working::working(&evaluation, Builtins::standard(), options.digits);
+            render::working::write_text(out, &working)?;
+        }
         if !evaluation.diagnostics.is_empty() {
             out.flush()?;
             render::write_diagnostics(

@@ -931,6 +931,9 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::EOI => "the end of the line",
         Rule::definition | Rule::display | Rule::check_line => "a line",
         Rule::quoted_path => "a quoted path",
+        Rule::field_name => {
+            "a field name (project, job, title, author, checker, date or revision) and `:`"
+        }
         Rule::list | Rule::list_item => "an expression",
         Rule::to_keyword | Rule::range_tail => "`to`",
         Rule::ranged => "an expression",
