@@ -4,6 +4,7 @@
 //! running a colleague's sheet cannot read arbitrary files.
 
 use crate::eval::{IncludeLoader, LoadedSheet};
+use crate::render::report::{sha256_hex, InputFile};
 use std::collections::HashMap;
 use std::path::{Path, PathBuf};
 
@@ -18,6 +19,10 @@ pub struct FileIncludeLoader {
     /// Every file read (included sheets and data files), canonical: the inputs of the run,
     /// which no output may overwrite.
     files_read: Vec<PathBuf>,
+    /// The same files with their SHA-256, hashed from the very bytes the run used.
+    inputs: Vec<InputFile>,
+    /// The main sheet's folder, canonical: input paths are given relative to it.
+    sheet_folder: PathBuf,
 }
 
 impl FileIncludeLoader {
@@ -41,12 +46,19 @@ impl FileIncludeLoader {
             .and_then(|path| std::fs::canonicalize(path).ok())
             .map(|path| path.to_string_lossy().into_owned());
         FileIncludeLoader {
+            sheet_folder: root.clone(),
             root,
             main_key,
             allow_outside,
             folders,
             files_read: Vec::new(),
+            inputs: Vec::new(),
         }
+    }
+
+    /// The included sheets and data files read so far, with their hashes, in reading order.
+    pub fn inputs(&self) -> &[InputFile] {
+        &self.inputs
     }
 
     /// The files read so far (included sheets and data files), canonical.
@@ -84,6 +96,11 @@ impl IncludeLoader for FileIncludeLoader {
             std::fs::read(&canonical).map_err(|error| format!("cannot read `{path}`: {error}"))?;
         if !self.files_read.contains(&canonical) {
             self.files_read.push(canonical.clone());
+            self.inputs.push(InputFile {
+                path: relative_path(&self.sheet_folder, &canonical),
+                sha256: sha256_hex(&bytes),
+                bytes: bytes.len(),
+            });
         }
         let text = String::from_utf8(bytes)
             .map_err(|_| format!("cannot read `{path}`: it is not UTF-8 text"))?;
@@ -99,5 +116,40 @@ impl IncludeLoader for FileIncludeLoader {
             key: canonical.to_string_lossy().into_owned(),
             text,
         })
+    }
+}
+
+/// `target` relative to the folder `from` (both canonical), with `..` where it climbs out:
+/// how the sheet's own folder reaches the file, so two copies of a project compare alike.
+pub fn relative_path(from: &Path, target: &Path) -> String {
+    let from: Vec<_> = from.components().collect();
+    let to: Vec<_> = target.components().collect();
+    let common = from
+        .iter()
+        .zip(&to)
+        .take_while(|(left, right)| left == right)
+        .count();
+    let mut parts: Vec<String> = vec!["..".to_string(); from.len() - common];
+    parts.extend(
+        to[common..]
+            .iter()
+            .map(|part| part.as_os_str().to_string_lossy().into_owned()),
+    );
+    parts.join("/")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::relative_path;
+    use std::path::Path;
+
+    #[test]
+    fn relative_paths_climb_with_dot_dot() {
+        let check = |from: &str, to: &str, expected: &str| {
+            assert_eq!(relative_path(Path::new(from), Path::new(to)), expected);
+        };
+        check("/p/sheets", "/p/sheets/shared/a.fxs", "shared/a.fxs");
+        check("/p/sheets", "/p/shared/a.fxs", "../shared/a.fxs");
+        check("/p/sheets/deep", "/q/a.csv", "../../../q/a.csv");
     }
 }
