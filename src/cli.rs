@@ -268,11 +268,15 @@ pub(crate) fn all_inputs(source: &SheetSource, read: &ReadInputs) -> Vec<InputFi
     let main = InputFile {
         path: Path::new(&source.label)
             .file_name()
-            .map_or(source.label.clone(), |name| name.to_string_lossy().into_owned()),
+            .map_or(source.label.clone(), |name| {
+                name.to_string_lossy().into_owned()
+            }),
         sha256: render::report::sha256_hex(source.text.as_bytes()),
         bytes: source.text.len(),
     };
-    std::iter::once(main).chain(read.hashed.iter().cloned()).collect()
+    std::iter::once(main)
+        .chain(read.hashed.iter().cloned())
+        .collect()
 }
 
 /// The files a run read besides the main sheet: canonical paths (which no output may

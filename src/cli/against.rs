@@ -48,7 +48,19 @@ pub fn compare_inputs(
         return Vec::new();
     }
     let mut changes = Vec::new();
-    for (path, sha256) in &earlier.inputs {
+    // The main sheet comes first on both sides and pairs whatever its name (a renamed sheet
+    // paired by its title); the other inputs pair by their path from the sheet's folder.
+    let (Some((_, main_sha256)), Some(main)) = (earlier.inputs.first(), now.first()) else {
+        return changes;
+    };
+    if main.sha256 != *main_sha256 {
+        changes.push(InputChange {
+            path: main.path.clone(),
+            change: "changed",
+        });
+    }
+    let now = &now[1..];
+    for (path, sha256) in &earlier.inputs[1..] {
         match now.iter().find(|input| input.path == *path) {
             Some(input) if input.sha256 != *sha256 => changes.push(InputChange {
                 path: path.clone(),
@@ -62,7 +74,10 @@ pub fn compare_inputs(
         }
     }
     for input in now {
-        if !earlier.inputs.iter().any(|(path, _)| *path == input.path) {
+        if !earlier.inputs[1..]
+            .iter()
+            .any(|(path, _)| *path == input.path)
+        {
             changes.push(InputChange {
                 path: input.path.clone(),
                 change: "added",
@@ -174,7 +189,12 @@ impl Earlier {
         }
     }
 
-    fn find_by_file(&self, label: &str, path: Option<&Path>, checked: usize) -> Option<&EarlierSheet> {
+    fn find_by_file(
+        &self,
+        label: &str,
+        path: Option<&Path>,
+        checked: usize,
+    ) -> Option<&EarlierSheet> {
         if checked == 1 && self.sheets.len() == 1 {
             return self.sheets.first();
         }
@@ -369,9 +389,8 @@ pub fn compare(earlier: &EarlierSheet, evaluation: &Evaluation, tolerance: f64) 
                     .filter(|_| same_unit)
                     .or_else(|| old.shown.clone()),
                 new_shown: shown_in(shown, new_values[row], row),
-                signed_change: (same_unit && old.si_values[row] != 0.0).then(|| {
-                    (new_values[row] - old.si_values[row]) / old.si_values[row].abs()
-                }),
+                signed_change: (same_unit && old.si_values[row] != 0.0)
+                    .then(|| (new_values[row] - old.si_values[row]) / old.si_values[row].abs()),
             });
         }
     }
@@ -384,9 +403,10 @@ fn shown_in(shown: &crate::eval::Shown, si_value: f64, row: usize) -> Option<Str
     use crate::eval::Shown;
     let (unit, display) = match shown {
         Shown::Scalar(scalar) => (scalar.unit.clone(), scalar.value / scalar.quantity.value),
-        Shown::Column(column) if row < column.len() => {
-            (column.unit.clone(), column.shown(row) / column.column.values[row])
-        }
+        Shown::Column(column) if row < column.len() => (
+            column.unit.clone(),
+            column.shown(row) / column.column.values[row],
+        ),
         _ => return None,
     };
     // A linear unit: the ratio shown/SI of the line's own value converts any other value.

@@ -478,7 +478,10 @@ fn write_text(
         }
     }
     for (line, name) in &report.added {
-        writeln!(out, "{label}:{line}: `{name}` is new (not in the earlier run)")?;
+        writeln!(
+            out,
+            "{label}:{line}: `{name}` is new (not in the earlier run)"
+        )?;
     }
     for change in &report.input_changes {
         writeln!(

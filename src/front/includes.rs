@@ -1,7 +1,8 @@
 //! Loading included sheets from disk, with the sandbox rule: a path is resolved from the
 //! including sheet's folder and may not leave the main sheet's folder tree (no absolute paths,
 //! no `..` above it, no symbolic link out of it) unless the user passes `--allow-outside`, so
-//! running a colleague's sheet cannot read arbitrary files.
+//! running a colleague's sheet cannot read arbitrary files. A folder above the sheet holding a
+//! `fluxsheet.project` file widens the tree to that project folder.
 
 use crate::eval::{IncludeLoader, LoadedSheet};
 use crate::render::report::{sha256_hex, InputFile};
@@ -9,7 +10,8 @@ use std::collections::HashMap;
 use std::path::{Path, PathBuf};
 
 pub struct FileIncludeLoader {
-    /// The main sheet's folder, canonical: the sandbox.
+    /// The sandbox, canonical: the nearest folder above the sheet holding a `PROJECT_MARKER`
+    /// file, or else the main sheet's folder.
     root: PathBuf,
     /// The main sheet's canonical path, for include cycles back to it.
     main_key: Option<String>,
@@ -39,14 +41,15 @@ impl FileIncludeLoader {
                 }
             })
             .unwrap_or(Path::new("."));
-        let root = std::fs::canonicalize(folder).unwrap_or_else(|_| folder.to_path_buf());
+        let sheet_folder = std::fs::canonicalize(folder).unwrap_or_else(|_| folder.to_path_buf());
+        let root = project_root(&sheet_folder).unwrap_or_else(|| sheet_folder.clone());
         let mut folders = HashMap::new();
         folders.insert(label.to_string(), folder.to_path_buf());
         let main_key = path
             .and_then(|path| std::fs::canonicalize(path).ok())
             .map(|path| path.to_string_lossy().into_owned());
         FileIncludeLoader {
-            sheet_folder: root.clone(),
+            sheet_folder,
             root,
             main_key,
             allow_outside,
@@ -89,7 +92,7 @@ impl IncludeLoader for FileIncludeLoader {
             .map_err(|error| format!("cannot read `{path}`: {error}"))?;
         if !self.allow_outside && !canonical.starts_with(&self.root) {
             return Err(format!(
-                "`{path}` is outside the sheet's folder; pass --allow-outside to include it anyway"
+                "`{path}` is outside the sheet's folder (or its project folder, marked by a `{PROJECT_MARKER}` file); pass --allow-outside to include it anyway"
             ));
         }
         let bytes =
@@ -117,6 +120,18 @@ impl IncludeLoader for FileIncludeLoader {
             text,
         })
     }
+}
+
+/// The file that marks a project folder: includes and data files of any sheet below it may
+/// read anything inside it (`include "../shared/site.fxs"`), and still nothing outside.
+pub const PROJECT_MARKER: &str = "fluxsheet.project";
+
+/// The nearest folder from `folder` (canonical) upward that holds a `PROJECT_MARKER` file.
+fn project_root(folder: &Path) -> Option<PathBuf> {
+    folder
+        .ancestors()
+        .find(|ancestor| ancestor.join(PROJECT_MARKER).is_file())
+        .map(Path::to_path_buf)
 }
 
 /// `target` relative to the folder `from` (both canonical), with `..` where it climbs out:

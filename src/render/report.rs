@@ -300,7 +300,14 @@ fn title_block(evaluation: &Evaluation) -> Vec<(&'static str, String)> {
                 .find(|known| known.name == *field)?
                 .text
                 .clone();
-            Some((*label, if text.is_empty() { "(blank)".to_string() } else { text }))
+            Some((
+                *label,
+                if text.is_empty() {
+                    "(blank)".to_string()
+                } else {
+                    text
+                },
+            ))
         })
         .collect()
 }
@@ -420,7 +427,11 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
     if !working.is_empty() {
         writeln!(out, "## Working\n")?;
         for step in &working {
-            let name = step.name.as_deref().map(|name| format!("{name} = ")).unwrap_or_default();
+            let name = step
+                .name
+                .as_deref()
+                .map(|name| format!("{name} = "))
+                .unwrap_or_default();
             writeln!(out, "Line {}:\n", step.line)?;
             writeln!(out, "```text\n{name}{}", step.expression)?;
             let indent = " ".repeat(name.chars().count().saturating_sub(2));
@@ -634,7 +645,11 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
     if !working.is_empty() {
         writeln!(out, "<section class=\"working\">\n<h2>Working</h2>")?;
         for step in &working {
-            let name = step.name.as_deref().map(|name| format!("{name} = ")).unwrap_or_default();
+            let name = step
+                .name
+                .as_deref()
+                .map(|name| format!("{name} = "))
+                .unwrap_or_default();
             let indent = " ".repeat(name.chars().count().saturating_sub(2));
             writeln!(
                 out,

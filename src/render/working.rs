@@ -8,7 +8,7 @@
 //! inside `[ ]`, quoted text and function names are left as written.
 
 use super::format_significant;
-use crate::eval::{Evaluation, LineResult, Library, Shown, Value};
+use crate::eval::{Evaluation, Library, LineResult, Shown, Value};
 use crate::syntax::Span;
 
 /// Rows of a column shown before its statistics.
@@ -64,7 +64,8 @@ pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> V
             Some(shown) => first_value(shown, digits),
             None => library.constant(name).map(|constant| {
                 let quantity = constant.quantity;
-                let text = quantity_text(quantity.value, &quantity.dimension.si_unit_text(), digits);
+                let text =
+                    quantity_text(quantity.value, &quantity.dimension.si_unit_text(), digits);
                 if text.contains(' ') {
                     format!("({text})")
                 } else {
@@ -195,11 +196,7 @@ pub fn result_text(shown: &Shown, digits: u32) -> String {
                 ),
                 _ => String::new(),
             };
-            format!(
-                "{rows} rows: {}{more} {unit}{statistics}",
-                first.join(", ")
-            )
-            .replace("  ", " ")
+            format!("{rows} rows: {}{more} {unit}{statistics}", first.join(", ")).replace("  ", " ")
         }
         Shown::Labels(labels) => format!("{} rows of text", labels.texts.len()),
     }
@@ -248,11 +245,9 @@ fn relations_on(
                     Value::Scalar(quantity) => {
                         quantity_text(quantity.value, &quantity.dimension.si_unit_text(), digits)
                     }
-                    Value::Column(column) if !column.is_empty() => quantity_text(
-                        column.values[0],
-                        &column.dimension.si_unit_text(),
-                        digits,
-                    ),
+                    Value::Column(column) if !column.is_empty() => {
+                        quantity_text(column.values[0], &column.dimension.si_unit_text(), digits)
+                    }
                     _ => return None,
                 };
                 let text = if text.contains(' ') || text.starts_with('-') {
@@ -419,9 +414,9 @@ pub fn substitute(expression: &str, lookup: &dyn Fn(&str) -> Option<String>) -> 
                     && index > start
                     && matches!(characters[index - 1], 'e' | 'E');
                 let exponent = matches!(current, 'e' | 'E')
-                    && characters.get(index + 1).is_some_and(|next| {
-                        next.is_ascii_digit() || matches!(next, '+' | '-')
-                    });
+                    && characters
+                        .get(index + 1)
+                        .is_some_and(|next| next.is_ascii_digit() || matches!(next, '+' | '-'));
                 if current.is_ascii_digit() || current == '.' || exponent || exponent_sign {
                     index += 1;
                 } else {
