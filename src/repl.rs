@@ -1055,7 +1055,7 @@ mod tests {
         assert_eq!(errors, 1);
         assert_eq!(
             err,
-            "error: cannot add a time (s) to a length (m)\n  | b = a + 1 s\n  |     ^^^^^^^\n\
+            "error: cannot add a time (s) to a length (m)\n  ┌─ <session>:1:5\n  │\n1 │ b = a + 1 s\n  │     ^^^^^^^\n\n\
              note: 1 session line was not saved: `:save FILE` before quitting writes them as a sheet\n"
         );
     }

@@ -39,3 +39,4 @@ mod trust_front;
 mod trust_warnings;
 mod util;
 mod worksheets;
+mod wrong_attempts;

@@ -749,8 +749,12 @@ impl Builder {
                 match inner.next() {
                     None => Ok(base),
                     Some(exponent) => {
+                        let written = match exponent.as_rule() {
+                            Rule::unit_superscript => plain_digits(exponent.as_str()),
+                            _ => exponent.as_str().to_string(),
+                        };
                         let (numerator, denominator) =
-                            exponent_value(exponent.as_str()).map_err(|kind| SyntaxError {
+                            exponent_value(&written).map_err(|kind| SyntaxError {
                                 kind,
                                 span: self.span(&exponent),
                             })?;
@@ -779,6 +783,26 @@ impl Builder {
             _ => Err(internal(span.start)),
         }
     }
+}
+
+/// `⁻¹` -> `-1`: a superscript power as the digits `exponent_value` reads.
+fn plain_digits(superscript: &str) -> String {
+    superscript
+        .chars()
+        .map(|character| match character {
+            '⁻' => '-',
+            '⁰' => '0',
+            '¹' => '1',
+            '²' => '2',
+            '³' => '3',
+            '⁴' => '4',
+            '⁵' => '5',
+            '⁶' => '6',
+            '⁷' => '7',
+            '⁸' => '8',
+            _ => '9',
+        })
+        .collect()
 }
 
 /// Precedence climbing over an expression's tokens: operands and operators alternate (the
@@ -871,6 +895,7 @@ fn internal(position: usize) -> SyntaxError {
         kind: SyntaxErrorKind::Unexpected {
             expected: vec!["valid syntax (internal parser error)"],
             found: None,
+            hint: None,
         },
         span: Span::new(position, position),
     }
@@ -903,6 +928,7 @@ fn convert(error: pest::error::Error<Rule>, text: &str, offset: usize) -> Syntax
         kind: SyntaxErrorKind::Unexpected {
             expected,
             found: if rest.is_empty() { None } else { Some(found) },
+            hint: super::error::hint_for(text),
         },
         span: Span::new(
             offset + position,
