@@ -79,6 +79,10 @@ pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> V
         let LineResult::Value(shown) = &line.result else {
             continue;
         };
+        // A data-file column is an input: the Inputs table names its file and hash.
+        if line.expression.starts_with("column ") {
+            continue;
+        }
         let substituted = substitute(&line.expression, &lookup);
         let span = line_spans.get(line.number.wrapping_sub(1)).copied();
         let relations = span
