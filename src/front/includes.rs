@@ -92,7 +92,7 @@ impl IncludeLoader for FileIncludeLoader {
             .map_err(|error| format!("cannot read `{path}`: {error}"))?;
         if !self.allow_outside && !canonical.starts_with(&self.root) {
             return Err(format!(
-                "`{path}` is outside the sheet's folder (or its project folder, marked by a `{PROJECT_MARKER}` file); pass --allow-outside to include it anyway"
+                "`{path}` is outside the sheet's folder; pass --allow-outside to include it anyway, or mark a project folder around both with a `{PROJECT_MARKER}` file"
             ));
         }
         let bytes =
