@@ -152,6 +152,17 @@ pub enum Command {
         /// A sheet to load first (created by `:save` if it does not exist)
         file: Option<String>,
     },
+    /// Print a shell completion script (bash, zsh, fish or powershell) to standard output
+    #[command(
+        after_help = "Examples:\n  fluxsheet completions bash > ~/.local/share/bash-completion/completions/fluxsheet\n  fluxsheet completions zsh > \"${fpath[1]}/_fluxsheet\"\n  fluxsheet completions fish > ~/.config/fish/completions/fluxsheet.fish"
+    )]
+    Completions {
+        /// The shell
+        shell: clap_complete::Shell,
+    },
+    /// Print the manual page (roff) to standard output
+    #[command(after_help = "Example:\n  fluxsheet manual > fluxsheet.1 && man ./fluxsheet.1")]
+    Manual,
 }
 
 impl OutputArgs {
@@ -210,6 +221,17 @@ pub fn run(command_line: CommandLine) -> u8 {
             properties::run(&mut out, arguments, &command_line.output)
         }
         Command::Repl { file } => crate::repl::run(file.as_deref(), options, &mut out),
+        Command::Completions { shell } => {
+            let mut definition = <CommandLine as clap::CommandFactory>::command();
+            clap_complete::generate(*shell, &mut definition, "fluxsheet", &mut out);
+            Ok(exit::OK)
+        }
+        Command::Manual => {
+            let definition = <CommandLine as clap::CommandFactory>::command();
+            clap_mangen::Man::new(definition)
+                .render(&mut out)
+                .map(|_| exit::OK)
+        }
     };
     finish(result, &mut out)
 }

@@ -24,7 +24,7 @@
 //!
 //! Coefficients: Laliberté (2009), tables of updated density and viscosity coefficients and of
 //! heat-capacity coefficients, with each solute's fitted range of temperature and mass
-//! fraction. They were taken from the transcription of those tables in the ChEDL data file
+//! fraction. They were taken from the copy of those tables in the ChEDL data file
 //! `Laliberte2009.tsv` (Python package `chemicals` 1.5.2), not read from the paper itself.
 
 use uom::si::f64::{
