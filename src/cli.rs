@@ -9,6 +9,7 @@ use crate::eval::{
 use crate::front::streams::{error_stream, PipeSafe};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, DiagnosticJson};
+use crate::render::report::InputFile;
 use crate::render::{self, Format, RenderOptions};
 use crate::units::unit::{catalog_entries, prefixes};
 use crate::units::Dimension;
@@ -80,6 +81,10 @@ pub struct RunArgs {
     /// Write the sheet's `plot` lines as SVG: the first to FILE, the next to FILE-2.svg, …
     #[arg(long, value_name = "FILE.svg")]
     pub plot: Option<PathBuf>,
+    /// After the table, show the working of each computed line: the expression, the values put
+    /// in, the result, and the formula of each built-in relation with its source
+    #[arg(long)]
+    pub working: bool,
     #[command(flatten)]
     pub limits: LimitArgs,
 }
@@ -147,6 +152,11 @@ pub enum Command {
         /// A sheet to load first (created by `:save` if it does not exist)
         file: Option<String>,
     },
+    /// Serve the language server protocol over standard input and output, for editors
+    #[command(
+        after_help = "Editors start it themselves; the README shows the set-up for Neovim, Helix and VS Code."
+    )]
+    Lsp,
     /// Print a shell completion script (bash, zsh, fish or powershell) to standard output
     #[command(
         after_help = "Examples:\n  fluxsheet completions bash > ~/.local/share/bash-completion/completions/fluxsheet\n  fluxsheet completions zsh > \"${fpath[1]}/_fluxsheet\"\n  fluxsheet completions fish > ~/.config/fish/completions/fluxsheet.fish"
@@ -196,6 +206,10 @@ fn expression_argument(text: &str) -> Result<String, String> {
 /// closed pipe (`run bad.fxs | head -1`): the commands finish and the exit code is still the
 /// sheet's.
 pub fn run(command_line: CommandLine) -> u8 {
+    // The language server owns standard input and output for the protocol.
+    if let Some(Command::Lsp) = &command_line.command {
+        return crate::lsp::run();
+    }
     let options = command_line.output.options();
     let mut out = PipeSafe::new(io::stdout().lock());
     let Some(command) = &command_line.command else {
@@ -216,6 +230,8 @@ pub fn run(command_line: CommandLine) -> u8 {
             properties::run(&mut out, arguments, &command_line.output)
         }
         Command::Repl { file } => crate::repl::run(file.as_deref(), options, &mut out),
+        // Served above, before standard output is locked.
+        Command::Lsp => Ok(exit::OK),
         Command::Completions { shell } => {
             let mut definition = <CommandLine as clap::CommandFactory>::command();
             clap_complete::generate(*shell, &mut definition, "fluxsheet", &mut out);
@@ -279,27 +295,41 @@ fn exit_code_for(evaluation: &Evaluation) -> u8 {
     }
 }
 
-/// Evaluates a sheet read from a file (or stdin when `path` is `None`) with its includes under
-/// the folder sandbox; warnings become errors with `deny`. Shared by `run`, `check`, `report`.
-pub(crate) fn evaluate_file(
-    source: &SheetSource,
-    path: Option<&Path>,
-    allow_outside: bool,
-    deny: bool,
-    settings: &Settings,
-) -> Evaluation {
-    evaluate_file_reading(source, path, allow_outside, deny, settings).0
+/// Every input of a run: the main sheet, then the included sheets and data files, each with
+/// its SHA-256 (the JSON `inputs` and the report's input table).
+pub(crate) fn all_inputs(source: &SheetSource, read: &ReadInputs) -> Vec<InputFile> {
+    let main = InputFile {
+        path: Path::new(&source.label)
+            .file_name()
+            .map_or(source.label.clone(), |name| {
+                name.to_string_lossy().into_owned()
+            }),
+        sha256: render::report::sha256_hex(source.text.as_bytes()),
+        bytes: source.text.len(),
+    };
+    std::iter::once(main)
+        .chain(read.hashed.iter().cloned())
+        .collect()
 }
 
-/// [`evaluate_file`], with every file the run read: the sheet, its includes and data files
-/// (the inputs an output file must not replace).
+/// The files a run read besides the main sheet: canonical paths (which no output may
+/// replace) and, for the record, each file's hash.
+pub(crate) struct ReadInputs {
+    pub paths: Vec<PathBuf>,
+    pub hashed: Vec<InputFile>,
+}
+
+/// Evaluates a sheet read from a file (or stdin when `path` is `None`) with its includes under
+/// the folder sandbox; warnings become errors with `deny`. Shared by `run`, `check`, `report`.
+/// Returns every file the run read: the sheet, its includes and data files (the inputs an
+/// output file must not replace), with their hashes.
 pub(crate) fn evaluate_file_reading(
     source: &SheetSource,
     path: Option<&Path>,
     allow_outside: bool,
     deny: bool,
     settings: &Settings,
-) -> (Evaluation, Vec<PathBuf>) {
+) -> (Evaluation, ReadInputs) {
     let mut loader =
         crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside);
     let mut evaluation = evaluate_with(
@@ -312,12 +342,13 @@ pub(crate) fn evaluate_file_reading(
     if deny {
         deny_warnings(&mut evaluation);
     }
-    let inputs = path
+    let paths = path
         .map(Path::to_path_buf)
         .into_iter()
         .chain(loader.files_read().iter().cloned())
         .collect();
-    (evaluation, inputs)
+    let hashed = loader.inputs().to_vec();
+    (evaluation, ReadInputs { paths, hashed })
 }
 
 /// `NAME=VALUE` pairs of `--set`, checked for shape (the names are checked against the sheet).
@@ -382,7 +413,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         }
         worst = worst.max(exit_code_for(&evaluation));
         if let Some(target) = &arguments.plot {
-            match plots::write_plots(&evaluation, target, &inputs) {
+            match plots::write_plots(&evaluation, target, &inputs.paths) {
                 Ok(written) => {
                     for file in written {
                         crate::stderr_line!("wrote {}", file.display());
@@ -395,7 +426,11 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             }
         }
         if options.format == Format::Json {
-            let sheet = sheet_json(Some(&source.label), &evaluation);
+            let sheet = sheet_json(
+                Some(&source.label),
+                &evaluation,
+                &all_inputs(&source, &inputs),
+            );
             json_sheets.push(serde_json::to_value(sheet).map_err(io::Error::other)?);
             continue;
         }
@@ -406,6 +441,11 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             writeln!(out, "{}", source.label)?;
         }
         render::table::write_sheet(out, &evaluation, options)?;
+        if arguments.working {
+            let working =
+                render::working::working(&evaluation, Builtins::standard(), options.digits);
+            render::working::write_text(out, &working)?;
+        }
         if !evaluation.diagnostics.is_empty() {
             out.flush()?;
             render::write_diagnostics(

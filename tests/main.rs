@@ -8,12 +8,15 @@
 //! - `errors`: each error class on a small sheet, its exit code and rendered message.
 //! - `fitting`: `fit` lines recover known parameters from synthetic records; refusals.
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
+//! - `package`: the checker's package: working, input hashes, title block, sign-off,
+//!   `--against` across edits and moved folders, the project folder sandbox.
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robust_inputs`: the table of bad inputs (exit code and message for each), outputs that
 //!   never replace inputs, session saves that lose no line, closed pipes, signals.
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `trust_warnings`: warnings only where a mistake is likely; formulations cited by every relation.
+//! - `lsp`: the language server over stdio as an editor drives it, and Neovim headless.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
 //! - `trust`: no silent wrong numbers: temperatures, absolute zero, check boundaries, domains,
 //!   letter case of units, and an oracle over random sheets.
@@ -26,6 +29,8 @@ mod columns;
 mod errors;
 mod fitting;
 mod includes;
+mod lsp;
+mod package;
 mod plot;
 mod properties;
 mod reference;

@@ -352,7 +352,7 @@ impl<'l> Session<'l> {
                     .diagnostics
                     .push(Diagnostic::error(message, line.span));
             }
-            LineKind::Comment | LineKind::Heading(_) => {
+            LineKind::Comment | LineKind::Heading(_) | LineKind::Field(_) => {
                 let index = self.push(report.text.clone(), line);
                 report.outcome = Outcome::Added(index);
             }
@@ -996,6 +996,7 @@ fn for_each_expression<'a>(line: &'a Line, visit: &mut impl FnMut(&'a Expression
         | LineKind::Heading(_)
         | LineKind::Invalid
         | LineKind::Include(_)
+        | LineKind::Field(_)
         | LineKind::Plot(_) => {}
     }
 }
@@ -1040,6 +1041,8 @@ fn evaluate_line(
         LineKind::Blank => return (LineResult::Blank, Vec::new()),
         LineKind::Comment => return (LineResult::Comment, Vec::new()),
         LineKind::Heading(heading) => return (LineResult::Heading(heading.clone()), Vec::new()),
+        // A title-block field is kept and saved with the session, and has no value.
+        LineKind::Field(_) => return (LineResult::Blank, Vec::new()),
         // Settled when its sheet is loaded (see `follow_include`); refused as an entry.
         LineKind::Include(_) => {
             let message = "an include is followed when its sheet is loaded: `:load` the sheet";

@@ -127,6 +127,20 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
                 comment = inner_text(pair).map(|text| text.trim().to_string());
             }
             Rule::definition => kind = builder.definition(pair)?,
+            Rule::field_line => {
+                let mut field = Field {
+                    name: String::new(),
+                    text: String::new(),
+                };
+                for inner in pair.into_inner() {
+                    match inner.as_rule() {
+                        Rule::field_name => field.name = inner.as_str().to_string(),
+                        Rule::field_text => field.text = inner.as_str().trim().to_string(),
+                        _ => {}
+                    }
+                }
+                kind = LineKind::Field(field);
+            }
             Rule::include_line => {
                 for inner in pair.into_inner() {
                     match inner.as_rule() {
@@ -957,6 +971,9 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::EOI => "the end of the line",
         Rule::definition | Rule::display | Rule::check_line => "a line",
         Rule::quoted_path => "a quoted path",
+        Rule::field_name => {
+            "a field name (project, job, title, author, checker, date or revision) and `:`"
+        }
         Rule::list | Rule::list_item => "an expression",
         Rule::to_keyword | Rule::range_tail => "`to`",
         Rule::ranged => "an expression",
