@@ -1,0 +1,43 @@
+#!/bin/sh
+# Runs the fuzz targets one after another, one libFuzzer job at a time, each from the committed
+# corpus (seeds/TARGET) plus what earlier runs found (corpus/TARGET, not committed).
+#
+#   fuzz/run.sh                 every target, 10 minutes each
+#   fuzz/run.sh sheet 3600      one target for an hour
+#   fuzz/run.sh minimize        merge corpus/ into seeds/ keeping only inputs that add coverage
+#
+# Needs cargo-fuzz (`cargo install cargo-fuzz`). The toolchain is stable: RUSTC_BOOTSTRAP=1 lets
+# it take the sanitizer flags cargo-fuzz passes. A crash or hang is saved under artifacts/TARGET;
+# replay it with `cargo fuzz run TARGET artifacts/TARGET/FILE`, then add it to seeds/TARGET so
+# `cargo test` keeps it fixed.
+set -eu
+cd "$(dirname "$0")"
+export RUSTC_BOOTSTRAP=1
+TARGETS="sheet parsers session"
+
+fuzz_one() {
+    target=$1
+    seconds=$2
+    mkdir -p "corpus/$target" "seeds/$target"
+    cargo fuzz run "$target" "corpus/$target" "seeds/$target" -- \
+        -dict=fluxsheet.dict -max_total_time="$seconds" -timeout=10 -rss_limit_mb=2048 \
+        -max_len=4096 -print_final_stats=1
+}
+
+minimize() {
+    for target in $TARGETS; do
+        rm -rf "seeds/$target.new"
+        mkdir -p "seeds/$target.new"
+        cargo fuzz cmin "$target" "seeds/$target.new" \
+            "seeds/$target" "corpus/$target" -- -max_len=4096
+        rm -rf "seeds/$target"
+        mv "seeds/$target.new" "seeds/$target"
+        echo "$target: $(ls "seeds/$target" | wc -l) inputs kept"
+    done
+}
+
+case "${1:-all}" in
+    minimize) minimize ;;
+    all) for target in $TARGETS; do fuzz_one "$target" "${2:-600}"; done ;;
+    *) fuzz_one "$1" "${2:-600}" ;;
+esac
