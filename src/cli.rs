@@ -333,7 +333,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             Err(message) => {
                 worst = exit::SHEET_ERROR;
                 if options.format == Format::Json {
-                    json_sheets.push(serde_json::json!({ "file": file, "diagnostics": [unreadable_json(file, &message)] }));
+                    json_sheets.push(JsonSheet::Unreadable(serde_json::json!({ "file": file, "diagnostics": [unreadable_json(file, &message)] })));
                 } else {
                     eprintln!("error: {message}");
                 }
@@ -369,8 +369,10 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             }
         }
         if options.format == Format::Json {
-            let sheet = sheet_json(Some(&source.label), &evaluation);
-            json_sheets.push(serde_json::to_value(sheet).map_err(io::Error::other)?);
+            json_sheets.push(JsonSheet::Evaluated {
+                label: source.label,
+                evaluation,
+            });
             continue;
         }
         if files.len() > 1 {
@@ -390,18 +392,48 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         }
     }
     if options.format == Format::Json {
-        let document = if json_sheets.len() == 1 {
-            json_sheets.remove(0)
-        } else {
-            serde_json::Value::Array(json_sheets)
-        };
-        writeln!(
-            out,
-            "{}",
-            serde_json::to_string_pretty(&document).map_err(io::Error::other)?
-        )?;
+        write_json_sheets(out, &json_sheets)?;
     }
     Ok(worst)
+}
+
+/// A sheet of `run --format json`, kept until every file is read so that several sheets make
+/// one array.
+enum JsonSheet {
+    Evaluated {
+        label: String,
+        evaluation: Evaluation,
+    },
+    Unreadable(serde_json::Value),
+}
+
+/// Writes one sheet's JSON object, or an array of several, straight to `out`: a column's
+/// numbers are converted as they are written, never collected into a JSON tree first.
+fn write_json_sheets(out: &mut dyn Write, sheets: &[JsonSheet]) -> io::Result<()> {
+    #[derive(serde::Serialize)]
+    #[serde(untagged)]
+    enum Document<'e> {
+        Evaluated(render::json::SheetJson<'e>),
+        Unreadable(&'e serde_json::Value),
+    }
+    let documents: Vec<Document> = sheets
+        .iter()
+        .map(|sheet| match sheet {
+            JsonSheet::Evaluated { label, evaluation } => {
+                Document::Evaluated(sheet_json(Some(label), evaluation))
+            }
+            JsonSheet::Unreadable(value) => Document::Unreadable(value),
+        })
+        .collect();
+    let mut buffered = io::BufWriter::new(out);
+    match documents.as_slice() {
+        [one] => serde_json::to_writer_pretty(&mut buffered, one),
+        all => serde_json::to_writer_pretty(&mut buffered, all),
+    }
+    // `From` keeps an I/O error's kind (a closed pipe stays one).
+    .map_err(io::Error::from)?;
+    writeln!(buffered)?;
+    buffered.flush()
 }
 
 fn unreadable_json(file: &str, message: &str) -> DiagnosticJson {

@@ -476,7 +476,7 @@ struct SheetCheckJson {
     values: usize,
     checks: usize,
     passed_checks: usize,
-    failed_checks: Vec<CheckJson>,
+    failed_checks: Vec<CheckJson<'static>>,
     diagnostics: Vec<DiagnosticJson>,
     #[serde(skip_serializing_if = "Option::is_none")]
     moved: Option<Vec<MovedJson>>,
