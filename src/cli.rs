@@ -6,6 +6,7 @@ use crate::eval::warnings::deny_warnings;
 use crate::eval::{
     evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
 };
+use crate::front::limits::{FileKind, ReadLimits};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, DiagnosticJson};
 use crate::render::{self, Format, RenderOptions};
@@ -13,7 +14,7 @@ use crate::units::unit::{catalog_entries, prefixes};
 use crate::units::Dimension;
 use clap::{Args, Parser, Subcommand, ValueEnum};
 use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
-use std::io::{self, IsTerminal, Read, Write};
+use std::io::{self, IsTerminal, Write};
 use std::path::{Path, PathBuf};
 
 mod against;
@@ -94,13 +95,31 @@ pub struct LimitArgs {
     /// Longest column a sheet may make (ranges, lists, data files)
     #[arg(long, value_name = "ROWS", default_value_t = crate::eval::columns::DEFAULT_MAX_ROWS)]
     pub max_rows: usize,
+    /// Most rows all of a sheet's columns may hold together
+    #[arg(long, value_name = "ROWS", default_value_t = crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS)]
+    pub max_total_rows: usize,
+    /// Largest sheet file, included sheet or standard input, in bytes
+    #[arg(long, value_name = "BYTES", default_value_t = crate::front::limits::DEFAULT_MAX_SHEET_BYTES)]
+    pub max_sheet_bytes: u64,
+    /// Largest data file (`column … from`), in bytes
+    #[arg(long, value_name = "BYTES", default_value_t = crate::front::limits::DEFAULT_MAX_DATA_BYTES)]
+    pub max_data_bytes: u64,
 }
 
 impl LimitArgs {
     pub fn settings(&self) -> Settings {
         Settings {
             max_rows: self.max_rows,
+            max_total_rows: self.max_total_rows,
             overrides: Vec::new(),
+        }
+    }
+
+    /// The sizes of the files a command may read.
+    pub fn read_limits(&self) -> crate::front::limits::ReadLimits {
+        crate::front::limits::ReadLimits {
+            sheet_bytes: self.max_sheet_bytes,
+            data_bytes: self.max_data_bytes,
         }
     }
 }
@@ -240,21 +259,16 @@ pub(crate) struct SheetSource {
     pub text: String,
 }
 
-pub(crate) fn read_sheet(file: &str) -> Result<SheetSource, String> {
+/// Reads the sheet `file` (`-`: standard input), refusing one larger than `limits` allow.
+pub(crate) fn read_sheet(file: &str, limits: &ReadLimits) -> Result<SheetSource, String> {
     if file == "-" {
-        let mut text = String::new();
-        io::stdin()
-            .read_to_string(&mut text)
-            .map_err(|error| format!("cannot read standard input: {error}"))?;
+        let text = limits.read_text(io::stdin().lock(), "<stdin>", FileKind::Sheet)?;
         return Ok(SheetSource {
             label: "<stdin>".to_string(),
             text,
         });
     }
-    let bytes =
-        std::fs::read(Path::new(file)).map_err(|error| format!("cannot read `{file}`: {error}"))?;
-    let text = String::from_utf8(bytes)
-        .map_err(|_| format!("cannot read `{file}`: it is not UTF-8 text"))?;
+    let text = limits.read_file(Path::new(file), file, FileKind::Sheet)?;
     Ok(SheetSource {
         label: file.to_string(),
         text,
@@ -279,9 +293,11 @@ pub(crate) fn evaluate_file(
     allow_outside: bool,
     deny: bool,
     settings: &Settings,
+    limits: &ReadLimits,
 ) -> Evaluation {
     let mut loader =
-        crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside);
+        crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside)
+            .with_limits(*limits);
     let mut evaluation = evaluate_with(
         &source.label,
         &source.text,
@@ -314,6 +330,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let files = &arguments.files;
     let (allow_outside, deny) = (arguments.allow_outside, arguments.deny_warnings);
     let mut settings = arguments.limits.settings();
+    let read_limits = arguments.limits.read_limits();
     settings.overrides = match parse_overrides(&arguments.overrides) {
         Ok(overrides) => overrides,
         Err(message) => {
@@ -328,7 +345,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let mut worst = exit::OK;
     let mut json_sheets = Vec::new();
     for (index, file) in files.iter().enumerate() {
-        let source = match read_sheet(file) {
+        let source = match read_sheet(file, &read_limits) {
             Ok(source) => source,
             Err(message) => {
                 worst = exit::SHEET_ERROR;
@@ -341,7 +358,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             }
         };
         let path = (file != "-").then(|| Path::new(file.as_str()));
-        let evaluation = evaluate_file(&source, path, allow_outside, deny, &settings);
+        let evaluation = evaluate_file(&source, path, allow_outside, deny, &settings, &read_limits);
         if evaluation
             .diagnostics
             .iter()

@@ -6,6 +6,7 @@ use super::against::{compare, Earlier, Moved};
 use super::{exit, exit_code_for, read_sheet, unreadable_json, SheetSource};
 use crate::eval::warnings::warning_count;
 use crate::eval::{Evaluation, LineResult, Severity};
+use crate::front::limits::{FileKind, ReadLimits};
 use crate::render::json::{diagnostics_json, value_json, CheckJson, DiagnosticJson};
 use crate::render::table::check_text;
 use crate::render::{self, Format, RenderOptions};
@@ -130,17 +131,15 @@ fn walk(directory: &Path, found: &mut Vec<PathBuf>, problems: &mut Vec<Target>) 
 }
 
 /// Reads a sheet from its path (or standard input).
-fn read_target(target: &Target) -> Result<SheetSource, String> {
+fn read_target(target: &Target, limits: &ReadLimits) -> Result<SheetSource, String> {
     if let Some(problem) = &target.problem {
         return Err(problem.clone());
     }
     let Some(path) = &target.path else {
-        return read_sheet("-");
+        return read_sheet("-", limits);
     };
     let label = &target.label;
-    let bytes = std::fs::read(path).map_err(|error| format!("cannot read `{label}`: {error}"))?;
-    let text = String::from_utf8(bytes)
-        .map_err(|_| format!("cannot read `{label}`: it is not UTF-8 text"))?;
+    let text = limits.read_file(path, label, FileKind::Sheet)?;
     Ok(SheetSource {
         label: label.clone(),
         text,
@@ -243,7 +242,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
     let color = !json && io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
     let mut reports = Vec::with_capacity(targets.len());
     for target in &targets {
-        let read = read_target(target);
+        let read = read_target(target, &arguments.limits.read_limits());
         let report = match read {
             Err(message) => SheetReport {
                 label: target.label.clone(),
@@ -261,6 +260,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     arguments.allow_outside,
                     arguments.deny_warnings,
                     &arguments.limits.settings(),
+                    &arguments.limits.read_limits(),
                 );
                 let mut code = exit_code_for(&evaluation);
                 let (moved, no_earlier) = match &earlier {

@@ -247,6 +247,8 @@ pub fn evaluate_sheet(source: &str, library: &dyn Library) -> Evaluation {
 #[derive(Debug, Clone)]
 pub struct Settings {
     pub max_rows: usize,
+    /// The most rows all column-valued lines may hold together.
+    pub max_total_rows: usize,
     /// `(name, value text)`: the value replaces the line `name` for this run.
     pub overrides: Vec<(String, String)>,
 }
@@ -255,6 +257,7 @@ impl Default for Settings {
     fn default() -> Settings {
         Settings {
             max_rows: super::columns::DEFAULT_MAX_ROWS,
+            max_total_rows: super::columns::DEFAULT_MAX_TOTAL_ROWS,
             overrides: Vec::new(),
         }
     }
@@ -312,6 +315,7 @@ pub fn evaluate_with(
     } = loaded;
     let mut evaluator = Evaluator::new(&sources, &lines, library);
     evaluator.calculator.max_rows = settings.max_rows;
+    evaluator.calculator.row_budget = super::columns::RowBudget::new(settings.max_total_rows);
     evaluator.calculator.data_files = data_files;
     evaluator
         .diagnostics
@@ -366,7 +370,7 @@ impl Loaded {
             else {
                 continue;
             };
-            let table = match loader.load(path, label) {
+            let table = match loader.load_data(path, label) {
                 Err(message) => Err(message),
                 Ok(file) => self
                     .tables
@@ -537,6 +541,8 @@ pub(crate) struct Calculator<'l> {
     parameters: Vec<Vec<(String, Value)>>,
     /// The longest column allowed.
     pub(crate) max_rows: usize,
+    /// The rows the sheet's column-valued lines hold together, against `--max-total-rows`.
+    pub(crate) row_budget: super::columns::RowBudget,
     /// The data files the sheet reads, by the span of the path in each `column … from` line.
     pub(crate) data_files: HashMap<usize, Result<Arc<DataTable>, EvalError>>,
     /// Notes on how values were found (a solve's iterations), by expression span start.
@@ -936,6 +942,11 @@ impl<'a> Evaluator<'a> {
     }
 
     fn settle(&mut self, index: usize, outcome: Result<Shown, Failure>) {
+        let span = self.lines[index].span;
+        let outcome = outcome.and_then(|shown| {
+            self.calculator.row_budget.keep(&shown.value(), span)?;
+            Ok(shown)
+        });
         match outcome {
             Ok(shown) => {
                 self.slots[index] = Slot::Ready(shown.clone());
@@ -1036,6 +1047,7 @@ impl<'l> Calculator<'l> {
             unit_cache: HashMap::default(),
             parameters: Vec::new(),
             max_rows: super::columns::DEFAULT_MAX_ROWS,
+            row_budget: super::columns::RowBudget::new(super::columns::DEFAULT_MAX_TOTAL_ROWS),
             data_files: HashMap::default(),
             notes: HashMap::default(),
             data_by_path: HashMap::default(),
@@ -1353,7 +1365,7 @@ impl<'l> Calculator<'l> {
         span: Span,
         scope: &dyn Scope,
     ) -> Result<Value, Failure> {
-        use super::columns::{check_rows, spaced, stepped};
+        use super::columns::{allocate_rows, check_rows, spaced, stepped};
         use crate::syntax::Spacing;
         let from = self.scalar(&range.from, "the start of a range", scope)?;
         let to = self.scalar(&range.to, "the end of a range", scope)?;
@@ -1402,7 +1414,14 @@ impl<'l> Calculator<'l> {
                 }
                 let steps = (span_of_range / step.value * (1.0 + 1e-12) + 1e-9).floor() + 1.0;
                 let rows = check_rows(steps, self.max_rows, span)?;
-                stepped(from.value, to.value, rows, step.value)
+                self.row_budget.check(rows, span)?;
+                stepped(
+                    from.value,
+                    to.value,
+                    rows,
+                    step.value,
+                    allocate_rows(rows, span)?,
+                )
             }
             Spacing::Count { count, logarithmic } => {
                 let number = self.scalar(count, "the count of a range", scope)?;
@@ -1422,7 +1441,9 @@ impl<'l> Calculator<'l> {
                         range.from.span.to(range.to.span),
                     ));
                 }
-                spaced(from.value, to.value, rows, *logarithmic)
+                self.row_budget.check(rows, count.span)?;
+                let values = allocate_rows(rows, count.span)?;
+                spaced(from.value, to.value, rows, *logarithmic, values)
             }
         };
         Ok(Value::Column(Column {

@@ -608,7 +608,7 @@ impl<'l> Session<'l> {
         };
         if let crate::syntax::ExpressionKind::FileColumn { path, .. } = &definition.expression.kind
         {
-            let text = loader.load(path, label).map(|file| file.text);
+            let text = loader.load_data(path, label).map(|file| file.text);
             self.provide_data_file(path, text);
         }
     }

@@ -3,6 +3,7 @@
 //! no `..` above it, no symbolic link out of it) unless the user passes `--allow-outside`, so
 //! running a colleague's sheet cannot read arbitrary files.
 
+use super::limits::{FileKind, ReadLimits};
 use crate::eval::{IncludeLoader, LoadedSheet};
 use std::collections::HashMap;
 use std::path::{Path, PathBuf};
@@ -15,6 +16,7 @@ pub struct FileIncludeLoader {
     allow_outside: bool,
     /// Folder of each loaded sheet, by label, to resolve its own includes.
     folders: HashMap<String, PathBuf>,
+    limits: ReadLimits,
 }
 
 impl FileIncludeLoader {
@@ -42,7 +44,14 @@ impl FileIncludeLoader {
             main_key,
             allow_outside,
             folders,
+            limits: ReadLimits::default(),
         }
+    }
+
+    /// The same loader with other file size limits than the defaults.
+    pub fn with_limits(mut self, limits: ReadLimits) -> FileIncludeLoader {
+        self.limits = limits;
+        self
     }
 }
 
@@ -52,6 +61,16 @@ impl IncludeLoader for FileIncludeLoader {
     }
 
     fn load(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String> {
+        self.load_file(path, from, FileKind::Sheet)
+    }
+
+    fn load_data(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String> {
+        self.load_file(path, from, FileKind::Data)
+    }
+}
+
+impl FileIncludeLoader {
+    fn load_file(&mut self, path: &str, from: &str, kind: FileKind) -> Result<LoadedSheet, String> {
         let requested = Path::new(path);
         if requested.is_absolute() && !self.allow_outside {
             return Err(format!(
@@ -71,10 +90,7 @@ impl IncludeLoader for FileIncludeLoader {
                 "`{path}` is outside the sheet's folder; pass --allow-outside to include it anyway"
             ));
         }
-        let bytes =
-            std::fs::read(&canonical).map_err(|error| format!("cannot read `{path}`: {error}"))?;
-        let text = String::from_utf8(bytes)
-            .map_err(|_| format!("cannot read `{path}`: it is not UTF-8 text"))?;
+        let text = self.limits.read_file(&canonical, path, kind)?;
         let label = joined.to_string_lossy().replace("/./", "/");
         let label = label.strip_prefix("./").unwrap_or(&label).to_string();
         let parent = joined
