@@ -148,7 +148,9 @@ mod tests {
 
     #[test]
     fn rows_written_one_at_a_time_look_like_the_listings() {
-        let cases: [(&[&str], Vec<Vec<&str>>, &[Align]); 3] = [
+        /// Header, rows and alignments of one table.
+        type Case<'a> = (&'a [&'a str], Vec<Vec<&'a str>>, &'a [Align]);
+        let cases: [Case; 3] = [
             (
                 &["line", "name", "value", "unit", "expression"],
                 vec![
