@@ -225,3 +225,32 @@ fn a_long_column_in_json_has_every_row_in_both_units() {
         );
     }
 }
+
+/// A chart of a long column draws a few points per pixel column, not a vertex per row.
+#[test]
+fn a_long_curve_is_drawn_as_few_points() {
+    let rows = 20_000;
+    let folder = folder_with(&[(
+        "sweep.fxs",
+        format!("x = 1 to {rows} count {rows}\ny = sqrt(x)\nplot y against x\n").as_bytes(),
+    )]);
+    let target = path_text(folder.path(), "sweep.svg");
+    let sheet = path_text(folder.path(), "sweep.fxs");
+    let (code, _, stderr) = run(&["run", "--format", "csv", &sheet, "--plot", &target]);
+    assert_eq!(code, 0, "{stderr}");
+    let svg = std::fs::read_to_string(&target).unwrap();
+    let document = roxmltree::Document::parse(&svg).unwrap();
+    let longest = document
+        .descendants()
+        .filter(|node| node.has_tag_name("polyline"))
+        .map(|node| {
+            node.attribute("points")
+                .unwrap_or("")
+                .split_whitespace()
+                .count()
+        })
+        .max()
+        .unwrap();
+    // The plot area is a few thousand canvas pixels wide: at most four points a column.
+    assert!((100..rows / 2).contains(&longest), "{longest} vertices");
+}

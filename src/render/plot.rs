@@ -792,7 +792,11 @@ where
         let colour = series_colour(position);
         let points = chart.x.iter().copied().zip(series.values.iter().copied());
         let coordinates = context.as_coord_spec();
-        let path = thinned_path(points.clone(), |point| coordinates.translate(point));
+        let path = if chart.x.len() > THIN_CURVES_ABOVE {
+            thinned_path(points.clone(), |point| coordinates.translate(point))
+        } else {
+            points.clone().collect()
+        };
         context.draw_series(std::iter::once(PathElement::new(
             path,
             colour.stroke_width(px(2)),
@@ -810,6 +814,10 @@ where
     }
     Ok(())
 }
+
+/// Curves longer than this are thinned (`thinned_path`); shorter ones keep a vertex per row,
+/// as a reader of the SVG expects.
+const THIN_CURVES_ABOVE: usize = 10_000;
 
 /// The points of a curve with each run of consecutive points on one pixel column reduced to
 /// its first, lowest, highest and last point, in their order: the line then covers the same
