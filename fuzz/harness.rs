@@ -5,7 +5,6 @@
 //! Inputs are split on NUL bytes into parts (a sheet, a sheet it includes, a data file), so one
 //! byte string reaches includes and data files without a file system.
 
-use fluxsheet::eval::evaluate::resolve_unit;
 use fluxsheet::eval::session::Session;
 use fluxsheet::eval::{evaluate, evaluate_with, IncludeLoader, LoadedSheet, NoIncludes, Settings};
 use fluxsheet::library::Builtins;
@@ -100,16 +99,22 @@ pub fn sheet_in_every_format(data: &[u8]) {
         }
     }
     let mut diagnostics = codespan_reporting::term::termcolor::NoColor::new(io::sink());
-    render::write_diagnostics(&mut diagnostics, &evaluation.sources, &evaluation.diagnostics)
-        .expect("a sink accepts everything");
+    render::write_diagnostics(
+        &mut diagnostics,
+        &evaluation.sources,
+        &evaluation.diagnostics,
+    )
+    .expect("a sink accepts everything");
 }
 
 /// The unit and expression parsers on one text, each entry point in turn, and the `eval`
 /// command's evaluation of it.
 pub fn parsers(data: &[u8]) {
     let text = String::from_utf8_lossy(data);
-    if let Ok(unit) = parse_unit(&text) {
-        let _ = resolve_unit(&unit);
+    if parse_unit(&text).is_ok() {
+        // A unit that parses is resolved (lookup, prefixes, algebra) by the evaluator.
+        let sheet = format!("x [{text}] = 1 {text}");
+        let _ = evaluate("<unit>", &sheet, Builtins::standard(), &mut NoIncludes);
     }
     let _ = Unit::lookup(&text);
     let _ = parse_expression(&text);

@@ -7,18 +7,19 @@ use crate::eval::{
     evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
 };
 use crate::front::limits::{FileKind, ReadLimits};
+use crate::front::streams::{error_stream, PipeSafe};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, DiagnosticJson};
 use crate::render::{self, Format, RenderOptions};
 use crate::units::unit::{catalog_entries, prefixes};
 use crate::units::Dimension;
 use clap::{Args, Parser, Subcommand, ValueEnum};
-use codespan_reporting::term::termcolor::{ColorChoice, StandardStream};
-use std::io::{self, IsTerminal, Write};
+use std::io::{self, Write};
 use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
+mod output_file;
 mod plots;
 mod properties;
 mod report;
@@ -204,11 +205,12 @@ fn expression_argument(text: &str) -> Result<String, String> {
     }
 }
 
-/// Runs a parsed command line and returns the process exit code.
+/// Runs a parsed command line and returns the process exit code. Standard output tolerates a
+/// closed pipe (`run bad.fxs | head -1`): the commands finish and the exit code is still the
+/// sheet's.
 pub fn run(command_line: CommandLine) -> u8 {
     let options = command_line.output.options();
-    let stdout = io::stdout();
-    let mut out = stdout.lock();
+    let mut out = PipeSafe::new(io::stdout().lock());
     let Some(command) = &command_line.command else {
         return finish(crate::repl::run(None, options, &mut out), &mut out);
     };
@@ -235,22 +237,11 @@ pub fn run(command_line: CommandLine) -> u8 {
 fn finish(result: io::Result<u8>, out: &mut dyn Write) -> u8 {
     match result.and_then(|code| out.flush().map(|_| code)) {
         Ok(code) => code,
-        // A closed pipe (`| head`) is not a failure of ours.
-        Err(error) if error.kind() == io::ErrorKind::BrokenPipe => exit::OK,
         Err(error) => {
-            eprintln!("error: cannot write output: {error}");
+            crate::stderr_line!("error: cannot write output: {error}");
             exit::SHEET_ERROR
         }
     }
-}
-
-fn stderr_stream() -> StandardStream {
-    let color = if io::stderr().is_terminal() && std::env::var_os("NO_COLOR").is_none() {
-        ColorChoice::Auto
-    } else {
-        ColorChoice::Never
-    };
-    StandardStream::stderr(color)
 }
 
 /// A sheet's text and the name to show for it.
@@ -295,6 +286,19 @@ pub(crate) fn evaluate_file(
     settings: &Settings,
     limits: &ReadLimits,
 ) -> Evaluation {
+    evaluate_file_reading(source, path, allow_outside, deny, settings, limits).0
+}
+
+/// [`evaluate_file`], with every file the run read: the sheet, its includes and data files
+/// (the inputs an output file must not replace).
+pub(crate) fn evaluate_file_reading(
+    source: &SheetSource,
+    path: Option<&Path>,
+    allow_outside: bool,
+    deny: bool,
+    settings: &Settings,
+    limits: &ReadLimits,
+) -> (Evaluation, Vec<PathBuf>) {
     let mut loader =
         crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside)
             .with_limits(*limits);
@@ -308,7 +312,12 @@ pub(crate) fn evaluate_file(
     if deny {
         deny_warnings(&mut evaluation);
     }
-    evaluation
+    let inputs = path
+        .map(Path::to_path_buf)
+        .into_iter()
+        .chain(loader.files_read().iter().cloned())
+        .collect();
+    (evaluation, inputs)
 }
 
 /// `NAME=VALUE` pairs of `--set`, checked for shape (the names are checked against the sheet).
@@ -334,12 +343,12 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     settings.overrides = match parse_overrides(&arguments.overrides) {
         Ok(overrides) => overrides,
         Err(message) => {
-            eprintln!("error: {message}");
+            crate::stderr_line!("error: {message}");
             return Ok(exit::USAGE);
         }
     };
     if arguments.plot.is_some() && files.len() != 1 {
-        eprintln!("error: `--plot` draws the plots of one sheet; give one file");
+        crate::stderr_line!("error: `--plot` draws the plots of one sheet; give one file");
         return Ok(exit::USAGE);
     }
     let mut worst = exit::OK;
@@ -352,20 +361,21 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
                 if options.format == Format::Json {
                     json_sheets.push(JsonSheet::Unreadable(serde_json::json!({ "file": file, "diagnostics": [unreadable_json(file, &message)] })));
                 } else {
-                    eprintln!("error: {message}");
+                    crate::stderr_line!("error: {message}");
                 }
                 continue;
             }
         };
         let path = (file != "-").then(|| Path::new(file.as_str()));
-        let evaluation = evaluate_file(&source, path, allow_outside, deny, &settings, &read_limits);
+        let (evaluation, inputs) =
+            evaluate_file_reading(&source, path, allow_outside, deny, &settings, &read_limits);
         if evaluation
             .diagnostics
             .iter()
             .any(|diagnostic| diagnostic.code == Some(UNKNOWN_OVERRIDE))
         {
             render::write_diagnostics(
-                &mut stderr_stream(),
+                &mut error_stream(),
                 &evaluation.sources,
                 &evaluation.diagnostics,
             )?;
@@ -373,14 +383,14 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         }
         worst = worst.max(exit_code_for(&evaluation));
         if let Some(target) = &arguments.plot {
-            match plots::write_plots(&evaluation, target) {
+            match plots::write_plots(&evaluation, target, &inputs) {
                 Ok(written) => {
                     for file in written {
-                        eprintln!("wrote {}", file.display());
+                        crate::stderr_line!("wrote {}", file.display());
                     }
                 }
                 Err((code, message)) => {
-                    eprintln!("error: {message}");
+                    crate::stderr_line!("error: {message}");
                     worst = worst.max(code);
                 }
             }
@@ -402,7 +412,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         if !evaluation.diagnostics.is_empty() {
             out.flush()?;
             render::write_diagnostics(
-                &mut stderr_stream(),
+                &mut error_stream(),
                 &evaluation.sources,
                 &evaluation.diagnostics,
             )?;
@@ -486,7 +496,7 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
             )?;
         } else {
             render::write_diagnostics(
-                &mut stderr_stream(),
+                &mut error_stream(),
                 &evaluation.sources,
                 &evaluation.diagnostics,
             )?;
@@ -502,7 +512,7 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
         .cloned()
         .collect();
     if !warnings.is_empty() && !json {
-        render::write_diagnostics(&mut stderr_stream(), &evaluation.sources, &warnings)?;
+        render::write_diagnostics(&mut error_stream(), &evaluation.sources, &warnings)?;
     }
     let results: Vec<&LineResult> = evaluation
         .lines
@@ -538,7 +548,9 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
             Ok(exit_code_for(&evaluation))
         }
         _ => {
-            eprintln!("error: nothing to evaluate: give an expression such as `2 ft [m]`");
+            crate::stderr_line!(
+                "error: nothing to evaluate: give an expression such as `2 ft [m]`"
+            );
             Ok(exit::USAGE)
         }
     }
@@ -616,16 +628,16 @@ fn list_functions(
     for (name, builtin) in library.functions_sorted() {
         if keep(name) {
             let sources: Vec<String> = builtin
-                .formulations
+                .formulations()
                 .iter()
                 .map(|formulation| {
                     format!("{} [valid: {}]", formulation.citation, formulation.validity)
                 })
                 .collect();
             rows.push(vec![
-                builtin.signature.to_string(),
+                builtin.signature(),
                 "function".to_string(),
-                builtin.summary.to_string(),
+                builtin.summary().to_string(),
                 sources.join("; "),
             ]);
         }

@@ -31,7 +31,9 @@ fn main() -> ExitCode {
     let code = match worker.map(|handle| handle.join()) {
         Ok(Ok(code)) => code,
         _ => {
-            eprintln!("error: internal failure (please report it with the sheet that caused it)");
+            fluxsheet::stderr_line!(
+                "error: internal failure (please report it with the sheet that caused it)"
+            );
             exit::SHEET_ERROR
         }
     };

@@ -33,7 +33,9 @@ const PROMPT: &str = "fx> ";
 pub fn run(file: Option<&str>, options: RenderOptions, out: &mut dyn Write) -> io::Result<u8> {
     let library = Builtins::standard();
     let mut repl = Repl::new(library, options.digits);
-    let mut err = io::stderr();
+    // Whole lines at a time (a snippet is drawn in many small pieces), and a closed pipe ends
+    // no session.
+    let mut err = io::LineWriter::new(crate::front::streams::PipeSafe::new(io::stderr()));
     let terminal = io::stdin().is_terminal();
     if let Some(file) = file {
         if !repl.open(Path::new(file), out, &mut err)? {
@@ -231,6 +233,12 @@ struct Repl {
     errors: usize,
     /// Set when the session's names changed in a way a count does not show (`:clear`, `:load`).
     names_changed: bool,
+    /// How the loaded sheet's text differs from what `:save` would write over it: lines the
+    /// session left out, or names defined twice (collapsed to the last). `:save` refuses to
+    /// replace the sheet while this says something, so no line the user wrote is lost quietly.
+    file_losses: Vec<String>,
+    /// The loaded sheet ends its lines with CR LF; `:save` over it keeps that.
+    file_crlf: bool,
 }
 
 impl Repl {
@@ -242,6 +250,8 @@ impl Repl {
             file: None,
             errors: 0,
             names_changed: false,
+            file_losses: Vec::new(),
+            file_crlf: false,
         }
     }
 
@@ -625,6 +635,9 @@ impl Repl {
             found = true;
             writeln!(out, "{}  (function)", function.signature())?;
             writeln!(out, "  {}", function.summary())?;
+            for line in function.details() {
+                writeln!(out, "  {line}")?;
+            }
             for formulation in function.formulations() {
                 writeln!(out, "  formulation: {}", formulation.title)?;
                 writeln!(out, "    source: {}", formulation.citation)?;
@@ -797,6 +810,31 @@ impl Repl {
         }
         if was_empty {
             self.file = Some(path.to_path_buf());
+            self.file_crlf = text.contains("\r\n");
+            self.file_losses = Vec::new();
+            let left_out = report
+                .rejected
+                .iter()
+                .filter(|(sheet, ..)| *sheet == label)
+                .map(|(_, number, ..)| number.to_string())
+                .collect::<Vec<_>>();
+            if !left_out.is_empty() {
+                self.file_losses.push(format!(
+                    "it would drop line(s) {} (left out)",
+                    left_out.join(", ")
+                ));
+            }
+            if !report.replaced.is_empty() {
+                let names: Vec<String> = report
+                    .replaced
+                    .iter()
+                    .map(|(_, name)| format!("`{name}`"))
+                    .collect();
+                self.file_losses.push(format!(
+                    "it would keep one line of {} (defined more than once)",
+                    names.join(", ")
+                ));
+            }
         }
         Ok(true)
     }
@@ -830,10 +868,28 @@ impl Repl {
                 ),
             );
         }
-        let sheet = self.session.to_sheet();
+        if own_file && !force && !self.file_losses.is_empty() {
+            return self.fail(
+                err,
+                &format!(
+                    "`:save` does not replace `{}`: {}; save to another file (`:save other.fxs`), or `:save --force` to replace it anyway",
+                    target.display(),
+                    self.file_losses.join("; ")
+                ),
+            );
+        }
+        let mut sheet = self.session.to_sheet();
+        if own_file && self.file_crlf {
+            sheet = sheet.replace('\n', "\r\n");
+        }
         match std::fs::write(&target, &sheet) {
             Ok(()) => {
                 self.session.mark_saved();
+                if !own_file {
+                    self.file_crlf = false;
+                }
+                // What is on disk now is what the session holds.
+                self.file_losses.clear();
                 writeln!(
                     out,
                     "saved {} to {}",

@@ -634,7 +634,6 @@ fn column_error_paths_say_what_is_wrong() {
             "a = {1, 2} m\nb = 2 m ^ {1, 2}",
             "the exponent of a quantity with a unit",
         ),
-        ("x = -1.5e308 to 1.5e308 count 3", "not a finite number"),
         (
             "L = {1, 2} m\ncheck L <= 1 m within {1, 2} %",
             "a tolerance must be a single value",

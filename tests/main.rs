@@ -8,6 +8,8 @@
 //! - `errors`: each error class on a small sheet, its exit code and rendered message.
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
+//! - `robust_inputs`: the table of bad inputs (exit code and message for each), outputs that
+//!   never replace inputs, session saves that lose no line, closed pipes, signals.
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `trust_warnings`: warnings only where a mistake is likely; formulations cited by every relation.
@@ -29,6 +31,7 @@ mod plot;
 mod properties;
 mod reference;
 mod repl;
+mod robust_inputs;
 mod robust_memory;
 mod robustness;
 mod transport;

@@ -118,7 +118,7 @@ fn a_wrong_dimension_is_a_sheet_error_at_the_argument() {
     let diagnostic = &json["diagnostics"][0];
     assert_eq!(
         diagnostic["message"],
-        "`darcy_flux`: argument `K` must be a velocity (L T^-1), found a length (L)"
+        "`darcy_flux`: argument `K` must be a velocity (m/s), found a length (m)"
     );
     assert_eq!(diagnostic["column"], 12, "points at the first argument");
 
@@ -128,7 +128,7 @@ fn a_wrong_dimension_is_a_sheet_error_at_the_argument() {
     ]);
     assert_eq!(code, 3);
     assert!(
-        stderr.contains("argument `t` must be a time (T), found a length (L)"),
+        stderr.contains("argument `t` must be a time (s), found a length (m)"),
         "{stderr}"
     );
 }
@@ -182,4 +182,76 @@ fn the_listing_shows_the_relations_with_their_sources() {
     assert_eq!(code, 0);
     assert!(stdout.contains("theis_drawdown(Q, T, S, r, t)"), "{stdout}");
     assert!(stdout.contains("Theis, C. V., 1935"), "{stdout}");
+}
+
+/// The README's list of built-ins is written by hand; this keeps it complete: every relation's
+/// first form appears as its signature, and every other built-in by name.
+#[test]
+fn the_readme_lists_every_builtin() {
+    use fluxsheet::eval::Library;
+    let readme =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/README.md")).unwrap();
+    let library = fluxsheet::library::Builtins::standard();
+    let mut missing = Vec::new();
+    for relation in library.relations() {
+        let signature = library.function(relation.name).unwrap().signature();
+        let first_form = signature.split(" or ").next().unwrap();
+        if !readme.contains(&format!("`{first_form}`")) {
+            missing.push(first_form.to_string());
+        }
+    }
+    for (name, _) in library.functions_sorted() {
+        let as_word = |text: &str| {
+            text.split(|character: char| !(character.is_alphanumeric() || character == '_'))
+                .any(|word| word == name)
+        };
+        if !as_word(&readme) {
+            missing.push(name.to_string());
+        }
+    }
+    assert!(missing.is_empty(), "not in the README: {missing:?}");
+}
+
+#[test]
+fn fixed_unit_geomembrane_equations_take_any_units_of_the_right_dimension() {
+    // Giroud (1997) is fitted in m^2, m and m/s: a hole of 100 mm^2 under 300 mm of head on
+    // 60 cm of clay at 1e-7 cm/s must leak what the SI inputs give, in any result unit.
+    let trade =
+        si_value("geomembrane_leakage_good_contact(100 mm^2, 300 mm, 60 cm, 1e-7 cm/s) [L/d]");
+    let base = si_value("geomembrane_leakage_good_contact(1e-4 m^2, 0.3 m, 0.6 m, 1e-9 m/s)");
+    assert_close(trade, base, 1e-14, "same leakage in trade units");
+    let fitted = 0.21
+        * (1.0 + 0.1 * 0.5_f64.powf(0.95))
+        * 1e-4_f64.powf(0.1)
+        * 0.3_f64.powf(0.9)
+        * 1e-9_f64.powf(0.74);
+    assert_close(
+        base,
+        fitted,
+        1e-13,
+        "Giroud 1997 in its fitted units (m^3/s)",
+    );
+}
+
+#[test]
+fn a_liner_sheet_couples_retardation_dispersion_and_breakthrough() {
+    // Kd in mL/g and bulk density in g/cm^3: R = 1 + 1.7 * 2 / 0.35 (Freeze & Cherry 1979
+    // eq. 9.14, hand arithmetic); the retarded plug-flow time is R times the unretarded one.
+    let sheet = "\
+R = retardation_factor(1.7 g/cm^3, 2 mL/g, 0.35)
+t_plain [yr] = liner_breakthrough_time(0.9 m, 0.03 m/yr, 0.35)
+t_retarded [yr] = liner_breakthrough_time(0.9 m, 0.03 m/yr, 0.35, R)
+D [m^2/s] = dispersion_coefficient(0.01 m, 0.03 m/yr / 0.35, 6e-10 m^2/s)
+c_half = ogata_banks(0.9 m, t_retarded, 0.03 m/yr / 0.35, D, R)
+";
+    let (code, stdout, stderr) = run_sheet(sheet, &["--format", "json"]);
+    assert_eq!(code, 0, "{stderr}{stdout}");
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    let line = |index: usize| json["lines"][index]["value"].as_f64().unwrap();
+    let retardation = 1.0 + 1.7 * 2.0 / 0.35;
+    assert_close(line(0), retardation, 1e-14, "R");
+    assert_close(line(2), line(1) * retardation, 1e-14, "retarded time");
+    // At the retarded advective time the first Ogata–Banks term is erfc(0) = 1: c/c0 is one
+    // half plus the (positive) second term.
+    assert!(line(4) > 0.5 && line(4) < 1.0, "{}", line(4));
 }

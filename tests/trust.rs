@@ -443,6 +443,107 @@ const OUT_OF_DOMAIN: &[(&str, &str, &str)] = &[
         "water_viscosity(20 degC, 0 Pa)",
         "positive",
     ),
+    (
+        "consolidation_coefficient",
+        "consolidation_coefficient(1e-9 m/s, -0.5 m^2/MN)",
+        "positive",
+    ),
+    (
+        "consolidation_degree",
+        "consolidation_degree(-0.1)",
+        "negative",
+    ),
+    (
+        "consolidation_time",
+        "consolidation_time(1, 1.3 m^2/yr, 2.5 m)",
+        "(0, 1)",
+    ),
+    (
+        "constrained_modulus",
+        "constrained_modulus(8 MPa, 0.5)",
+        "0.5",
+    ),
+    (
+        "diffusion_front_depth",
+        "diffusion_front_depth(30 yr, 5e-10 m^2/s, 1)",
+        "(0, 1)",
+    ),
+    (
+        "dispersion_coefficient",
+        "dispersion_coefficient(-0.5 m, 0.3 m/d, 1e-9 m^2/s)",
+        "negative",
+    ),
+    (
+        "geomembrane_leakage_free_flow",
+        "geomembrane_leakage_free_flow(1 cm^2, 0.3 m, 1.2)",
+        "(0, 1]",
+    ),
+    (
+        "geomembrane_leakage_good_contact",
+        "geomembrane_leakage_good_contact(1 cm^2, 0.3 m, 0 m, 1e-9 m/s)",
+        "positive",
+    ),
+    (
+        "geomembrane_leakage_poor_contact",
+        "geomembrane_leakage_poor_contact(1 cm^2, -0.3 m, 0.6 m, 1e-9 m/s)",
+        "negative",
+    ),
+    (
+        "half_space_diffusion",
+        "half_space_diffusion(0.5 m, 0 yr, 5e-10 m^2/s)",
+        "positive",
+    ),
+    ("hooke_stress", "hooke_stress(-8 MPa, 0.5 %)", "positive"),
+    (
+        "liner_breakthrough_time",
+        "liner_breakthrough_time(0.9 m, -0.03 m/yr, 0.38)",
+        "positive",
+    ),
+    (
+        "liner_solute_flux",
+        "liner_solute_flux(0.03 m/yr, 1500 mg/L, 0.9 m, 1.2, 6.7e-10 m^2/s)",
+        "(0, 1]",
+    ),
+    (
+        "ogata_banks",
+        "ogata_banks(20 m, 1 yr, 0.1 m/d, 0 m^2/s)",
+        "positive",
+    ),
+    (
+        "ogata_banks_decay",
+        "ogata_banks_decay(20 m, 1 yr, 0.1 m/d, 2e-5 m^2/s, 1.5, -0.1 1/yr)",
+        "negative",
+    ),
+    (
+        "peclet_number",
+        "peclet_number(0.1 m/yr, -0.9 m, 6e-10 m^2/s)",
+        "negative",
+    ),
+    (
+        "primary_settlement",
+        "primary_settlement(0.45, 1.3, 0 kPa, 60 kPa, 5 m)",
+        "positive",
+    ),
+    (
+        "retardation_factor",
+        "retardation_factor(1.8 g/cm^3, -0.5 L/kg, 0.35)",
+        "negative",
+    ),
+    (
+        "retarded_velocity",
+        "retarded_velocity(0.3 m/d, 0)",
+        "positive",
+    ),
+    (
+        "time_factor",
+        "time_factor(1.3 m^2/yr, -2 yr, 2.5 m)",
+        "negative",
+    ),
+    (
+        "volume_compressibility",
+        "volume_compressibility(1.12, 1.20, 100 kPa)",
+        "fall",
+    ),
 ];
 
 #[test]

@@ -354,3 +354,139 @@ fn core_sweep_pins() {
         "T_design",
     );
 }
+
+/// erf by Simpson's rule on 2/sqrt(pi) exp(-s^2), independent of the library's erfc.
+fn erf_by_quadrature(x: f64) -> f64 {
+    let steps = 20_000;
+    let width = x / steps as f64;
+    let density = |s: f64| (-s * s).exp();
+    let mut sum = density(0.0) + density(x);
+    for step in 1..steps {
+        let weight = if step % 2 == 1 { 4.0 } else { 2.0 };
+        sum += weight * density(step as f64 * width);
+    }
+    sum * width / 3.0 * 2.0 / std::f64::consts::PI.sqrt()
+}
+
+/// Giroud's (1997) equations in their fitted units (m^2, m, m/s -> m^3/s), the orifice,
+/// q = K (h + t)/t, the steady liner flux q c0 / (1 - exp(-Pe)), plug-flow breakthrough and
+/// the Ogata–Banks form as published (finite at this Peclet number), all from the sheet's inputs.
+#[test]
+fn composite_liner_cell_pins() {
+    let json = run_json(&worksheet("composite_liner_cell.fxs"));
+    let (k, t, n, h, a) = (1e-9_f64, 0.6_f64, 0.40_f64, 0.3_f64, 1e-4_f64);
+    let day = 86_400.0;
+    let year = 365.25 * day;
+    let hectare = 10_000.0;
+    let giroud = |contact: f64| {
+        contact * (1.0 + 0.1 * (h / t).powf(0.95)) * a.powf(0.1) * h.powf(0.9) * k.powf(0.74)
+    };
+    let (good, poor) = (giroud(0.21), giroud(1.15));
+    let litres_per_day = 1000.0 * day;
+    assert_close(
+        value(&json, "Q_hole_good"),
+        good * litres_per_day,
+        1e-12,
+        "good",
+    );
+    assert_close(
+        value(&json, "Q_hole_poor"),
+        poor * litres_per_day,
+        1e-12,
+        "poor",
+    );
+    let free = 0.6 * a * (2.0 * 9.80665 * h).sqrt();
+    assert_close(
+        value(&json, "Q_hole_free"),
+        free * litres_per_day,
+        1e-12,
+        "free",
+    );
+    // 2.5 holes per hectare; the leakage per hectare in L/(ha*d).
+    assert_close(
+        value(&json, "leak_poor"),
+        poor * 2.5 * litres_per_day,
+        1e-12,
+        "per ha",
+    );
+    assert_close(
+        value(&json, "Q_cell_poor"),
+        poor * 2.5 / hectare * 32_000.0 * year,
+        1e-12,
+        "cell",
+    );
+    let q = k * (h + t) / t;
+    assert_close(value(&json, "q_clay"), q * year, 1e-12, "q_clay");
+    let de = 0.33 * 2.03e-9;
+    let peclet = q / n * t / de;
+    assert_close(value(&json, "Pe_clay"), peclet, 1e-12, "Pe");
+    let c0 = 2.5; // 2500 mg/L in kg/m^3
+    let flux = q * c0 / (1.0 - (-peclet).exp()); // kg/(m^2 s)
+    assert_close(value(&json, "J_chloride"), flux * 1000.0 * year, 1e-12, "J");
+    let by_hand = q * c0 + n * de * c0 / t;
+    assert_close(
+        value(&json, "overstatement"),
+        (by_hand / flux - 1.0) * 100.0,
+        1e-10,
+        "overstatement",
+    );
+    assert_close(
+        value(&json, "t_breakthrough"),
+        n * t / q / year,
+        1e-12,
+        "t_bt",
+    );
+    let (v, time) = (q / n, 5.0 * year);
+    let spread = 2.0 * (de * time).sqrt();
+    let erfc = |x: f64| 1.0 - erf_by_quadrature(x);
+    let relative =
+        0.5 * (erfc((t - v * time) / spread) + (v * t / de).exp() * erfc((t + v * time) / spread));
+    assert_close(
+        value(&json, "c_base_5yr"),
+        2500.0 * relative,
+        1e-9,
+        "c_base",
+    );
+}
+
+/// Terzaghi's series summed here, M = E(1 - nu)/((1 + nu)(1 - 2 nu)), m_v = 1/M,
+/// c_v = K / (m_v 1000 g0), settlements by both forms, from the sheet's inputs.
+#[test]
+fn embankment_settlement_pins() {
+    let json = run_json(&worksheet("embankment_settlement.fxs"));
+    let degree = |factor: f64| {
+        let mut remaining = 0.0;
+        for m in 0..2000 {
+            let eigenvalue = std::f64::consts::PI * (2.0 * m as f64 + 1.0) / 2.0;
+            remaining += 2.0 / eigenvalue.powi(2) * (-eigenvalue.powi(2) * factor).exp();
+        }
+        1.0 - remaining
+    };
+    let year = 365.25 * 86_400.0;
+    let dsigma = 3.0 * 19e3;
+    let modulus = 1e6 * 0.7 / (1.3 * 0.4);
+    assert_close(value(&json, "M_clay"), modulus / 1e6, 1e-14, "M");
+    let m_v = 1.0 / modulus;
+    assert_close(value(&json, "m_v"), m_v * 1e6, 1e-14, "m_v");
+    assert_close(value(&json, "sigma_back"), dsigma / 1e3, 1e-14, "Hooke");
+    assert_close(
+        value(&json, "s_primary"),
+        m_v * dsigma * 6.0 * 1e3,
+        1e-13,
+        "s",
+    );
+    let by_index = 0.25 * 6.0 / 2.2 * ((30e3 + dsigma) / 30e3_f64).log10();
+    assert_close(
+        value(&json, "s_compression_index"),
+        by_index * 1e3,
+        1e-13,
+        "Cc",
+    );
+    let c_v = 5e-10 / (m_v * 1000.0 * 9.80665);
+    assert_close(value(&json, "c_v"), c_v * year, 1e-13, "c_v");
+    let factor_at_t90 = c_v * value(&json, "t_90") * year / 9.0;
+    assert_close(degree(factor_at_t90), 0.9, 1e-10, "U at t_90");
+    let factor_1yr = c_v * year / 9.0;
+    assert_close(value(&json, "T_1yr"), factor_1yr, 1e-13, "T_1yr");
+    assert_close(value(&json, "U_1yr"), degree(factor_1yr), 1e-12, "U_1yr");
+}

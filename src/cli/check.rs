@@ -99,7 +99,7 @@ fn targets(paths: &[String]) -> Vec<Target> {
 }
 
 /// Collects `.fxs` files under `directory`. Symbolic links to folders are not followed (no
-/// loops); links to files are.
+/// loops); links to files are, and a link to nothing is an unreadable sheet, not skipped.
 fn walk(directory: &Path, found: &mut Vec<PathBuf>, problems: &mut Vec<Target>) {
     let entries = match std::fs::read_dir(directory) {
         Ok(entries) => entries,
@@ -123,7 +123,8 @@ fn walk(directory: &Path, found: &mut Vec<PathBuf>, problems: &mut Vec<Target>) 
         if kind.is_dir() {
             walk(&path, found, problems);
         } else if path.extension().is_some_and(|extension| extension == "fxs")
-            && (kind.is_file() || path.is_file())
+            // A dangling link is kept: reading it fails, and `check` says so.
+            && (kind.is_file() || (kind.is_symlink() && !path.is_dir()))
         {
             found.push(path);
         }
@@ -230,7 +231,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
         Some(path) => match Earlier::load(path) {
             Ok(earlier) => Some(earlier),
             Err(message) => {
-                eprintln!("error: {message}");
+                crate::stderr_line!("error: {message}");
                 return Ok(exit::SHEET_ERROR);
             }
         },

@@ -2,6 +2,7 @@
 //! to FILE, the next to FILE-2.svg and so on, so one option names them all.
 
 use super::exit;
+use super::output_file::{refuse_output, write_atomically};
 use crate::eval::{Evaluation, LineResult, PlotOutcome};
 use crate::render::plot::plot_svg;
 use std::path::{Path, PathBuf};
@@ -32,9 +33,15 @@ fn numbered(target: &Path, index: usize) -> PathBuf {
     target.with_file_name(format!("{stem}-{}.{extension}", index + 1))
 }
 
-/// Writes every chart; the error carries the exit code (2: nothing to plot, 3: a chart cannot
-/// be drawn or written).
-pub fn write_plots(evaluation: &Evaluation, target: &Path) -> Result<Vec<PathBuf>, (u8, String)> {
+/// Writes every chart; the error carries the exit code (2: nothing to plot, or a file that may
+/// not be written; 3: a chart cannot
+/// be drawn or written). No chart replaces an input of the run (`inputs`): the sheet, an
+/// included sheet or a data file.
+pub fn write_plots(
+    evaluation: &Evaluation,
+    target: &Path,
+    inputs: &[PathBuf],
+) -> Result<Vec<PathBuf>, (u8, String)> {
     let charts = plots(evaluation);
     if charts.is_empty() {
         let message = if evaluation.has_errors() {
@@ -44,12 +51,20 @@ pub fn write_plots(evaluation: &Evaluation, target: &Path) -> Result<Vec<PathBuf
         };
         return Err((exit::USAGE, message.to_string()));
     }
+    // Every chart's file is checked before any is written.
+    for index in 0..charts.len() {
+        refuse_output(&numbered(target, index), inputs)
+            .map_err(|message| (exit::USAGE, message))?;
+    }
     let mut written = Vec::new();
     for (index, (line, chart)) in charts.into_iter().enumerate() {
         let svg = plot_svg(chart)
             .map_err(|error| (exit::SHEET_ERROR, format!("plot on line {line}: {error}")))?;
         let file = numbered(target, index);
-        std::fs::write(&file, svg).map_err(|error| {
+        write_atomically(&file, |output| {
+            std::io::Write::write_all(output, svg.as_bytes())
+        })
+        .map_err(|error| {
             (
                 exit::SHEET_ERROR,
                 format!("cannot write `{}`: {error}", file.display()),

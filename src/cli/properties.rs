@@ -164,11 +164,11 @@ pub fn run(out: &mut dyn Write, arguments: &PropertiesArgs, output: &OutputArgs)
         Ok(()) => Ok(exit::OK),
         Err(TableError::Io(error)) => Err(error),
         Err(TableError::Usage(message)) => {
-            eprintln!("error: {message}");
+            crate::stderr_line!("error: {message}");
             Ok(exit::USAGE)
         }
         Err(TableError::Range(message)) => {
-            eprintln!("error: {message}");
+            crate::stderr_line!("error: {message}");
             Ok(exit::SHEET_ERROR)
         }
     }

@@ -288,7 +288,16 @@ pub(crate) fn spaced(
         let (low, high) = (from.ln(), to.ln());
         values.extend((0..count).map(|row| (low + (high - low) * row as f64 / last).exp()));
     } else {
-        values.extend((0..count).map(|row| from + (to - from) * row as f64 / last));
+        let width = to - from;
+        values.extend((0..count).map(|row| {
+            let fraction = row as f64 / last;
+            if width.is_finite() {
+                from + width * fraction
+            } else {
+                // Ends near the largest double: their difference overflows, a blend does not.
+                from * (1.0 - fraction) + to * fraction
+            }
+        }));
     }
     if let Some(first) = values.first_mut() {
         *first = from;

@@ -2,7 +2,7 @@
 //! expression. All wording is in the one `Display` below.
 
 use super::diagnostic::Diagnostic;
-use super::function::{describe_dimension, CallError};
+use super::function::CallError;
 use super::value::OffsetScale;
 use crate::syntax::Span;
 use crate::units::Dimension;
@@ -103,6 +103,8 @@ pub enum EvalErrorKind {
         sides: Dimension,
     },
     NegativeTolerance,
+    /// A relative tolerance of 100 % or more: any value of the right sign would pass.
+    ToleranceTooLarge,
     Call {
         function: String,
         error: CallError,
@@ -128,6 +130,10 @@ pub enum EvalErrorKind {
     },
     Include {
         message: String,
+    },
+    /// An include chain deeper than [`super::INCLUDE_DEPTH_LIMIT`].
+    IncludeTooDeep {
+        limit: usize,
     },
     IncludeCycle {
         chain: Vec<String>,
@@ -264,25 +270,6 @@ impl EvalError {
     }
 }
 
-/// `a velocity (m/s)`, the wording of dimension errors.
-fn with_unit(dimension: &Dimension) -> String {
-    match dimension.quantity_name() {
-        Some("dimensionless") => "a dimensionless number".to_string(),
-        Some(name) => {
-            let article = if name.starts_with(['a', 'e', 'i', 'o', 'u']) {
-                "an"
-            } else {
-                "a"
-            };
-            format!("{article} {name} ({})", dimension.preferred_si_unit())
-        }
-        None => format!(
-            "a quantity of dimension {dimension} ({})",
-            dimension.preferred_si_unit()
-        ),
-    }
-}
-
 impl fmt::Display for EvalError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
         self.kind.fmt(formatter)?;
@@ -317,20 +304,20 @@ impl fmt::Display for EvalErrorKind {
                 write!(formatter, "circular definition: {}", path.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" -> "))
             }
             EvalErrorKind::DimensionMismatch { operation, left, right } => match operation {
-                Operation::Add => write!(formatter, "cannot add {} to {}", with_unit(right), with_unit(left)),
+                Operation::Add => write!(formatter, "cannot add {} to {}", right.phrase(), left.phrase()),
                 Operation::Subtract => {
-                    write!(formatter, "cannot subtract {} from {}", with_unit(right), with_unit(left))
+                    write!(formatter, "cannot subtract {} from {}", right.phrase(), left.phrase())
                 }
-                Operation::Compare => write!(formatter, "cannot compare {} with {}", with_unit(left), with_unit(right)),
+                Operation::Compare => write!(formatter, "cannot compare {} with {}", left.phrase(), right.phrase()),
             },
             EvalErrorKind::DisplayUnitMismatch { unit, unit_dimension, value_dimension } => write!(
                 formatter,
                 "cannot show {} in `{unit}`, which is {}",
-                with_unit(value_dimension),
-                describe_dimension(unit_dimension)
+                value_dimension.phrase(),
+                unit_dimension.phrase()
             ),
             EvalErrorKind::ExponentNotDimensionless { found } => {
-                write!(formatter, "an exponent must be dimensionless, found {}", with_unit(found))
+                write!(formatter, "an exponent must be dimensionless, found {}", found.phrase())
             }
             EvalErrorKind::ExponentNotRational { value } => write!(
                 formatter,
@@ -374,10 +361,13 @@ impl fmt::Display for EvalErrorKind {
             EvalErrorKind::ToleranceDimension { found, sides } => write!(
                 formatter,
                 "a tolerance must be a fraction (`1 %`) or {}, found {}",
-                with_unit(sides),
-                with_unit(found)
+                sides.phrase(),
+                found.phrase()
             ),
             EvalErrorKind::NegativeTolerance => formatter.write_str("a tolerance cannot be negative"),
+            EvalErrorKind::ToleranceTooLarge => formatter.write_str(
+                "a relative tolerance must be below 100 %: a larger one lets any value of the right sign pass (give an absolute tolerance with a unit instead)",
+            ),
             EvalErrorKind::Call { function, error } => write!(formatter, "`{function}`: {error}"),
             EvalErrorKind::SheetFunctionArguments { function, expected, found } => {
                 write!(formatter, "`{function}` takes {expected} argument(s), but {found} were given")
@@ -385,14 +375,14 @@ impl fmt::Display for EvalErrorKind {
             EvalErrorKind::ParameterDimension { function, parameter, expected, found } => write!(
                 formatter,
                 "`{function}`: parameter `{parameter}` must be {}, found {}",
-                with_unit(expected),
-                with_unit(found)
+                expected.phrase(),
+                found.phrase()
             ),
             EvalErrorKind::ResultDimension { function, expected, found } => write!(
                 formatter,
                 "`{function}` should give {}, but its body gives {}",
-                with_unit(expected),
-                with_unit(found)
+                expected.phrase(),
+                found.phrase()
             ),
             EvalErrorKind::RecursiveFunction { path } => write!(
                 formatter,
@@ -400,6 +390,10 @@ impl fmt::Display for EvalErrorKind {
                 path.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" -> ")
             ),
             EvalErrorKind::Include { message } => write!(formatter, "cannot include: {message}"),
+            EvalErrorKind::IncludeTooDeep { limit } => write!(
+                formatter,
+                "includes are nested more than {limit} sheets deep, the limit"
+            ),
             EvalErrorKind::IncludeCycle { chain } => write!(
                 formatter,
                 "include cycle: {}",

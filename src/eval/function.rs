@@ -7,7 +7,7 @@ use std::fmt;
 
 /// A published formulation (a standard, a correlation, a law) that built-ins implement. Kept
 /// here so that the evaluator can record which ones a sheet used.
-#[derive(Debug, PartialEq, Eq)]
+#[derive(Debug, PartialEq)]
 pub struct Formulation {
     /// Short stable identifier, e.g. `iapws-if97-region1`.
     pub id: &'static str,
@@ -17,6 +17,20 @@ pub struct Formulation {
     pub citation: &'static str,
     /// Validity range as published, in words and units.
     pub validity: &'static str,
+    /// The parameter ranges of `validity` that are plain bounds, as data: the evaluator refuses
+    /// a relation's arguments outside them. Bounds that depend on other arguments (a pressure
+    /// above saturation at T) stay in the formulation's code.
+    pub ranges: &'static [ValidRange],
+}
+
+/// A range of one parameter inside which a formulation was published as valid. Bounds are SI;
+/// `unit` is the unit the message states them in (`0.1 to 3 mm`).
+#[derive(Debug, PartialEq)]
+pub struct ValidRange {
+    pub parameter: &'static str,
+    pub low: f64,
+    pub high: f64,
+    pub unit: &'static str,
 }
 
 /// The formulations a sheet's calls used, in first-use order, without repeats.
@@ -40,12 +54,12 @@ impl Provenance {
 /// A built-in function callable from a sheet.
 pub trait Function: Sync {
     /// How it is called, e.g. `water_density(T[, p])`.
-    fn signature(&self) -> &'static str;
+    fn signature(&self) -> String;
     /// One line on what it computes.
     fn summary(&self) -> &'static str;
     /// The formulations behind it, for listings.
-    fn formulations(&self) -> &'static [&'static Formulation] {
-        &[]
+    fn formulations(&self) -> Vec<&'static Formulation> {
+        Vec::new()
     }
     fn call(
         &self,
@@ -72,6 +86,11 @@ pub trait Function: Sync {
     /// evaluator refuses it everywhere else, as it refuses it in a product.
     fn takes_absolute_temperature(&self) -> bool {
         false
+    }
+    /// Its parameters (meaning, dimension, domain, default) and an example call, one line
+    /// each, for `:about`, listings and editor hovers.
+    fn details(&self) -> Vec<String> {
+        Vec::new()
     }
 }
 
@@ -139,29 +158,13 @@ impl fmt::Display for CallError {
             } => write!(
                 formatter,
                 "argument `{parameter}` must be {}, found {}",
-                describe_dimension(expected),
-                describe_dimension(found)
+                expected.phrase(),
+                found.phrase()
             ),
             CallError::Domain { message, .. } | CallError::OutOfRange { message, .. } => {
                 formatter.write_str(message)
             }
         }
-    }
-}
-
-/// `a velocity (L T^-1)` or `L^(1/2)` for unnamed dimensions.
-pub fn describe_dimension(dimension: &Dimension) -> String {
-    match dimension.quantity_name() {
-        Some("dimensionless") => "dimensionless".to_string(),
-        Some(name) => format!("{} {name} ({dimension})", article(name)),
-        None => format!("of dimension {dimension}"),
-    }
-}
-
-fn article(word: &str) -> &'static str {
-    match word.chars().next() {
-        Some('a' | 'e' | 'i' | 'o' | 'u') => "an",
-        _ => "a",
     }
 }
 

@@ -23,5 +23,7 @@ pub use evaluate::{
     LineResult, PlotOutcome, Settings, Shown, ShownColumn, ShownValue, UNKNOWN_OVERRIDE,
 };
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
-pub use sources::{IncludeLoader, LoadedSheet, NoIncludes, SourceFile, SourceMap};
+pub use sources::{
+    IncludeLoader, LoadedSheet, NoIncludes, SourceFile, SourceMap, INCLUDE_DEPTH_LIMIT,
+};
 pub use value::{Column, Labels, Quantity, TemperatureKind, Value};

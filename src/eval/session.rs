@@ -144,7 +144,7 @@ struct Loading {
     /// Cycle keys and labels of the sheets on the way to the one being loaded.
     chain: Vec<(String, String)>,
     /// Cycle keys of the sheets included so far: each loads once.
-    loaded_keys: Vec<String>,
+    loaded_keys: std::collections::HashSet<String>,
 }
 
 /// The last result, for `_`.
@@ -452,7 +452,7 @@ impl<'l> Session<'l> {
             seeds: Vec::new(),
             defined: HashMap::new(),
             chain: vec![(loader.main_key(label), label.to_string())],
-            loaded_keys: Vec::new(),
+            loaded_keys: std::collections::HashSet::new(),
         };
         self.load_sheet(label, source, None, loader, &mut loading);
         let Loading {
@@ -479,6 +479,9 @@ impl<'l> Session<'l> {
         loader: &mut dyn IncludeLoader,
         loading: &mut Loading,
     ) {
+        let source = source
+            .strip_prefix(crate::syntax::BYTE_ORDER_MARK)
+            .unwrap_or(source);
         let mut raw_lines: Vec<&str> = source.split('\n').collect();
         if source.ends_with('\n') {
             raw_lines.pop();
@@ -575,12 +578,18 @@ impl<'l> Session<'l> {
                 chain.push(sheet.label);
                 Some(EvalError::new(EvalErrorKind::IncludeCycle { chain }, span))
             }
+            Ok(_) if loading.chain.len() > super::INCLUDE_DEPTH_LIMIT => {
+                let limit = super::INCLUDE_DEPTH_LIMIT;
+                Some(EvalError::new(
+                    EvalErrorKind::IncludeTooDeep { limit },
+                    span,
+                ))
+            }
             Ok(sheet) => {
                 self.lines[index].result = LineResult::Include {
                     file: sheet.label.clone(),
                 };
-                if !loading.loaded_keys.contains(&sheet.key) {
-                    loading.loaded_keys.push(sheet.key.clone());
+                if loading.loaded_keys.insert(sheet.key.clone()) {
                     loading.chain.push((sheet.key, sheet.label.clone()));
                     self.load_sheet(
                         &sheet.label,

@@ -17,9 +17,9 @@ const ROUNDING_LEVEL: f64 = 4.0 * f64::EPSILON;
 
 /// A scope with some lines' values replaced (the unknown's trial value, and the lines that
 /// depend on it).
-struct Overlay<'s> {
-    base: &'s dyn Scope,
-    values: &'s HashMap<String, Shown>,
+pub(super) struct Overlay<'s> {
+    pub(super) base: &'s dyn Scope,
+    pub(super) values: &'s HashMap<String, Shown>,
 }
 
 impl Scope for Overlay<'_> {

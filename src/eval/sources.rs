@@ -106,6 +106,10 @@ pub struct LoadedSheet {
     pub text: String,
 }
 
+/// Deepest chain of includes (a sheet including a sheet including …) accepted: far beyond
+/// any real project, and it keeps loading linear and off the stack's edge.
+pub const INCLUDE_DEPTH_LIMIT: usize = 64;
+
 /// Loads included sheets for the evaluator, applying the front end's rules (paths relative to
 /// the including sheet, no leaving its folder tree unless allowed).
 pub trait IncludeLoader {

@@ -17,6 +17,9 @@ pub struct FileIncludeLoader {
     /// Folder of each loaded sheet, by label, to resolve its own includes.
     folders: HashMap<String, PathBuf>,
     limits: ReadLimits,
+    /// Every file read (included sheets and data files), canonical: the inputs of the run,
+    /// which no output may overwrite.
+    files_read: Vec<PathBuf>,
 }
 
 impl FileIncludeLoader {
@@ -45,6 +48,7 @@ impl FileIncludeLoader {
             allow_outside,
             folders,
             limits: ReadLimits::default(),
+            files_read: Vec::new(),
         }
     }
 
@@ -52,6 +56,11 @@ impl FileIncludeLoader {
     pub fn with_limits(mut self, limits: ReadLimits) -> FileIncludeLoader {
         self.limits = limits;
         self
+    }
+
+    /// The files read so far (included sheets and data files), canonical.
+    pub fn files_read(&self) -> &[PathBuf] {
+        &self.files_read
     }
 }
 
@@ -91,6 +100,9 @@ impl FileIncludeLoader {
             ));
         }
         let text = self.limits.read_file(&canonical, path, kind)?;
+        if !self.files_read.contains(&canonical) {
+            self.files_read.push(canonical.clone());
+        }
         let label = joined.to_string_lossy().replace("/./", "/");
         let label = label.strip_prefix("./").unwrap_or(&label).to_string();
         let parent = joined

@@ -22,8 +22,12 @@ use uom::si::mass_density::kilogram_per_cubic_meter;
 use uom::si::pressure::pascal;
 use uom::si::thermodynamic_temperature::kelvin;
 
+use super::dimensions::{DENSITY, DYNAMIC_VISCOSITY, PRESSURE, TEMPERATURE};
+use super::formulation::refused;
 use super::formulation::{Formulation, OutOfRange};
+use super::relation::{arguments, Domain, Form, Parameter, Relation};
 use super::water::{check_temperature, out_of_range, pressure_text};
+use crate::eval::function::CallError;
 
 /// Sutherland's law for the viscosity of dry air.
 pub static SUTHERLAND_AIR: Formulation = Formulation {
@@ -35,6 +39,7 @@ Magazine 36, 507-531; constants for air as tabulated in White, F. M., Viscous Fl
 USAF)",
     validity: "170 K <= T <= 1900 K (about 2 % accuracy per White); pressure-independent, valid \
 for the dilute gas",
+    ranges: &[],
 };
 
 /// Ideal-gas density of dry air.
@@ -47,6 +52,7 @@ SI, CODATA 2018) and M = 0.0289647 kg/mol for dry air (U.S. Standard Atmosphere,
 2533:1975 tabulate 0.0289644 kg/mol)",
     validity: "200 K <= T <= 1900 K, 0 < p <= 1 MPa (compressibility factor within about 2 % of \
 1); dry air, no humidity",
+    ranges: &[],
 };
 
 const MU_REF: f64 = 1.716e-5;
@@ -110,6 +116,66 @@ pub fn density(t: ThermodynamicTemperature, p: Pressure) -> Result<MassDensity, 
     Ok(MassDensity::new::<kilogram_per_cubic_meter>(
         p_pa * M_AIR / (R_MOLAR * t_k),
     ))
+}
+
+// ---------------------------------------------------------------------------------------------
+// The sheet relations
+// ---------------------------------------------------------------------------------------------
+
+const AIR_TEMPERATURE: Parameter = Parameter::new(
+    "T",
+    "the air temperature",
+    TEMPERATURE,
+    Domain::AbsoluteTemperature,
+);
+
+pub static RELATIONS: &[Relation] = &[
+    Relation {
+        name: "air_viscosity",
+        summary: "dynamic viscosity of dry air (Sutherland's law)",
+        forms: &[Form {
+            parameters: &[AIR_TEMPERATURE],
+            result: DYNAMIC_VISCOSITY,
+            unit: "Pa*s",
+            formulations: &[&SUTHERLAND_AIR],
+            example: "air_viscosity(15 degC)",
+            body: viscosity_body,
+        }],
+    },
+    Relation {
+        name: "air_density",
+        summary: "density of dry air as an ideal gas",
+        forms: &[Form {
+            parameters: &[
+                AIR_TEMPERATURE,
+                Parameter::new("p", "the absolute pressure", PRESSURE, Domain::Any),
+            ],
+            result: DENSITY,
+            unit: "kg/m^3",
+            formulations: &[&IDEAL_GAS_DRY_AIR],
+            example: "air_density(15 degC, 101.325 kPa)",
+            body: density_body,
+        }],
+    },
+];
+
+fn viscosity_body(values: &[f64]) -> Result<f64, CallError> {
+    let [temperature] = arguments(values);
+    Ok(
+        viscosity(ThermodynamicTemperature::new::<kelvin>(temperature))
+            .map_err(refused)?
+            .value,
+    )
+}
+
+fn density_body(values: &[f64]) -> Result<f64, CallError> {
+    let [temperature, pressure] = arguments(values);
+    Ok(density(
+        ThermodynamicTemperature::new::<kelvin>(temperature),
+        Pressure::new::<pascal>(pressure),
+    )
+    .map_err(refused)?
+    .value)
 }
 
 #[cfg(test)]

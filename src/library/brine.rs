@@ -27,8 +27,13 @@ use uom::si::pressure::pascal;
 use uom::si::ratio::ratio;
 use uom::si::thermodynamic_temperature::kelvin;
 
+use super::dimensions::{DENSITY, DIMENSIONLESS, DYNAMIC_VISCOSITY, PRESSURE};
+use super::formulation::refused;
 use super::formulation::{Formulation, OutOfRange};
+use super::relation::{arguments, Domain, Form, Parameter, Relation};
+use super::water;
 use super::water::{check_liquid_pressure, check_temperature, fmt_num, out_of_range};
+use crate::eval::function::CallError;
 
 const BATZLE_WANG_CITATION: &str = "Batzle, M. and Wang, Z., 1992, Seismic properties of pore \
 fluids, Geophysics 57(11), 1396-1408";
@@ -41,6 +46,7 @@ pub static BATZLE_WANG_DENSITY: Formulation = Formulation {
     validity: "0 °C <= T <= 350 °C, p_sat,water(T) <= p <= 100 MPa, 0 <= S <= 0.3 NaCl mass \
 fraction (commonly quoted fitted range: 20-350 °C, 5-100 MPa; below 20 °C or 5 MPa is the \
 correlation's weakest part)",
+    ranges: &[],
 };
 
 /// Batzle & Wang brine viscosity, eq. 32 (no pressure dependence).
@@ -50,6 +56,7 @@ pub static BATZLE_WANG_VISCOSITY: Formulation = Formulation {
     citation: BATZLE_WANG_CITATION,
     validity: "0 °C <= T <= 250 °C, 0 <= S <= 0.3 NaCl mass fraction, liquid brine (the \
 correlation has no pressure term)",
+    ranges: &[],
 };
 
 const T_MIN: f64 = 273.15;
@@ -149,6 +156,69 @@ fn brine_density_g_cm3(t: f64, p: f64, s: f64) -> f64 {
 fn brine_viscosity_cp(t: f64, s: f64) -> f64 {
     let shape = 0.42 * (s.powf(0.8) - 0.17).powi(2) + 0.045;
     0.1 + 0.333 * s + (1.65 + 91.9 * s * s * s) * (-shape * t.powf(0.8)).exp()
+}
+
+// ---------------------------------------------------------------------------------------------
+// The sheet relations
+// ---------------------------------------------------------------------------------------------
+
+const SALINITY: Parameter = Parameter::new(
+    "S",
+    "the NaCl mass fraction (0.1, 10 % or 100000 ppm)",
+    DIMENSIONLESS,
+    Domain::Any,
+);
+
+pub static RELATIONS: &[Relation] = &[
+    Relation {
+        name: "brine_density",
+        summary: "density of NaCl brine; S is the NaCl mass fraction (0.1, 10 % or 100000 ppm)",
+        forms: &[Form {
+            parameters: &[
+                water::TEMPERATURE_PARAMETER,
+                Parameter::new("p", "the absolute pressure", PRESSURE, Domain::Any),
+                SALINITY,
+            ],
+            result: DENSITY,
+            unit: "kg/m^3",
+            formulations: &[&BATZLE_WANG_DENSITY],
+            example: "brine_density(80 degC, 20 MPa, 0.1)",
+            body: density_body,
+        }],
+    },
+    Relation {
+        name: "brine_viscosity",
+        summary: "dynamic viscosity of NaCl brine; S is the NaCl mass fraction",
+        forms: &[Form {
+            parameters: &[water::TEMPERATURE_PARAMETER, SALINITY],
+            result: DYNAMIC_VISCOSITY,
+            unit: "mPa*s",
+            formulations: &[&BATZLE_WANG_VISCOSITY],
+            example: "brine_viscosity(80 degC, 0.1)",
+            body: viscosity_body,
+        }],
+    },
+];
+
+fn density_body(values: &[f64]) -> Result<f64, CallError> {
+    let [temperature, pressure, salinity] = arguments(values);
+    Ok(density(
+        ThermodynamicTemperature::new::<kelvin>(temperature),
+        Pressure::new::<pascal>(pressure),
+        Ratio::new::<ratio>(salinity),
+    )
+    .map_err(refused)?
+    .value)
+}
+
+fn viscosity_body(values: &[f64]) -> Result<f64, CallError> {
+    let [temperature, salinity] = arguments(values);
+    Ok(viscosity(
+        ThermodynamicTemperature::new::<kelvin>(temperature),
+        Ratio::new::<ratio>(salinity),
+    )
+    .map_err(refused)?
+    .value)
 }
 
 #[cfg(test)]

@@ -1,46 +1,20 @@
-//! Functions of whole columns: aggregates, effective coefficients of layered media, and
-//! interpolation in a table of two columns. The numerics are in `crate::numeric`; this module
+//! Functions of whole columns: aggregates and interpolation in a table of two columns (the
+//! layered media are in `layered`). The numerics are in `crate::numeric`; this module
 //! checks dimensions once per column and carries them to the result.
 
 use super::Builtin;
 use crate::eval::function::CallError;
-use crate::eval::{Column, Formulation, Provenance, Quantity, TemperatureKind, Value};
+use crate::eval::{Column, Provenance, Quantity, TemperatureKind, Value};
 use crate::numeric::{self, ColumnError, Interpolation, InterpolationTable};
 use crate::units::Dimension;
 use std::sync::Arc;
 
-// Section and equation numbers of Freeze & Cherry are from memory, as in `numeric`.
-
-/// Layers in parallel: the same gradient in every layer, the fluxes add. Holds for any of the
-/// four transport coefficients, since Darcy, Fick, Fourier and Ohm share one form.
-pub static LAYERED_ALONG: Formulation = Formulation {
-    id: "layered-along",
-    title: "effective coefficient for flow along layers, K = sum(K_i b_i) / sum(b_i)",
-    citation: "Freeze, R. A. and Cherry, J. A., 1979, Groundwater, Prentice-Hall, Englewood \
-Cliffs NJ, section 2.4, eq. 2.31",
-    validity: "steady flow parallel to the layers, each layer homogeneous; coefficients \
-K_i >= 0, thicknesses b_i > 0",
-};
-
-/// Layers in series: the same flux through every layer, the potential drops add.
-pub static LAYERED_ACROSS: Formulation = Formulation {
-    id: "layered-across",
-    title: "effective coefficient for flow across layers, K = sum(b_i) / sum(b_i / K_i)",
-    citation: "Freeze, R. A. and Cherry, J. A., 1979, Groundwater, Prentice-Hall, Englewood \
-Cliffs NJ, section 2.4, eq. 2.32",
-    validity: "steady flow perpendicular to the layers, each layer homogeneous; coefficients \
-K_i > 0, thicknesses b_i > 0",
-};
-
-// A `static`, as in `transport`: the layered entries cite formulation statics inline.
-pub static FUNCTIONS: &[(&str, Builtin)] = &[
+pub const FUNCTIONS: &[(&str, Builtin)] = &[
     ("sum", Builtin::on_columns("sum(values)", "sum of a column's rows (compensated summation)", one_value, sum)),
     ("mean", Builtin::on_columns("mean(values)", "arithmetic mean of a column", one_value, mean).taking_temperature()),
     ("geomean", Builtin::on_columns("geomean(values)", "geometric mean of a column of positive values (the usual average of permeabilities of a log-normal sample)", one_value, geomean)),
     ("harmean", Builtin::on_columns("harmean(values)", "harmonic mean of a column of positive values", one_value, harmean)),
     ("count", Builtin::on_columns("count(values)", "number of rows of a column (1 for a single value)", count_one, count).taking_temperature()),
-    ("layered_along", Builtin::on_columns("layered_along(coefficient, thickness)", "effective coefficient for flow along layers: sum(K b) / sum(b) (Freeze & Cherry 1979, eq. 2.31)", not_columns, layered_along).citing(&[&LAYERED_ALONG])),
-    ("layered_across", Builtin::on_columns("layered_across(coefficient, thickness)", "effective coefficient for flow across layers: sum(b) / sum(b / K) (Freeze & Cherry 1979, eq. 2.32)", not_columns, layered_across).citing(&[&LAYERED_ACROSS])),
     ("interpolate", Builtin::on_columns("interpolate(xs, ys, x)", "y at x, linear between the rows of a table of columns xs, ys; outside the table is an error", not_columns, interpolate_linear).taking_temperature()),
     ("interpolate_log", Builtin::on_columns("interpolate_log(xs, ys, x)", "y at x with ln y linear in x (for values spanning decades); ys positive; outside the table is an error", not_columns, interpolate_log).taking_temperature()),
 ];
@@ -61,7 +35,7 @@ fn count_one(arguments: &[Quantity], _: &mut Provenance) -> Result<Quantity, Cal
 }
 
 /// Table and layer functions need columns; a call with values alone is refused.
-fn not_columns(_: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
+pub(super) fn not_columns(_: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError> {
     Err(CallError::Domain {
         argument: Some(0),
         message: "needs columns (a list, a range or a data-file column), not single values"
@@ -69,18 +43,18 @@ fn not_columns(_: &[Quantity], _: &mut Provenance) -> Result<Quantity, CallError
     })
 }
 
-fn count_error(found: usize, expected: &'static str) -> CallError {
+pub(super) fn count_error(found: usize, expected: &'static str) -> CallError {
     CallError::ArgumentCount { expected, found }
 }
 
 /// A column's numbers with its dimension and temperature kind; a single value is one row.
-struct Rows<'a> {
-    values: &'a [f64],
-    dimension: Dimension,
-    temperature: TemperatureKind,
+pub(super) struct Rows<'a> {
+    pub(super) values: &'a [f64],
+    pub(super) dimension: Dimension,
+    pub(super) temperature: TemperatureKind,
 }
 
-fn rows(value: &Value, argument: usize) -> Result<Rows<'_>, CallError> {
+pub(super) fn rows(value: &Value, argument: usize) -> Result<Rows<'_>, CallError> {
     match value {
         Value::Scalar(quantity) => Ok(Rows {
             values: std::slice::from_ref(&quantity.value),
@@ -99,7 +73,7 @@ fn rows(value: &Value, argument: usize) -> Result<Rows<'_>, CallError> {
     }
 }
 
-fn numeric_error(argument: usize) -> impl Fn(ColumnError) -> CallError {
+pub(super) fn numeric_error(argument: usize) -> impl Fn(ColumnError) -> CallError {
     move |error| CallError::Domain {
         argument: Some(argument),
         message: error.to_string(),
@@ -114,7 +88,7 @@ fn single<'a>(arguments: &'a [Value]) -> Result<Rows<'a>, CallError> {
     }
 }
 
-fn scalar(value: f64, dimension: Dimension, temperature: TemperatureKind) -> Value {
+pub(super) fn scalar(value: f64, dimension: Dimension, temperature: TemperatureKind) -> Value {
     Value::Scalar(Quantity {
         value,
         dimension,
@@ -177,66 +151,6 @@ pub fn column_minimum(arguments: &[Value], _: &mut Provenance) -> Option<Result<
 
 pub fn column_maximum(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {
     extreme(arguments, numeric::maximum)
-}
-
-/// The coefficient and thickness columns of a layered medium.
-fn layers(arguments: &[Value]) -> Result<(Rows<'_>, Rows<'_>), CallError> {
-    let [coefficient, thickness] = arguments else {
-        return Err(count_error(arguments.len(), "2 (coefficient, thickness)"));
-    };
-    let (coefficient, thickness) = (rows(coefficient, 0)?, rows(thickness, 1)?);
-    if thickness.dimension != Dimension::LENGTH {
-        return Err(CallError::WrongDimension {
-            argument: 1,
-            parameter: "thickness",
-            expected: Dimension::LENGTH,
-            found: thickness.dimension,
-        });
-    }
-    Ok((coefficient, thickness))
-}
-
-/// An effective coefficient of layers: the coefficient's dimension, no temperature kind. The
-/// formulation is recorded once the layers are accepted.
-fn layered(
-    arguments: &[Value],
-    mean: fn(&[f64], &[f64]) -> Result<f64, ColumnError>,
-    formulation: &'static Formulation,
-    provenance: &mut Provenance,
-) -> Option<Result<Value, CallError>> {
-    Some(layers(arguments).and_then(|(coefficient, thickness)| {
-        let value = mean(coefficient.values, thickness.values).map_err(numeric_error(0))?;
-        provenance.record(formulation);
-        Ok(scalar(
-            value,
-            coefficient.dimension,
-            TemperatureKind::Unspecified,
-        ))
-    }))
-}
-
-fn layered_along(
-    arguments: &[Value],
-    provenance: &mut Provenance,
-) -> Option<Result<Value, CallError>> {
-    layered(
-        arguments,
-        numeric::layered_along,
-        &LAYERED_ALONG,
-        provenance,
-    )
-}
-
-fn layered_across(
-    arguments: &[Value],
-    provenance: &mut Provenance,
-) -> Option<Result<Value, CallError>> {
-    layered(
-        arguments,
-        numeric::layered_across,
-        &LAYERED_ACROSS,
-        provenance,
-    )
 }
 
 fn interpolate_linear(arguments: &[Value], _: &mut Provenance) -> Option<Result<Value, CallError>> {

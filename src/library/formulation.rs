@@ -25,3 +25,11 @@ impl fmt::Display for OutOfRange {
 }
 
 impl std::error::Error for OutOfRange {}
+
+/// A formulation's refusal, as a call error that names its range.
+pub fn refused(error: OutOfRange) -> crate::eval::CallError {
+    crate::eval::CallError::OutOfRange {
+        argument: None,
+        message: error.to_string(),
+    }
+}

@@ -1,17 +1,34 @@
-//! Built-in functions and constants: mathematics, fluid properties (`water`, `brine`, `air`
-//! formulations typed with `uom`, exposed through `properties`), the transport laws and the
-//! relations around them (`transport`, `wells`), and constants. One entry per function:
-//! signature, summary, formulations, and the body.
+//! Built-in relations, functions and constants, in families by physics: flow (Darcy),
+//! diffusion, solute transport, heat, electrical, laboratory tests, liners, consolidation,
+//! wells, water, brine, air; plus
+//! mathematics, functions of whole columns, and constants.
+//!
+//! A relation is one declarative entry (`relation::Relation`): its parameters with dimensions
+//! and domains, its result, its formulations and a body over checked SI numbers; everything
+//! else (checks, provenance, signature, row kernel) follows from the entry. The few built-ins
+//! that are polymorphic in dimension (`sqrt`, `min`, `max`, `kelvin`, the aggregates) are a
+//! `Builtin`, the escape hatch, whose body checks its own arguments.
 //!
 //! `library` implements `eval::Library`; it knows nothing of syntax, files or output.
 
 pub mod air;
 pub mod brine;
 pub mod columns;
+pub mod consolidation;
 pub mod constants;
+pub mod diffusion;
+pub mod dimensions;
+pub mod electrical;
+pub mod flow;
 pub mod formulation;
+pub mod heat;
+pub mod laboratory;
+pub mod layered;
+pub mod liners;
 pub mod math;
-pub mod properties;
+pub mod relation;
+#[cfg(test)]
+mod testing;
 pub mod transport;
 pub mod water;
 pub mod wells;
@@ -33,7 +50,8 @@ pub type ColumnBody = fn(&[Value], &mut Provenance) -> Option<Result<Value, Call
 /// Builds the row kernel of a function for arguments shaped like the first row.
 pub type KernelMaker = fn(&[Quantity]) -> Option<RowKernel<'static>>;
 
-/// A built-in function described by data.
+/// A built-in polymorphic in dimension (`sqrt`, `min`, an aggregate): the escape hatch for what
+/// a `Relation`, with one dimension per parameter, cannot say. Its body checks its arguments.
 pub struct Builtin {
     pub signature: &'static str,
     pub summary: &'static str,
@@ -90,16 +108,16 @@ impl Builtin {
 }
 
 impl Function for Builtin {
-    fn signature(&self) -> &'static str {
-        self.signature
+    fn signature(&self) -> String {
+        self.signature.to_string()
     }
 
     fn summary(&self) -> &'static str {
         self.summary
     }
 
-    fn formulations(&self) -> &'static [&'static Formulation] {
-        self.formulations
+    fn formulations(&self) -> Vec<&'static Formulation> {
+        self.formulations.to_vec()
     }
 
     fn call(
@@ -128,19 +146,34 @@ impl Function for Builtin {
     }
 }
 
-/// Every built-in function, by family.
-fn all_functions() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
+/// Every relation, by family.
+fn all_relations() -> impl Iterator<Item = &'static relation::Relation> {
+    flow::RELATIONS
+        .iter()
+        .chain(diffusion::RELATIONS)
+        .chain(transport::RELATIONS)
+        .chain(heat::RELATIONS)
+        .chain(electrical::RELATIONS)
+        .chain(laboratory::RELATIONS)
+        .chain(liners::RELATIONS)
+        .chain(consolidation::RELATIONS)
+        .chain(wells::RELATIONS)
+        .chain(water::RELATIONS)
+        .chain(brine::RELATIONS)
+        .chain(air::RELATIONS)
+}
+
+/// Every built-in that is not a relation: mathematics and functions of whole columns.
+fn all_builtins() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
     math::FUNCTIONS
         .iter()
-        .chain(properties::FUNCTIONS)
         .chain(columns::FUNCTIONS.iter())
-        .chain(transport::FUNCTIONS.iter())
-        .chain(wells::FUNCTIONS.iter())
+        .chain(layered::FUNCTIONS.iter())
 }
 
 /// The standard library handed to the evaluator.
 pub struct Builtins {
-    functions: HashMap<&'static str, &'static Builtin>,
+    functions: HashMap<&'static str, &'static dyn Function>,
     constants: HashMap<&'static str, &'static Constant>,
 }
 
@@ -148,26 +181,38 @@ impl Builtins {
     /// The shared instance; built on first use.
     pub fn standard() -> &'static Builtins {
         static BUILTINS: OnceLock<Builtins> = OnceLock::new();
-        BUILTINS.get_or_init(|| Builtins {
-            functions: all_functions()
-                .map(|(name, builtin)| (*name, builtin))
-                .collect(),
-            constants: constants::constants()
-                .iter()
-                .map(|constant| (constant.name, constant))
-                .collect(),
+        BUILTINS.get_or_init(|| {
+            let mut functions: HashMap<&'static str, &'static dyn Function> = HashMap::new();
+            for relation in all_relations() {
+                functions.insert(relation.name, relation);
+            }
+            for (name, builtin) in all_builtins() {
+                functions.insert(name, builtin);
+            }
+            Builtins {
+                functions,
+                constants: constants::constants()
+                    .iter()
+                    .map(|constant| (constant.name, constant))
+                    .collect(),
+            }
         })
     }
 
     /// Functions sorted by name, for listings.
-    pub fn functions_sorted(&self) -> Vec<(&'static str, &'static Builtin)> {
+    pub fn functions_sorted(&self) -> Vec<(&'static str, &'static dyn Function)> {
         let mut list: Vec<_> = self
             .functions
             .iter()
-            .map(|(name, builtin)| (*name, *builtin))
+            .map(|(name, function)| (*name, *function))
             .collect();
         list.sort_by_key(|(name, _)| *name);
         list
+    }
+
+    /// The relations, for listings that show parameters and examples.
+    pub fn relations(&self) -> impl Iterator<Item = &'static relation::Relation> {
+        all_relations()
     }
 
     pub fn constants_sorted(&self) -> Vec<&'static Constant> {
@@ -177,11 +222,23 @@ impl Builtins {
     }
 }
 
+/// A number with about three significant figures for messages: `0.0512`, `12.3`, `1.23e-7`.
+pub(crate) fn three_figures(value: f64) -> String {
+    let magnitude = value.abs();
+    if magnitude != 0.0 && !(1e-3..1e5).contains(&magnitude) {
+        return format!("{value:.2e}");
+    }
+    let decimals = if magnitude == 0.0 {
+        0
+    } else {
+        (2 - magnitude.log10().floor() as i32).max(0) as usize
+    };
+    format!("{value:.decimals$}")
+}
+
 impl Library for Builtins {
     fn function(&self, name: &str) -> Option<&dyn Function> {
-        self.functions
-            .get(name)
-            .map(|builtin| *builtin as &dyn Function)
+        self.functions.get(name).copied()
     }
 
     fn constant(&self, name: &str) -> Option<&Constant> {
@@ -194,5 +251,19 @@ impl Library for Builtins {
             .chain(self.constants.keys())
             .copied()
             .collect()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn three_figures_reads_well() {
+        assert_eq!(three_figures(0.0512), "0.0512");
+        assert_eq!(three_figures(12.34), "12.3");
+        assert_eq!(three_figures(1234.0), "1234");
+        assert_eq!(three_figures(1.234e-7), "1.23e-7");
+        assert_eq!(three_figures(0.0), "0");
     }
 }

@@ -6,13 +6,11 @@
 //! continued fraction above, both to full double precision. Q is positive for pumping; a
 //! negative Q (injection) gives a negative drawdown, a rise of head.
 
-use super::transport::{
-    domain, parameter, read_arguments, require_fraction, require_positive, three_figures,
-    AREA_PER_TIME, DIMENSIONLESS, LENGTH, TIME, VOLUME_FLOW_RATE,
-};
-use super::Builtin;
+use super::dimensions::{AREA_PER_TIME, DIMENSIONLESS, LENGTH, TIME, VOLUME_FLOW_RATE};
+use super::relation::{arguments, Domain, Form, Parameter, Relation};
+use super::three_figures;
 use crate::eval::function::CallError;
-use crate::eval::{Formulation, Provenance, Quantity};
+use crate::eval::Formulation;
 use std::f64::consts::PI;
 
 const THEIS_1935: &str = "Theis, C. V., 1935, The relation between the lowering of the \
@@ -26,6 +24,7 @@ pub static THIEM: Formulation = Formulation {
     citation: "Thiem, G., 1906, Hydrologische Methoden, J. M. Gebhardt, Leipzig",
     validity: "steady radial flow to a fully penetrating well in a homogeneous, isotropic \
 confined aquifer; drawdown zero at the radius of influence R; r between the well radius and R",
+    ranges: &[],
 };
 
 /// Theis's transient drawdown.
@@ -36,6 +35,7 @@ pub static THEIS: Formulation = Formulation {
     validity: "confined, homogeneous, isotropic aquifer of infinite extent and uniform \
 thickness; fully penetrating well of negligible radius pumped at constant Q from t = 0; water \
 released from storage instantaneously",
+    ranges: &[],
 };
 
 /// The well function itself, as the exponential integral.
@@ -47,6 +47,7 @@ National Bureau of Standards Applied Mathematics Series 55, eq. 5.1.11 (series) 
 (continued fraction)",
     validity: "every u > 0 (this implementation agrees with 30-digit values to 1e-13 relative \
 for u from 1e-12 to 50)",
+    ranges: &[],
 };
 
 /// The Cooper–Jacob logarithmic approximation.
@@ -58,60 +59,109 @@ evaluating formation constants and summarizing well-field history, Transactions,
 Geophysical Union 27(4), 526-534",
     validity: "Theis conditions at small u = r^2 S / (4 T t); refused above u = 0.05 (limits \
 of 0.01 to 0.05 are cited in practice)",
+    ranges: &[],
 };
 
-// A `static` for the same reason as `transport::FUNCTIONS`: the entries borrow statics inline.
-pub static FUNCTIONS: &[(&str, Builtin)] = &[
-    (
-        "thiem_drawdown",
-        Builtin::new(
-            "thiem_drawdown(Q, T, r, R)",
+const RATE: Parameter = Parameter::new(
+    "Q",
+    "a pumping rate (negative for injection)",
+    VOLUME_FLOW_RATE,
+    Domain::Any,
+);
+const TRANSMISSIVITY: Parameter =
+    Parameter::new("T", "a transmissivity", AREA_PER_TIME, Domain::Positive);
+const STORATIVITY: Parameter = Parameter::new(
+    "S",
+    "a storage coefficient",
+    DIMENSIONLESS,
+    Domain::Fraction,
+);
+const DISTANCE: Parameter =
+    Parameter::new("r", "the distance from the well", LENGTH, Domain::Positive);
+const RADIUS_OF_INFLUENCE: Parameter =
+    Parameter::new("R", "the radius of influence", LENGTH, Domain::Positive);
+const TIME_PUMPED: Parameter =
+    Parameter::new("t", "the time since pumping began", TIME, Domain::Positive);
+
+pub static RELATIONS: &[Relation] = &[
+    Relation {
+        name: "thiem_drawdown",
+        summary:
             "steady drawdown s = Q / (2 pi T) ln(R / r) (m); Q pumping rate, T transmissivity, \
 r distance from the well, R radius of influence (r < R); Thiem 1906",
-            thiem_drawdown,
-        )
-        .citing(&[&THIEM]),
-    ),
-    (
-        "thiem_discharge",
-        Builtin::new(
-            "thiem_discharge(T, s, r, R)",
-            "steady pumping rate Q = 2 pi T s / ln(R / r) (m^3/s) that holds drawdown s at \
+        forms: &[Form {
+            parameters: &[RATE, TRANSMISSIVITY, DISTANCE, RADIUS_OF_INFLUENCE],
+            result: LENGTH,
+            unit: "m",
+            formulations: &[&THIEM],
+            example: "thiem_drawdown(15 L/s, 2e-3 m^2/s, 5 m, 300 m)",
+            body: thiem_drawdown,
+        }],
+    },
+    Relation {
+        name: "thiem_discharge",
+        summary: "steady pumping rate Q = 2 pi T s / ln(R / r) (m^3/s) that holds drawdown s at \
 distance r, radius of influence R; Thiem 1906",
-            thiem_discharge,
-        )
-        .citing(&[&THIEM]),
-    ),
-    (
-        "theis_well_function",
-        Builtin::new(
-            "theis_well_function(u)",
-            "Theis well function W(u) = E1(u) = integral from u to infinity of exp(-x)/x dx \
+        forms: &[Form {
+            parameters: &[
+                TRANSMISSIVITY,
+                Parameter::new("s", "the drawdown to hold", LENGTH, Domain::Any),
+                DISTANCE,
+                RADIUS_OF_INFLUENCE,
+            ],
+            result: VOLUME_FLOW_RATE,
+            unit: "L/s",
+            formulations: &[&THIEM],
+            example: "thiem_discharge(2e-3 m^2/s, 4 m, 5 m, 300 m)",
+            body: thiem_discharge,
+        }],
+    },
+    Relation {
+        name: "theis_well_function",
+        summary: "Theis well function W(u) = E1(u) = integral from u to infinity of exp(-x)/x dx \
 (dimensionless), u > 0; full double precision",
-            theis_well_function,
-        )
-        .citing(&[&WELL_FUNCTION]),
-    ),
-    (
-        "theis_drawdown",
-        Builtin::new(
-            "theis_drawdown(Q, T, S, r, t)",
+        forms: &[Form {
+            parameters: &[Parameter::new(
+                "u",
+                "the argument of the well function",
+                DIMENSIONLESS,
+                Domain::Positive,
+            )],
+            result: DIMENSIONLESS,
+            unit: "1",
+            formulations: &[&WELL_FUNCTION],
+            example: "theis_well_function(0.01)",
+            body: theis_well_function,
+        }],
+    },
+    Relation {
+        name: "theis_drawdown",
+        summary:
             "transient drawdown s = Q / (4 pi T) W(u), u = r^2 S / (4 T t) (m); S storativity, \
 r distance, t time since pumping began; Theis 1935",
-            theis_drawdown,
-        )
-        .citing(&[&THEIS, &WELL_FUNCTION]),
-    ),
-    (
-        "cooper_jacob_drawdown",
-        Builtin::new(
-            "cooper_jacob_drawdown(Q, T, S, r, t)",
+        forms: &[Form {
+            parameters: &[RATE, TRANSMISSIVITY, STORATIVITY, DISTANCE, TIME_PUMPED],
+            result: LENGTH,
+            unit: "m",
+            formulations: &[&THEIS, &WELL_FUNCTION],
+            example: "theis_drawdown(15 L/s, 2e-3 m^2/s, 1e-4, 30 m, 2 d)",
+            body: theis_drawdown,
+        }],
+    },
+    Relation {
+        name: "cooper_jacob_drawdown",
+        summary:
             "drawdown s = Q / (4 pi T) (-0.5772 - ln u), u = r^2 S / (4 T t) (m); refused for \
 u > 0.05 (common practice cites 0.01 to 0.05): use theis_drawdown there; Cooper & Jacob 1946",
-            cooper_jacob_drawdown,
-        )
-        .citing(&[&COOPER_JACOB]),
-    ),
+        forms: &[Form {
+            parameters: &[RATE, TRANSMISSIVITY, STORATIVITY, DISTANCE, TIME_PUMPED],
+            result: LENGTH,
+            unit: "m",
+            formulations: &[&COOPER_JACOB],
+            example: "cooper_jacob_drawdown(15 L/s, 2e-3 m^2/s, 1e-4, 30 m, 2 d)",
+            body: cooper_jacob_drawdown,
+        }],
+    },
 ];
 
 /// Euler–Mascheroni constant γ.
@@ -181,181 +231,75 @@ fn well_function_continued_fraction(u: f64) -> f64 {
 }
 
 /// Steady drawdown by Thiem (1906), s = Q / (2π T) ln(R / r).
-fn thiem_drawdown(
-    arguments: &[Quantity],
-    provenance: &mut Provenance,
-) -> Result<Quantity, CallError> {
-    let [discharge, transmissivity, radius, influence] = read_arguments(
-        arguments,
-        &[
-            parameter("Q", VOLUME_FLOW_RATE),
-            parameter("T", AREA_PER_TIME),
-            parameter("r", LENGTH),
-            parameter("R", LENGTH),
-        ],
-    )?;
-    require_positive(transmissivity, 1, "T")?;
-    require_radii(radius, influence, 2, 3)?;
-    provenance.record(&THIEM);
-    Ok(Quantity::new(
-        discharge / (2.0 * PI * transmissivity) * (influence / radius).ln(),
-        LENGTH,
-    ))
+fn thiem_drawdown(values: &[f64]) -> Result<f64, CallError> {
+    let [discharge, transmissivity, radius, influence] = arguments(values);
+    require_inside_influence(radius, influence)?;
+    Ok(discharge / (2.0 * PI * transmissivity) * (influence / radius).ln())
 }
 
 /// Steady pumping rate by Thiem (1906), Q = 2π T s / ln(R / r): the rate that holds the
 /// drawdown s at r, for dewatering design.
-fn thiem_discharge(
-    arguments: &[Quantity],
-    provenance: &mut Provenance,
-) -> Result<Quantity, CallError> {
-    let [transmissivity, drawdown, radius, influence] = read_arguments(
-        arguments,
-        &[
-            parameter("T", AREA_PER_TIME),
-            parameter("s", LENGTH),
-            parameter("r", LENGTH),
-            parameter("R", LENGTH),
-        ],
-    )?;
-    require_positive(transmissivity, 0, "T")?;
-    require_radii(radius, influence, 2, 3)?;
-    provenance.record(&THIEM);
-    Ok(Quantity::new(
-        2.0 * PI * transmissivity * drawdown / (influence / radius).ln(),
-        VOLUME_FLOW_RATE,
-    ))
+fn thiem_discharge(values: &[f64]) -> Result<f64, CallError> {
+    let [transmissivity, drawdown, radius, influence] = arguments(values);
+    require_inside_influence(radius, influence)?;
+    Ok(2.0 * PI * transmissivity * drawdown / (influence / radius).ln())
 }
 
-/// 0 < r < R: the drawdown is measured inside the radius where it vanishes.
-fn require_radii(
-    radius: f64,
-    influence: f64,
-    radius_argument: usize,
-    influence_argument: usize,
-) -> Result<(), CallError> {
-    require_positive(radius, radius_argument, "r")?;
+/// r < R: the drawdown is measured inside the radius where it vanishes.
+fn require_inside_influence(radius: f64, influence: f64) -> Result<(), CallError> {
     if influence <= radius {
-        return Err(domain(
-            influence_argument,
-            "`R` must be larger than `r`: the radius of influence lies beyond the point where \
-drawdown is wanted"
+        return Err(CallError::Domain {
+            argument: Some(3),
+            message: "`R` must be larger than `r`: the radius of influence lies beyond the point \
+where drawdown is wanted"
                 .to_string(),
-        ));
+        });
     }
     Ok(())
 }
 
-/// The well function as a sheet function.
-fn theis_well_function(
-    arguments: &[Quantity],
-    provenance: &mut Provenance,
-) -> Result<Quantity, CallError> {
-    let [u] = read_arguments(arguments, &[parameter("u", DIMENSIONLESS)])?;
-    if u <= 0.0 {
-        return Err(domain(
-            0,
-            "`u` must be positive: W(u) grows without bound as u goes to 0".to_string(),
-        ));
-    }
-    provenance.record(&WELL_FUNCTION);
-    Ok(Quantity::dimensionless(well_function(u)))
+fn theis_well_function(values: &[f64]) -> Result<f64, CallError> {
+    let [u] = arguments(values);
+    Ok(well_function(u))
 }
 
-/// The checked arguments of Theis and Cooper–Jacob: Q, T, S, r, t.
-struct TransientWell {
-    discharge: f64,
-    transmissivity: f64,
-    storativity: f64,
-    radius: f64,
-    time: f64,
-}
-
-impl TransientWell {
-    fn read(arguments: &[Quantity]) -> Result<TransientWell, CallError> {
-        let [discharge, transmissivity, storativity, radius, time] = read_arguments(
-            arguments,
-            &[
-                parameter("Q", VOLUME_FLOW_RATE),
-                parameter("T", AREA_PER_TIME),
-                parameter("S", DIMENSIONLESS),
-                parameter("r", LENGTH),
-                parameter("t", TIME),
-            ],
-        )?;
-        require_positive(transmissivity, 1, "T")?;
-        require_fraction(storativity, 2, "S", "a storage coefficient")?;
-        require_positive(radius, 3, "r")?;
-        if time <= 0.0 {
-            return Err(domain(
-                4,
-                "`t` must be positive: it is the time since pumping began".to_string(),
-            ));
-        }
-        Ok(TransientWell {
-            discharge,
-            transmissivity,
-            storativity,
-            radius,
-            time,
-        })
-    }
-
-    /// u = r² S / (4 T t).
-    fn u(&self) -> f64 {
-        self.radius * self.radius * self.storativity / (4.0 * self.transmissivity * self.time)
-    }
-
-    /// Q / (4π T), the drawdown per unit of well function.
-    fn scale(&self) -> f64 {
-        self.discharge / (4.0 * PI * self.transmissivity)
-    }
+/// u = r² S / (4 T t) of the Theis and Cooper–Jacob relations, and Q / (4π T), the drawdown
+/// per unit of well function.
+fn transient_well(values: &[f64]) -> (f64, f64) {
+    let [discharge, transmissivity, storativity, radius, time] = arguments(values);
+    let u = radius * radius * storativity / (4.0 * transmissivity * time);
+    (u, discharge / (4.0 * PI * transmissivity))
 }
 
 /// Transient drawdown by Theis (1935), s = Q / (4π T) W(u), u = r² S / (4 T t).
-fn theis_drawdown(
-    arguments: &[Quantity],
-    provenance: &mut Provenance,
-) -> Result<Quantity, CallError> {
-    let well = TransientWell::read(arguments)?;
-    provenance.record(&THEIS);
-    provenance.record(&WELL_FUNCTION);
-    Ok(Quantity::new(
-        well.scale() * well_function(well.u()),
-        LENGTH,
-    ))
+fn theis_drawdown(values: &[f64]) -> Result<f64, CallError> {
+    let (u, scale) = transient_well(values);
+    Ok(scale * well_function(u))
 }
 
 /// Drawdown by Cooper & Jacob (1946), s = Q / (4π T) (−γ − ln u).
 ///
-/// The engine has no warnings yet, so where the approximation is poor (u above 0.05, where it
-/// is about 2 % below Theis) the call is refused and points to `theis_drawdown`. The limit is
-/// common practice: 0.01 and 0.05 are both cited.
-fn cooper_jacob_drawdown(
-    arguments: &[Quantity],
-    provenance: &mut Provenance,
-) -> Result<Quantity, CallError> {
-    let well = TransientWell::read(arguments)?;
-    let u = well.u();
+/// Where the approximation is poor (u above 0.05, where it is about 2 % below Theis) the call
+/// is refused and points to `theis_drawdown`. The limit is common practice: 0.01 and 0.05 are
+/// both cited.
+fn cooper_jacob_drawdown(values: &[f64]) -> Result<f64, CallError> {
+    let (u, scale) = transient_well(values);
     if u > COOPER_JACOB_U_LIMIT {
-        let earliest = well.radius * well.radius * well.storativity
-            / (4.0 * well.transmissivity * COOPER_JACOB_U_LIMIT);
-        return Err(domain(
-            4,
-            format!(
+        let [_, transmissivity, storativity, radius, _] = arguments(values);
+        let earliest =
+            radius * radius * storativity / (4.0 * transmissivity * COOPER_JACOB_U_LIMIT);
+        return Err(CallError::Domain {
+            argument: Some(4),
+            message: format!(
                 "u = r^2 S / (4 T t) = {} is above 0.05, where the straight-line approximation \
 departs from the Theis solution (limits of 0.01 to 0.05 are cited); `t` must be at least {} s \
 here, or use `theis_drawdown`",
                 three_figures(u),
                 three_figures(round_up_to_three_figures(earliest))
             ),
-        ));
+        });
     }
-    provenance.record(&COOPER_JACOB);
-    Ok(Quantity::new(
-        well.scale() * (-EULER_GAMMA - u.ln()),
-        LENGTH,
-    ))
+    Ok(scale * (-EULER_GAMMA - u.ln()))
 }
 
 /// Rounds a positive bound up to three significant figures, so the printed time still meets it.
@@ -373,6 +317,8 @@ mod tests {
     //! against published worked examples. All through `check`.
 
     use super::*;
+    use crate::eval::{CallError, Quantity};
+    use crate::library::testing::call;
 
     const FT: f64 = 0.3048;
     const GALLON: f64 = 3.785_411_784e-3;
@@ -398,13 +344,12 @@ mod tests {
 
     /// Calls `name` with SI arguments and compares with `expected`.
     fn check(name: &str, arguments: &[Quantity], expected: Expected, source: &str) {
-        let builtin = FUNCTIONS
-            .iter()
-            .find(|(entry, _)| *entry == name)
-            .map(|(_, builtin)| builtin)
-            .unwrap_or_else(|| panic!("no function `{name}`"));
-        let mut provenance = Provenance::default();
-        let result = (builtin.body)(arguments, &mut provenance);
+        let (result, provenance) = call(name, arguments);
+        let cited = crate::library::Builtins::standard()
+            .relations()
+            .find(|relation| relation.name == name)
+            .map(|relation| relation.forms[0].formulations.to_vec())
+            .unwrap_or_default();
         match (expected, result) {
             (Expected::Relative(value, tolerance), Ok(found)) => {
                 let difference = ((found.value - value) / value).abs();
@@ -413,7 +358,7 @@ mod tests {
                     "{name} ({source}): {} vs {value} (relative {difference:e} > {tolerance:e})",
                     found.value
                 );
-                assert_eq!(provenance.formulations(), builtin.formulations, "{name}");
+                assert_eq!(provenance.formulations(), cited.as_slice(), "{name}");
             }
             (Expected::Absolute(value, tolerance), Ok(found)) => {
                 let difference = (found.value - value).abs();
@@ -765,9 +710,9 @@ mod tests {
 
     #[test]
     fn cooper_jacob_refusal_explains_and_points_to_theis() {
-        let mut provenance = Provenance::default();
         // u = 100 x 1e-3 / (4 x 1e-3 x 100) = 0.25; earliest t = 100 x 1e-3 / (4e-3 x 0.05).
-        let message = cooper_jacob_drawdown(
+        let (result, _) = call(
+            "cooper_jacob_drawdown",
             &[
                 si(0.01, VOLUME_FLOW_RATE),
                 si(1e-3, AREA_PER_TIME),
@@ -775,10 +720,8 @@ mod tests {
                 si(10.0, LENGTH),
                 si(100.0, TIME),
             ],
-            &mut provenance,
-        )
-        .expect_err("refused")
-        .to_string();
+        );
+        let message = result.expect_err("refused").to_string();
         assert!(
             message.starts_with("u = r^2 S / (4 T t) = 0.250 is above 0.05"),
             "{message}"
@@ -800,9 +743,8 @@ mod tests {
         ];
         let mut injection = pumping;
         injection[0] = si(-0.01, VOLUME_FLOW_RATE);
-        let mut provenance = Provenance::default();
-        let down = theis_drawdown(&pumping, &mut provenance).expect("valid");
-        let up = theis_drawdown(&injection, &mut provenance).expect("valid");
+        let down = call("theis_drawdown", &pumping).0.expect("valid");
+        let up = call("theis_drawdown", &injection).0.expect("valid");
         assert_eq!(down.value, -up.value);
         assert!(down.value > 0.0);
     }

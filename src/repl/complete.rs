@@ -23,7 +23,7 @@ pub const COMMANDS: &[&str] = &[
 pub struct EditorHelper {
     /// Names the session defines, sorted.
     pub names: Vec<String>,
-    functions: Vec<(&'static str, &'static str)>,
+    functions: Vec<(&'static str, String)>,
     constants: Vec<&'static str>,
     /// Every catalog symbol, sorted.
     units: Vec<&'static str>,
@@ -57,7 +57,7 @@ impl EditorHelper {
         let functions = library
             .functions_sorted()
             .into_iter()
-            .map(|(name, builtin)| (name, builtin.signature))
+            .map(|(name, builtin)| (name, builtin.signature()))
             .collect();
         let constants = library
             .constants_sorted()

@@ -31,7 +31,11 @@ pub fn parse_sheet(source: &str) -> ParsedSheet {
 /// sheet laid after the one that includes it).
 pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
     let mut raw_lines = Vec::new();
-    let mut offset = base;
+    // Editors on some systems start a UTF-8 file with a byte-order mark; it is not text.
+    let (source, mut offset) = match source.strip_prefix(BYTE_ORDER_MARK) {
+        Some(rest) => (rest, base + BYTE_ORDER_MARK.len_utf8()),
+        None => (source, base),
+    };
     for (index, raw_line) in source.split('\n').enumerate() {
         let text = raw_line.strip_suffix('\r').unwrap_or(raw_line);
         raw_lines.push((index + 1, text, offset));
@@ -94,6 +98,9 @@ pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
         errors,
     }
 }
+
+/// The UTF-8 byte-order mark, skipped at the start of a sheet (as data files skip it).
+pub const BYTE_ORDER_MARK: char = '\u{feff}';
 
 /// Sheets shorter than this are parsed on one thread: starting threads would cost more.
 const PARALLEL_PARSE_LINES: usize = 2_000;
@@ -202,11 +209,27 @@ fn inner_text(pair: Pair<Rule>) -> Option<String> {
 }
 
 /// Rejects nesting and operator counts that would exhaust the stack in a recursive parser.
+/// Only operators of expressions count: not the signs of a list's values or of a number's
+/// exponent (`1e-3`), nor characters inside a quoted message or path.
 fn guard_against_deep_input(text: &str, offset: usize) -> Result<(), SyntaxError> {
     let mut depth = 0usize;
     let mut operators = 0usize;
+    let mut in_quotes = false;
+    let mut in_list = false;
+    let mut previous = ' ';
+    let mut before_previous = ' ';
     for (position, character) in text.char_indices() {
+        let exponent_sign = matches!(previous, 'e' | 'E') && before_previous.is_ascii_digit();
+        before_previous = previous;
+        previous = character;
+        if in_quotes {
+            in_quotes = character != '"';
+            continue;
+        }
         match character {
+            '"' => in_quotes = true,
+            '{' => in_list = true,
+            '}' => in_list = false,
             '(' | '[' => {
                 depth += 1;
                 if depth > NESTING_LIMIT {
@@ -219,7 +242,7 @@ fn guard_against_deep_input(text: &str, offset: usize) -> Result<(), SyntaxError
                 }
             }
             ')' | ']' => depth = depth.saturating_sub(1),
-            '+' | '-' | '*' | '/' | '^' => {
+            '+' | '-' | '*' | '/' | '^' if !in_list && !exponent_sign => {
                 operators += 1;
                 if operators > OPERATOR_LIMIT {
                     return Err(SyntaxError {
@@ -318,6 +341,18 @@ impl Builder {
                 Some(unit) => Some(self.display_unit(unit)?),
                 None => None,
             };
+            // `f(x, x)` would silently bind the first argument only.
+            if parameters
+                .iter()
+                .any(|earlier: &Parameter| earlier.name.text == parameter_name.as_str())
+            {
+                return Err(SyntaxError {
+                    kind: SyntaxErrorKind::DuplicateParameter {
+                        name: parameter_name.as_str().to_string(),
+                    },
+                    span: self.span(&parameter_name),
+                });
+            }
             parameters.push(Parameter {
                 name: Name {
                     text: parameter_name.as_str().to_string(),
@@ -539,8 +574,11 @@ impl Builder {
     }
 
     fn operations(&self, pairs: Pairs<Rule>) -> Result<Expression, SyntaxError> {
-        let mut tokens = Vec::new();
+        let mut tokens: Vec<Token> = Vec::new();
         for pair in pairs {
+            if pair.as_rule() == Rule::operator && pair.as_str() == "^" {
+                self.refuse_spaced_unit_power(tokens.last(), &pair)?;
+            }
             let token = match pair.as_rule() {
                 Rule::sign => Token::Sign {
                     negative: pair.as_str() == "-",
@@ -558,6 +596,35 @@ impl Builder {
             tokens.push(token);
         }
         climb(&mut tokens.into_iter().peekable(), 0).ok_or_else(|| internal(self.offset))
+    }
+
+    /// `2 m^ 2` reads as `(2 m)^2` (4 m²) while `2 m^2` is 2 m²: a `^` touching a number's
+    /// unit was meant as a unit power, so its spacing is refused rather than guessed.
+    fn refuse_spaced_unit_power(
+        &self,
+        previous: Option<&Token>,
+        power: &Pair<Rule>,
+    ) -> Result<(), SyntaxError> {
+        let Some(Token::Operand(Expression {
+            kind: ExpressionKind::Quantity {
+                unit: Some(unit), ..
+            },
+            ..
+        })) = previous
+        else {
+            return Ok(());
+        };
+        let power_span = self.span(power);
+        // `(2 m)^2` has the parenthesis between the unit and the `^`.
+        if unit.span.end == power_span.start {
+            return Err(SyntaxError {
+                kind: SyntaxErrorKind::SpacedUnitPower {
+                    unit: unit.text.clone(),
+                },
+                span: power_span,
+            });
+        }
+        Ok(())
     }
 
     fn primary(&self, pair: Pair<Rule>) -> Result<Expression, SyntaxError> {
@@ -665,11 +732,9 @@ impl Builder {
                 match inner.next() {
                     None => Ok(base),
                     Some(exponent) => {
-                        let (numerator, denominator) = exponent_value(exponent.as_str())
-                            .ok_or_else(|| SyntaxError {
-                                kind: SyntaxErrorKind::BadExponent {
-                                    text: exponent.as_str().to_string(),
-                                },
+                        let (numerator, denominator) =
+                            exponent_value(exponent.as_str()).map_err(|kind| SyntaxError {
+                                kind,
                                 span: self.span(&exponent),
                             })?;
                         Ok(UnitExpression {
@@ -752,19 +817,36 @@ fn climb(
     Some(left)
 }
 
-/// Reads `2`, `-1`, `(1/2)`, `(-3/2)`; `None` for a zero denominator or a huge number.
-fn exponent_value(text: &str) -> Option<(i32, i32)> {
+/// The largest numerator or denominator of a unit exponent: far beyond any real unit, and
+/// small enough that exact factor powers stay cheap.
+pub const UNIT_EXPONENT_LIMIT: u32 = 1_000;
+
+/// Reads `2`, `-1`, `(1/2)`, `(-3/2)`; an error for a zero denominator or a number beyond
+/// [`UNIT_EXPONENT_LIMIT`] (checked without overflow: `-2147483648` is refused, not wrapped).
+fn exponent_value(text: &str) -> Result<(i32, i32), SyntaxErrorKind> {
     let inside = text.trim_start_matches('(').trim_end_matches(')');
-    let (numerator, denominator) = match inside.split_once('/') {
-        Some((numerator, denominator)) => (
-            numerator.parse::<i32>().ok()?,
-            denominator.parse::<i32>().ok()?,
-        ),
-        None => (inside.parse::<i32>().ok()?, 1),
+    let (numerator, denominator) = inside.split_once('/').unwrap_or((inside, "1"));
+    let too_large = SyntaxErrorKind::ExponentTooLarge {
+        text: text.to_string(),
+        limit: UNIT_EXPONENT_LIMIT,
     };
-    let limit = 1_000;
-    (denominator > 0 && numerator.abs() <= limit && denominator <= limit)
-        .then_some((numerator, denominator))
+    let within_limit = |digits: &str| -> Result<i32, SyntaxErrorKind> {
+        match digits.parse::<i64>() {
+            Ok(value) if value.unsigned_abs() <= u64::from(UNIT_EXPONENT_LIMIT) => {
+                i32::try_from(value).map_err(|_| too_large.clone())
+            }
+            // Only digits and a sign reach here (the grammar), so a failure is a huge number.
+            _ => Err(too_large.clone()),
+        }
+    };
+    let numerator = within_limit(numerator)?;
+    let denominator = within_limit(denominator)?;
+    if denominator <= 0 {
+        return Err(SyntaxErrorKind::BadExponent {
+            text: text.to_string(),
+        });
+    }
+    Ok((numerator, denominator))
 }
 
 fn internal(position: usize) -> SyntaxError {

@@ -22,6 +22,13 @@ pub enum SyntaxErrorKind {
     ExpressionTooLong { limit: usize },
     /// A unit exponent that is not a small rational, e.g. `m^(1/0)`.
     BadExponent { text: String },
+    /// A unit exponent beyond the limit, e.g. `m^1000000`.
+    ExponentTooLarge { text: String, limit: u32 },
+    /// `2 m^ 2`: a `^` touching a unit, then a space; ambiguous between a unit power and a
+    /// power of the quantity.
+    SpacedUnitPower { unit: String },
+    /// `f(x, x)`: a parameter named twice.
+    DuplicateParameter { name: String },
 }
 
 impl fmt::Display for SyntaxError {
@@ -60,6 +67,22 @@ impl fmt::Display for SyntaxError {
                 write!(
                     formatter,
                     "unit exponent `{text}` is not a whole number or a fraction like (1/2)"
+                )
+            }
+            SyntaxErrorKind::ExponentTooLarge { text, limit } => {
+                write!(
+                    formatter,
+                    "unit exponent `{text}` is too large: exponents are limited to {limit} in size"
+                )
+            }
+            SyntaxErrorKind::DuplicateParameter { name } => {
+                write!(formatter, "parameter `{name}` is named twice")
+            }
+            SyntaxErrorKind::SpacedUnitPower { unit } => {
+                write!(
+                    formatter,
+                    "a space after `{unit}^`: write a unit power without spaces (`{unit}^2`), \
+                     or a power of the quantity in parentheses (`(2 {unit})^2`)"
                 )
             }
         }

@@ -12,7 +12,7 @@ pub mod span;
 pub use ast::*;
 pub use build::{
     parse_expression, parse_line, parse_set_value, parse_sheet, parse_sheet_at, parse_unit,
-    ParsedSheet,
+    ParsedSheet, BYTE_ORDER_MARK, UNIT_EXPONENT_LIMIT,
 };
 pub use error::SyntaxError;
 pub use span::Span;

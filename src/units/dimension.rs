@@ -137,6 +137,26 @@ impl Dimension {
     }
 
     /// A trade name for common dimensions (`velocity`, `pressure`), used in error messages.
+    /// The one phrase every message uses for a dimension: "a velocity (m/s)", "a dimensionless
+    /// number", "a quantity of dimension L^(1/2) (m^(1/2))".
+    pub fn phrase(&self) -> String {
+        match self.quantity_name() {
+            Some("dimensionless") => "a dimensionless number".to_string(),
+            Some(name) => {
+                let article = if name.starts_with(['a', 'e', 'i', 'o', 'u']) {
+                    "an"
+                } else {
+                    "a"
+                };
+                format!("{article} {name} ({})", self.preferred_si_unit())
+            }
+            None => format!(
+                "a quantity of dimension {self} ({})",
+                self.preferred_si_unit()
+            ),
+        }
+    }
+
     pub fn quantity_name(&self) -> Option<&'static str> {
         NAMED_DIMENSIONS
             .iter()
@@ -157,7 +177,8 @@ impl Dimension {
 fn checked(exponent: Option<Exponent>) -> Result<Exponent, ExponentOverflow> {
     match exponent {
         Some(value)
-            if value.numer().abs() <= EXPONENT_LIMIT && *value.denom() <= EXPONENT_LIMIT =>
+            if value.numer().unsigned_abs() <= EXPONENT_LIMIT.unsigned_abs()
+                && value.denom().unsigned_abs() <= EXPONENT_LIMIT.unsigned_abs() =>
         {
             Ok(value)
         }

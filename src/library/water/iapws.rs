@@ -1,3 +1,6 @@
+//! Over 800 lines because of the published coefficient tables and their check tables; the
+//! equations themselves are short.
+//!
 //! Liquid water: IAPWS-IF97 regions 1 and 4 for the thermodynamic state, IAPWS 2008 viscosity and
 //! IAPWS 2011 thermal conductivity for transport.
 //!
@@ -17,7 +20,7 @@ use uom::si::specific_heat_capacity::joule_per_kilogram_kelvin;
 use uom::si::thermal_conductivity::watt_per_meter_kelvin;
 use uom::si::thermodynamic_temperature::kelvin;
 
-use super::formulation::{Formulation, OutOfRange};
+use crate::library::formulation::{Formulation, OutOfRange};
 
 const IF97_CITATION: &str = "IAPWS R7-97(2012), Revised Release on the IAPWS Industrial \
 Formulation 1997 for the Thermodynamic Properties of Water and Steam, International Association \
@@ -29,6 +32,7 @@ pub static IF97_REGION1: Formulation = Formulation {
     title: "IAPWS-IF97 region 1 (liquid water)",
     citation: IF97_CITATION,
     validity: "273.15 K <= T <= 623.15 K, p_sat(T) <= p <= 100 MPa (compressed liquid)",
+    ranges: &[],
 };
 
 /// IF97 region 4: the saturation-pressure equation (eq. 30).
@@ -37,6 +41,7 @@ pub static IF97_REGION4: Formulation = Formulation {
     title: "IAPWS-IF97 region 4 (saturation pressure)",
     citation: IF97_CITATION,
     validity: "273.15 K <= T <= 647.096 K",
+    ranges: &[],
 };
 
 /// IAPWS 2008 viscosity, evaluated as mu0 * mu1 with the critical enhancement mu2 set to 1.
@@ -49,6 +54,7 @@ Water Substance, International Association for the Properties of Water and Steam
 (T, p) input the IF97 region 1 range applies (273.15 K <= T <= 623.15 K, p_sat(T) <= p <= 100 \
 MPa); the critical enhancement is neglected, which is valid away from the critical point \
 (647.096 K, 322 kg/m^3)",
+    ranges: &[],
 };
 
 /// IAPWS 2011 thermal conductivity, evaluated as lambda0 * lambda1 with the critical enhancement
@@ -64,6 +70,7 @@ of Ordinary Water Substance, International Association for the Properties of Wat
 MPa); the critical enhancement is neglected, which is valid away from the critical point \
 (647.096 K, 322 kg/m^3): in region 1 it stays below about 0.5 % up to 200 °C and 5 % at \
 350 °C",
+    ranges: &[],
 };
 
 // ---------------------------------------------------------------------------------------------
