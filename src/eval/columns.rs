@@ -290,11 +290,12 @@ pub(crate) fn spaced(
     } else {
         let width = to - from;
         values.extend((0..count).map(|row| {
-            let fraction = row as f64 / last;
             if width.is_finite() {
-                from + width * fraction
+                // Multiplied before divided: whole-number steps stay whole numbers.
+                from + width * row as f64 / last
             } else {
                 // Ends near the largest double: their difference overflows, a blend does not.
+                let fraction = row as f64 / last;
                 from * (1.0 - fraction) + to * fraction
             }
         }));
@@ -327,4 +328,20 @@ pub(crate) fn stepped(
         }
     }
     values
+}
+
+#[cfg(test)]
+mod tests {
+    use super::spaced;
+
+    #[test]
+    fn a_range_of_whole_numbers_by_count_holds_whole_numbers() {
+        let rows = 1_000_000;
+        let values = spaced(1.0, 1e6, rows, false, Vec::with_capacity(rows));
+        let off = values
+            .iter()
+            .enumerate()
+            .find(|(row, value)| **value != (row + 1) as f64);
+        assert_eq!(off, None);
+    }
 }
