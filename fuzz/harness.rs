@@ -8,7 +8,7 @@
 use fluxsheet::eval::session::Session;
 use fluxsheet::eval::{evaluate, evaluate_with, IncludeLoader, LoadedSheet, NoIncludes, Settings};
 use fluxsheet::library::Builtins;
-use fluxsheet::render::report::{write_html, write_markdown, ReportContext};
+use fluxsheet::render::report::{sha256_hex, write_html, write_markdown, InputFile, ReportContext};
 use fluxsheet::render::{self, Format, RenderOptions};
 use fluxsheet::syntax::{parse_expression, parse_line, parse_set_value, parse_unit};
 use fluxsheet::units::Unit;
@@ -23,6 +23,8 @@ pub const FUZZ_MAX_ROWS: usize = 2_000;
 pub struct MemoryLoader {
     pub included_sheet: String,
     pub data_file: String,
+    /// Each file served, as (path, text), in loading order.
+    pub loaded: Vec<(String, String)>,
 }
 
 impl IncludeLoader for MemoryLoader {
@@ -34,6 +36,7 @@ impl IncludeLoader for MemoryLoader {
         } else {
             return Err(format!("cannot read `{path}`: no such file"));
         };
+        self.loaded.push((path.to_string(), text.clone()));
         Ok(LoadedSheet {
             label: path.to_string(),
             key: path.to_string(),
@@ -68,6 +71,7 @@ pub fn sheet_in_every_format(data: &[u8]) {
     let mut loader = MemoryLoader {
         included_sheet,
         data_file,
+        loaded: Vec::new(),
     };
     let evaluation = evaluate_with(
         "main.fxs",
@@ -81,11 +85,26 @@ pub fn sheet_in_every_format(data: &[u8]) {
         render::table::write_sheet(&mut io::sink(), &evaluation, options)
             .expect("a sink accepts everything");
     }
-    let json = render::json::sheet_json(Some("main.fxs"), &evaluation);
+    // The run's inputs as the front end hashes them: the main sheet, then every file loaded.
+    let inputs: Vec<InputFile> = std::iter::once(("main.fxs", sheet.as_str()))
+        .chain(
+            loader
+                .loaded
+                .iter()
+                .map(|(path, text)| (path.as_str(), text.as_str())),
+        )
+        .map(|(path, text)| InputFile {
+            path: path.to_string(),
+            sha256: sha256_hex(text.as_bytes()),
+            bytes: text.len(),
+        })
+        .collect();
+    let json = render::json::sheet_json(Some("main.fxs"), &evaluation, &inputs);
     serde_json::to_writer(io::sink(), &json).expect("JSON of finite numbers always serializes");
     let context = ReportContext {
         label: "main.fxs",
         source: &sheet,
+        inputs: &inputs,
         evaluation: &evaluation,
         version: "fuzz",
         digits: 4,
@@ -131,6 +150,7 @@ pub fn session_lines(data: &[u8]) {
     let mut loader = MemoryLoader {
         included_sheet: entries.clone(),
         data_file: data_file.clone(),
+        loaded: Vec::new(),
     };
     let library = Builtins::standard();
     let mut session = Session::new(library);

@@ -10,6 +10,7 @@ use crate::front::limits::{FileKind, ReadLimits};
 use crate::front::streams::{error_stream, PipeSafe};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, DiagnosticJson};
+use crate::render::report::InputFile;
 use crate::render::{self, Format, RenderOptions};
 use crate::units::unit::{catalog_entries, prefixes};
 use crate::units::Dimension;
@@ -25,12 +26,7 @@ mod properties;
 mod report;
 
 /// Exit codes, as documented in the README.
-pub mod exit {
-    pub const OK: u8 = 0;
-    pub const CHECK_FAILED: u8 = 1;
-    pub const USAGE: u8 = 2;
-    pub const SHEET_ERROR: u8 = 3;
-}
+pub use crate::front::exit;
 
 #[derive(Parser, Debug)]
 #[command(
@@ -86,6 +82,10 @@ pub struct RunArgs {
     /// Write the sheet's `plot` lines as SVG: the first to FILE, the next to FILE-2.svg, …
     #[arg(long, value_name = "FILE.svg")]
     pub plot: Option<PathBuf>,
+    /// After the table, show the working of each computed line: the expression, the values put
+    /// in, the result, and the formula of each built-in relation with its source
+    #[arg(long)]
+    pub working: bool,
     #[command(flatten)]
     pub limits: LimitArgs,
 }
@@ -171,6 +171,17 @@ pub enum Command {
         /// A sheet to load first (created by `:save` if it does not exist)
         file: Option<String>,
     },
+    /// Print a shell completion script (bash, zsh, fish or powershell) to standard output
+    #[command(
+        after_help = "Examples:\n  fluxsheet completions bash > ~/.local/share/bash-completion/completions/fluxsheet\n  fluxsheet completions zsh > \"${fpath[1]}/_fluxsheet\"\n  fluxsheet completions fish > ~/.config/fish/completions/fluxsheet.fish"
+    )]
+    Completions {
+        /// The shell
+        shell: clap_complete::Shell,
+    },
+    /// Print the manual page (roff) to standard output
+    #[command(after_help = "Example:\n  fluxsheet manual > fluxsheet.1 && man ./fluxsheet.1")]
+    Manual,
 }
 
 impl OutputArgs {
@@ -229,6 +240,17 @@ pub fn run(command_line: CommandLine) -> u8 {
             properties::run(&mut out, arguments, &command_line.output)
         }
         Command::Repl { file } => crate::repl::run(file.as_deref(), options, &mut out),
+        Command::Completions { shell } => {
+            let mut definition = <CommandLine as clap::CommandFactory>::command();
+            clap_complete::generate(*shell, &mut definition, "fluxsheet", &mut out);
+            Ok(exit::OK)
+        }
+        Command::Manual => {
+            let definition = <CommandLine as clap::CommandFactory>::command();
+            clap_mangen::Man::new(definition)
+                .render(&mut out)
+                .map(|_| exit::OK)
+        }
     };
     finish(result, &mut out)
 }
@@ -276,21 +298,34 @@ fn exit_code_for(evaluation: &Evaluation) -> u8 {
     }
 }
 
-/// Evaluates a sheet read from a file (or stdin when `path` is `None`) with its includes under
-/// the folder sandbox; warnings become errors with `deny`. Shared by `run`, `check`, `report`.
-pub(crate) fn evaluate_file(
-    source: &SheetSource,
-    path: Option<&Path>,
-    allow_outside: bool,
-    deny: bool,
-    settings: &Settings,
-    limits: &ReadLimits,
-) -> Evaluation {
-    evaluate_file_reading(source, path, allow_outside, deny, settings, limits).0
+/// Every input of a run: the main sheet, then the included sheets and data files, each with
+/// its SHA-256 (the JSON `inputs` and the report's input table).
+pub(crate) fn all_inputs(source: &SheetSource, read: &ReadInputs) -> Vec<InputFile> {
+    let main = InputFile {
+        path: Path::new(&source.label)
+            .file_name()
+            .map_or(source.label.clone(), |name| {
+                name.to_string_lossy().into_owned()
+            }),
+        sha256: render::report::sha256_hex(source.text.as_bytes()),
+        bytes: source.text.len(),
+    };
+    std::iter::once(main)
+        .chain(read.hashed.iter().cloned())
+        .collect()
 }
 
-/// [`evaluate_file`], with every file the run read: the sheet, its includes and data files
-/// (the inputs an output file must not replace).
+/// The files a run read besides the main sheet: canonical paths (which no output may
+/// replace) and, for the record, each file's hash.
+pub(crate) struct ReadInputs {
+    pub paths: Vec<PathBuf>,
+    pub hashed: Vec<InputFile>,
+}
+
+/// Evaluates a sheet read from a file (or stdin when `path` is `None`) with its includes under
+/// the folder sandbox; warnings become errors with `deny`. Shared by `run`, `check`, `report`.
+/// Returns every file the run read: the sheet, its includes and data files (the inputs an
+/// output file must not replace), with their hashes.
 pub(crate) fn evaluate_file_reading(
     source: &SheetSource,
     path: Option<&Path>,
@@ -298,7 +333,7 @@ pub(crate) fn evaluate_file_reading(
     deny: bool,
     settings: &Settings,
     limits: &ReadLimits,
-) -> (Evaluation, Vec<PathBuf>) {
+) -> (Evaluation, ReadInputs) {
     let mut loader =
         crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside)
             .with_limits(*limits);
@@ -312,12 +347,13 @@ pub(crate) fn evaluate_file_reading(
     if deny {
         deny_warnings(&mut evaluation);
     }
-    let inputs = path
+    let paths = path
         .map(Path::to_path_buf)
         .into_iter()
         .chain(loader.files_read().iter().cloned())
         .collect();
-    (evaluation, inputs)
+    let hashed = loader.inputs().to_vec();
+    (evaluation, ReadInputs { paths, hashed })
 }
 
 /// `NAME=VALUE` pairs of `--set`, checked for shape (the names are checked against the sheet).
@@ -383,7 +419,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         }
         worst = worst.max(exit_code_for(&evaluation));
         if let Some(target) = &arguments.plot {
-            match plots::write_plots(&evaluation, target, &inputs) {
+            match plots::write_plots(&evaluation, target, &inputs.paths) {
                 Ok(written) => {
                     for file in written {
                         crate::stderr_line!("wrote {}", file.display());
@@ -396,9 +432,11 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             }
         }
         if options.format == Format::Json {
+            let inputs = all_inputs(&source, &inputs);
             json_sheets.push(JsonSheet::Evaluated {
                 label: source.label,
                 evaluation,
+                inputs,
             });
             continue;
         }
@@ -409,6 +447,11 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             writeln!(out, "{}", source.label)?;
         }
         render::table::write_sheet(out, &evaluation, options)?;
+        if arguments.working {
+            let working =
+                render::working::working(&evaluation, Builtins::standard(), options.digits);
+            render::working::write_text(out, &working)?;
+        }
         if !evaluation.diagnostics.is_empty() {
             out.flush()?;
             render::write_diagnostics(
@@ -430,6 +473,7 @@ enum JsonSheet {
     Evaluated {
         label: String,
         evaluation: Evaluation,
+        inputs: Vec<InputFile>,
     },
     Unreadable(serde_json::Value),
 }
@@ -446,9 +490,11 @@ fn write_json_sheets(out: &mut dyn Write, sheets: &[JsonSheet]) -> io::Result<()
     let documents: Vec<Document> = sheets
         .iter()
         .map(|sheet| match sheet {
-            JsonSheet::Evaluated { label, evaluation } => {
-                Document::Evaluated(sheet_json(Some(label), evaluation))
-            }
+            JsonSheet::Evaluated {
+                label,
+                evaluation,
+                inputs,
+            } => Document::Evaluated(sheet_json(Some(label), evaluation, inputs)),
             JsonSheet::Unreadable(value) => Document::Unreadable(value),
         })
         .collect();

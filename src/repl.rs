@@ -1,5 +1,8 @@
 //! The interactive session: `fluxsheet` alone, or `fluxsheet repl [FILE]`.
 //!
+//! Over 800 lines: the line editor loop, the scripted loop and the session commands (`:load`,
+//! `:save`, `:about`, …) share the printing of results and errors kept here.
+//!
 //! On a terminal, lines are read with a line editor (completion, hints, history kept across
 //! sessions); otherwise lines are read from standard input, so a session can be scripted.
 //! Each entry goes to an `eval::session::Session`; results go to standard output, errors and
@@ -29,7 +32,7 @@ pub const HISTORY_VARIABLE: &str = "FLUXSHEET_HISTORY";
 const PROMPT: &str = "fx> ";
 
 /// Runs a session; returns the exit code. On a terminal it is 0; reading from a pipe, it is 3
-/// if any entry had an error, as for a sheet.
+/// if any entry had an error and 1 if a check line fails at the end, as for a sheet.
 pub fn run(file: Option<&str>, options: RenderOptions, out: &mut dyn Write) -> io::Result<u8> {
     let library = Builtins::standard();
     let mut repl = Repl::new(library, options.digits);
@@ -39,18 +42,24 @@ pub fn run(file: Option<&str>, options: RenderOptions, out: &mut dyn Write) -> i
     let terminal = io::stdin().is_terminal();
     if let Some(file) = file {
         if !repl.open(Path::new(file), out, &mut err)? {
-            return Ok(crate::cli::exit::SHEET_ERROR);
+            return Ok(crate::front::exit::SHEET_ERROR);
         }
     }
     if terminal {
         interactive(&mut repl, out, &mut err)?;
-        Ok(crate::cli::exit::OK)
+        Ok(crate::front::exit::OK)
     } else {
         scripted(&mut repl, &mut io::stdin().lock(), out, &mut err)?;
+        // As for a sheet: errors win, then a check line that fails at the end of the script.
+        let failing_check = repl.session.lines().iter().any(
+            |line| matches!(line.result(), crate::eval::LineResult::Check(check) if !check.passed),
+        );
         Ok(if repl.errors > 0 {
-            crate::cli::exit::SHEET_ERROR
+            crate::front::exit::SHEET_ERROR
+        } else if failing_check {
+            crate::front::exit::CHECK_FAILED
         } else {
-            crate::cli::exit::OK
+            crate::front::exit::OK
         })
     }
 }
@@ -983,6 +992,7 @@ fn error_message(diagnostics: &[Diagnostic]) -> &str {
 /// Said of a line with an error but no description (a bug of ours, never a blank `error:`).
 const UNDESCRIBED_ERROR: &str = "this line could not be evaluated (no reason was recorded)";
 
+/// Draws a session line's diagnostics with the same snippet renderer as `run`.
 fn write_diagnostics(
     err: &mut dyn Write,
     text: &str,
@@ -992,30 +1002,18 @@ fn write_diagnostics(
     if diagnostics.is_empty() {
         writeln!(err, "{indent}error: {UNDESCRIBED_ERROR}")?;
         writeln!(err, "{indent}  | {text}")?;
+        return Ok(());
     }
-    for diagnostic in diagnostics {
-        writeln!(
-            err,
-            "{indent}error: {}",
-            error_message(std::slice::from_ref(diagnostic))
-        )?;
-        let start = diagnostic.span.start.min(text.len());
-        let end = diagnostic.span.end.clamp(start, text.len());
-        let column = text.get(..start).map_or(0, |before| before.chars().count());
-        let width = text
-            .get(start..end)
-            .map_or(1, |inside| inside.chars().count())
-            .max(1);
-        writeln!(err, "{indent}  | {text}")?;
-        writeln!(
-            err,
-            "{indent}  | {}{}",
-            " ".repeat(column),
-            "^".repeat(width)
-        )?;
-        if let Some(help) = &diagnostic.help {
-            writeln!(err, "{indent}  = help: {help}")?;
-        }
+    let mut sources = crate::eval::SourceMap::default();
+    sources.add("<session>", text);
+    let mut drawn = Vec::new();
+    crate::render::write_diagnostics(
+        &mut codespan_reporting::term::termcolor::NoColor::new(&mut drawn),
+        &sources,
+        diagnostics,
+    )?;
+    for line in String::from_utf8_lossy(&drawn).lines() {
+        writeln!(err, "{indent}{line}")?;
     }
     Ok(())
 }
@@ -1052,7 +1050,7 @@ mod tests {
         assert_eq!(errors, 1);
         assert_eq!(
             err,
-            "error: cannot add a time (s) to a length (m)\n  | b = a + 1 s\n  |     ^^^^^^^\n\
+            "error: cannot add a time (s) to a length (m)\n  ┌─ <session>:1:5\n  │\n1 │ b = a + 1 s\n  │     ^^^^^^^\n\n\
              note: 1 session line was not saved: `:save FILE` before quitting writes them as a sheet\n"
         );
     }

@@ -647,11 +647,10 @@ total: 1 sheet: 1 ok, 0 failed, 0 with errors (0 errors, 0 warnings, 0 failed ch
     let old_si = si_of(&earlier);
     let new_si = si_of(&run_in(root, &["run", "--format", "json", "core.fxs"]).1);
     assert_eq!(new_si / old_si, 96.0 / 95.0);
+    // Shown in the line's display unit, with the signed change.
     assert_eq!(
         moved[0],
-        format!(
-            "core.fxs:4: `k_core_B` moved: {old_si:e} -> {new_si:e} m^2 (relative change 1.042e-2 > 1e-9)"
-        )
+        "core.fxs:4: `k_core_B` moved: 95 mD -> 96 mD (+1.053 %; relative change 1.042e-2 > 1e-9)"
     );
     assert!(moved[1].contains("`K_lab_B`") && moved[2].contains("`K_B`"));
 
@@ -675,8 +674,9 @@ total: 1 sheet: 1 ok, 0 failed, 0 with errors (0 errors, 0 warnings, 0 failed ch
     assert_eq!(first["new_si_value"].as_f64(), Some(new_si));
     assert_eq!(json["total"]["moved"], 3);
 
-    // A tolerance wider than the change accepts it.
-    let (code, _, _) = run_in(
+    // A tolerance wider than the change accepts the values; the edited sheet is still a
+    // changed input.
+    let (code, stdout, _) = run_in(
         root,
         &[
             "check",
@@ -687,7 +687,9 @@ total: 1 sheet: 1 ok, 0 failed, 0 with errors (0 errors, 0 warnings, 0 failed ch
             "0.02",
         ],
     );
-    assert_eq!(code, 0);
+    assert_eq!(code, 1);
+    assert!(!stdout.contains("moved:"), "{stdout}");
+    assert!(stdout.contains("input `core.fxs` changed"), "{stdout}");
 }
 
 #[test]

@@ -252,3 +252,39 @@ fn default_display_units() {
         .collect();
     assert_eq!(units, vec!["mD", "mD", "degC", "degC", "m^2"]);
 }
+
+/// Completions come from the clap definitions: every shell gets a script naming the commands,
+/// and bash accepts its script's syntax.
+#[test]
+fn shell_completions_and_the_manual_page_are_generated() {
+    for shell in ["bash", "zsh", "fish", "powershell"] {
+        let (code, stdout, stderr) = run(&["completions", shell]);
+        assert_eq!(code, 0, "{shell}: {stderr}");
+        for command in ["run", "check", "report", "eval", "properties"] {
+            assert!(stdout.contains(command), "{shell} lacks {command}");
+        }
+    }
+    let (_, script, _) = run(&["completions", "bash"]);
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("fluxsheet.bash");
+    std::fs::write(&path, script).unwrap();
+    let syntax = std::process::Command::new("bash")
+        .arg("-n")
+        .arg(&path)
+        .output()
+        .expect("bash runs");
+    assert!(
+        syntax.status.success(),
+        "{}",
+        String::from_utf8_lossy(&syntax.stderr)
+    );
+    let (code, manual, _) = run(&["manual"]);
+    assert_eq!(code, 0);
+    assert!(
+        manual.starts_with(".ie") || manual.contains(".TH fluxsheet 1"),
+        "{manual}"
+    );
+    assert!(manual.contains(".SH NAME") && manual.contains("porous media"));
+    let (code, _, stderr) = run(&["completions", "tcsh"]);
+    assert_eq!(code, 2, "an unknown shell is a usage error: {stderr}");
+}

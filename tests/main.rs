@@ -7,6 +7,8 @@
 //! - `cli`: commands, formats, exit codes and the JSON contract.
 //! - `errors`: each error class on a small sheet, its exit code and rendered message.
 //! - `worksheets`: every demo sheet runs clean, with pinned values computed independently.
+//! - `package`: the checker's package: working, input hashes, title block, sign-off,
+//!   `--against` across edits and moved folders, the project folder sandbox.
 //! - `reference`: unit factors against NIST SP 811 and the `uom` crate.
 //! - `robust_inputs`: the table of bad inputs (exit code and message for each), outputs that
 //!   never replace inputs, session saves that lose no line, closed pipes, signals.
@@ -27,6 +29,7 @@ mod columns;
 mod errors;
 mod fuzz_corpus;
 mod includes;
+mod package;
 mod plot;
 mod properties;
 mod reference;
@@ -40,3 +43,4 @@ mod trust_front;
 mod trust_warnings;
 mod util;
 mod worksheets;
+mod wrong_attempts;

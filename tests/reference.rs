@@ -56,6 +56,8 @@ const NIST_SP_811: &[(&str, f64, bool)] = &[
     ("1 wk", 6.048e5, true),
     ("1 h", 3.6e3, true),
     ("1 eV", 1.602176634e-19, true),
+    ("1 mho", 1.0, true),
+    ("1 umho/cm", 1e-4, true),
 ];
 
 #[test]
@@ -276,5 +278,101 @@ fn unit_factors_agree_with_uom() {
     assert!(cases.len() >= 30);
     for (expression, reference, tolerance) in cases {
         assert_close(si_value(expression), reference, tolerance, expression);
+    }
+}
+
+/// Units of heat flow and water conductivity in the field's own spellings. Sources: the heat
+/// flow unit is 1 ucal/(cm^2 s) with the thermochemical calorie of NIST SP 811 Appendix B.8
+/// (4.184 J exactly), 41.84 mW/m^2 (common practice); the rest are SI prefixes (SI Brochure
+/// 9th ed., Table 7) on SI units.
+#[test]
+fn field_units_of_heat_and_water_conductivity() {
+    for (expression, expected) in [
+        ("1 HFU", 41.84e-3),
+        ("1 mW/m^2", 1e-3),
+        ("1 uS/cm", 1e-4),
+        ("1 mS/m", 1e-3),
+        ("1 mS/cm", 0.1),
+        ("1 ohm*m", 1.0),
+        ("1 W/(m*K)", 1.0),
+        ("1 cal/(cm*s*K)", 418.4),
+    ] {
+        assert_close(si_value(expression), expected, 1e-15, expression);
+    }
+    assert_close(
+        si_value("1 HFU"),
+        si_value("1 ucal/(cm^2*s)"),
+        1e-15,
+        "HFU by definition",
+    );
+}
+
+/// The trade's spellings, each against its definition. Sources: NIST SP 811 (2008), Appendix
+/// B.8, rows "are", "gallon [Canadian and U.K. (Imperial)]", "cubic foot per second", "ton,
+/// short", "ton, long", "kip", "kip per square inch", "torr", "inch of mercury, conventional"
+/// (3.386 389 E+03 Pa, rounded there), "millimeter of water, conventional", "therm (U.S.)",
+/// "therm (EC)"; gpd, MGD and tsf are common practice composed from NIST factors (gallon,
+/// day, pound-force, foot).
+#[test]
+fn trade_spellings_match_their_definitions() {
+    let gallon = 3.785_411_784e-3;
+    let pound_force = 0.453_592_37 * 9.806_65;
+    let cases: &[(&str, f64, f64)] = &[
+        ("1 are", 100.0, 1e-15),
+        ("1 gal_imp", 4.546_09e-3, 1e-15),
+        ("1 impgal", 4.546_09e-3, 1e-15),
+        ("1 cfs", 0.3048_f64.powi(3), 1e-15),
+        ("1 gpd", gallon / 86_400.0, 1e-15),
+        ("1 MGD", 1e6 * gallon / 86_400.0, 1e-15),
+        ("1 ton_US", 907.184_74, 1e-15),
+        ("1 ton_UK", 1_016.046_908_8, 1e-15),
+        ("1 kip", 1000.0 * pound_force, 1e-15),
+        ("1 ksi", 1000.0 * pound_force / 0.0254 / 0.0254, 1e-15),
+        ("1 tsf", 2000.0 * pound_force / 0.3048 / 0.3048, 1e-15),
+        ("1 Torr", 101_325.0 / 760.0, 1e-15),
+        ("1 inHg", 3.386_389e3, 2e-7),
+        ("1 mmH2O", 9.806_65, 1e-15),
+        ("1 therm_US", 1.054_804e8, 1e-15),
+        ("1 therm_EC", 1.055_06e8, 1e-15),
+        // Aliases of catalog units.
+        ("1 hr", 3600.0, 1e-15),
+        ("1 sec", 1.0, 1e-15),
+        ("1 day", 86_400.0, 1e-15),
+        ("1 year", 31_557_600.0, 1e-15),
+        ("1 ac", 4_046.856_422_4, 1e-15),
+        ("1 ft_H2O", 0.3048 * 9806.65, 1e-15),
+        // Powers written as the trade writes them, and pasted Unicode.
+        ("1 m3", 1.0, 1e-15),
+        ("1 m3/d", 1.0 / 86_400.0, 1e-15),
+        ("1 cm2", 1e-4, 1e-15),
+        ("1 ft3", 0.3048_f64.powi(3), 1e-15),
+        ("1 m²", 1.0, 1e-15),
+        ("1 m³/d", 1.0 / 86_400.0, 1e-15),
+        ("1 s⁻¹", 1.0, 1e-15),
+        ("1 mPa·s", 1e-3, 1e-15),
+        ("1 Pa.s", 1.0, 1e-15),
+        ("1 W/(m·K)", 1.0, 1e-15),
+        ("20 ℃ [K]", 293.15, 1e-15),
+        ("68 ℉ [K]", 293.15, 1e-15),
+    ];
+    for (expression, expected, tolerance) in cases {
+        assert_close(si_value(expression), *expected, *tolerance, expression);
+    }
+}
+
+/// Spellings the trade uses for more than one unit are refused with the choices.
+#[test]
+fn ambiguous_spellings_are_refused_with_the_choices() {
+    for (spelling, choices) in [
+        ("1 a", ["`yr`", "`are`"].as_slice()),
+        ("1 ton", &["`t`", "`ton_US`", "`ton_UK`"]),
+        ("1 pcf", &["`lb/ft^3`", "`lbf/ft^3`"]),
+        ("1 therm", &["`therm_US`", "`therm_EC`"]),
+    ] {
+        let (code, _, stderr) = crate::util::run(&["eval", spelling]);
+        assert_eq!(code, 3, "{spelling}");
+        for choice in choices {
+            assert!(stderr.contains(choice), "{spelling}: {stderr}");
+        }
     }
 }

@@ -68,7 +68,7 @@ fn errors_do_not_end_the_session() {
     assert_eq!(stdout, "a = 2 m\nd = 4 m\n");
     assert!(stderr.contains("cannot add a time (s) to a length (m)"));
     assert!(
-        stderr.contains("  | b = a + 1 s\n  |     ^^^^^^^\n"),
+        stderr.contains("1 │ b = a + 1 s\n  │     ^^^^^^^"),
         "{stderr}"
     );
     assert!(stderr.contains("unknown name `nope`"));

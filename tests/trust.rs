@@ -253,12 +253,12 @@ const OUT_OF_DOMAIN: &[(&str, &str, &str)] = &[
     (
         "brine_density",
         "brine_density(20 degC, 1 bar, -0.1)",
-        "below 0",
+        "not a fraction of 0 or more",
     ),
     (
         "brine_viscosity",
         "brine_viscosity(20 degC, 0.5)",
-        "above 0.3",
+        "fitted limit",
     ),
     (
         "constant_head_conductivity",
@@ -442,6 +442,96 @@ const OUT_OF_DOMAIN: &[(&str, &str, &str)] = &[
         "water_viscosity",
         "water_viscosity(20 degC, 0 Pa)",
         "positive",
+    ),
+    (
+        "archie_saturation",
+        "archie_saturation(40 ohm*m, 0.05 ohm*m, 0, 1, 2, 2)",
+        "(0, 1]",
+    ),
+    (
+        "arps_resistivity",
+        "arps_resistivity(0.5 ohm*m, 24 degC, 250 degC)",
+        "outside",
+    ),
+    (
+        "batzle_wang_brine_density",
+        "batzle_wang_brine_density(20 degC, 1 bar, -0.1)",
+        "below 0",
+    ),
+    (
+        "batzle_wang_brine_viscosity",
+        "batzle_wang_brine_viscosity(20 degC, 0.5)",
+        "above 0.3",
+    ),
+    (
+        "brine_specific_heat",
+        "brine_specific_heat(130 degC, 1 MPa, 0.1)",
+        "fitted range",
+    ),
+    (
+        "conductivity_at_25c",
+        "conductivity_at_25c(850 uS/cm, 50 degC)",
+        "outside",
+    ),
+    (
+        "dissolved_solids",
+        "dissolved_solids(900 uS/cm, -0.6 (mg/L)/(uS/cm))",
+        "positive",
+    ),
+    (
+        "geothermal_gradient",
+        "geothermal_gradient(65 mW/m^2, 0 W/(m*K))",
+        "positive",
+    ),
+    (
+        "half_space_temperature",
+        "half_space_temperature(10 degC, 40 degC, 2 m, -1 d, 1e-6 m^2/s)",
+        "positive",
+    ),
+    (
+        "salt_brine_density",
+        "salt_brine_density(20 degC, 1 bar, 0.1, -0.01, 0)",
+        "KCl mass fraction",
+    ),
+    (
+        "salt_brine_specific_heat",
+        "salt_brine_specific_heat(20 degC, 1 bar, 0.05, 0, 0.01)",
+        "fitted range for CaCl2",
+    ),
+    (
+        "salt_brine_viscosity",
+        "salt_brine_viscosity(120 degC, 0.05, 0, 0.01)",
+        "fitted range for CaCl2",
+    ),
+    (
+        "seasonal_amplitude",
+        "seasonal_amplitude(10 K, -1 m, 8e-7 m^2/s, 1 yr)",
+        "must not be negative",
+    ),
+    (
+        "seasonal_lag",
+        "seasonal_lag(3 m, 0 m^2/s, 1 yr)",
+        "positive",
+    ),
+    (
+        "thermal_diffusivity",
+        "thermal_diffusivity(-2 W/(m*K), 2 MJ/(m^3*K))",
+        "positive",
+    ),
+    (
+        "thermal_peclet_number",
+        "thermal_peclet_number(0.1 m/yr, 4.18 MJ/(m^3*K), 0 m, 2.5 W/(m*K))",
+        "positive",
+    ),
+    (
+        "vertical_flow_temperature",
+        "vertical_flow_temperature(10 degC, 16 degC, 120 m, 100 m, 1.3)",
+        "must not exceed",
+    ),
+    (
+        "volumetric_heat_capacity",
+        "volumetric_heat_capacity(1.5, 2650 kg/m^3, 0.84 kJ/(kg*K), 1000 kg/m^3, 4.19 kJ/(kg*K))",
+        "(0, 1]",
     ),
     (
         "consolidation_coefficient",

@@ -355,6 +355,74 @@ fn core_sweep_pins() {
     );
 }
 
+/// The doublet's brine from numbers outside the project: Laliberté's model as computed by the
+/// Python package `thermo` 0.6.1 at 80 degC and w = 0.1 on its own water equations (run once,
+/// pasted: rho 1040.4525595928078, rho_w 971.7977826915796 kg/m^3; mu 4.428594083984076e-4,
+/// mu_w 3.5507263740548647e-4 Pa s; cp 3766.865444060635, cp_w 4195.521841492736 J/(kg K)),
+/// put on IAPWS water from the `seuif97` crate as the model's structure says (1/rho = w_w/rho_w
+/// plus sum w_i/rho_i; mu/mu_w; cp = w_w cp_w + sum w_i cp_i). Then Thiem's injectivity, the heat
+/// carried, and Freeze & Cherry's harmonic layered mean with 1 HFU = 41.84 mW/m^2.
+#[test]
+fn geothermal_doublet_pins() {
+    use seuif97::{pt, OCP, OD, ODV};
+    let json = run_json(&worksheet("geothermal_doublet.fxs"));
+    let w_w = 1.0 - 0.1;
+    let water_rho = pt(10.0, 80.0, OD);
+    let rho = 1.0 / (w_w / water_rho + 1.0 / 1040.4525595928078 - w_w / 971.7977826915796);
+    assert_close(value(&json, "rho_b"), rho, 1e-9, "rho_b");
+    let mu = 4.428594083984076e-4 / 3.5507263740548647e-4 * pt(0.101325, 80.0, ODV);
+    assert_close(value(&json, "mu_b"), mu * 1e3, 1e-9, "mu_b");
+    let cp = 3766.865444060635 - w_w * 4195.521841492736 + w_w * pt(10.0, 80.0, OCP) * 1000.0;
+    assert_close(value(&json, "cp_b"), cp / 1e3, 1e-9, "cp_b");
+    let k = 250.0 * 1e-15 / 1.01325;
+    assert_close(
+        value(&json, "K_brine"),
+        k * rho * 9.80665 / mu,
+        1e-9,
+        "K_brine",
+    );
+    let injectivity = 2.0 * std::f64::consts::PI * k * 45.0 / (mu * (600.0f64 / 0.1).ln());
+    let rate = 150.0 / 3600.0;
+    assert_close(
+        value(&json, "dp_inj"),
+        rate / injectivity / 1e5,
+        1e-9,
+        "dp_inj",
+    );
+    assert_close(
+        value(&json, "P_th"),
+        rho * cp * rate * 45.0 / 1e6,
+        1e-9,
+        "P_th",
+    );
+    let bulk = 2000.0 / (400.0 / 2.1 + 900.0 / 3.2 + 700.0 / 2.6);
+    assert_close(value(&json, "lambda_bulk"), bulk, 1e-12, "lambda_bulk");
+    assert_close(
+        value(&json, "grad"),
+        1.7 * 41.84e-3 / bulk * 1e3,
+        1e-12,
+        "grad",
+    );
+}
+
+/// Linear compensation to 25 degC, TDS = 0.6 (mg/L)/(uS/cm) x EC, Arps on the Celsius scale
+/// (t + 21.5), Archie's two laws, all typed here from the formulas.
+#[test]
+fn resistivity_survey_pins() {
+    let json = run_json(&worksheet("resistivity_survey.fxs"));
+    let sigma = 4.2e-3 / 1e-2; // mS/cm -> S/m
+    let sigma_25 = sigma / (1.0 + 0.02 * (18.0 - 25.0));
+    assert_close(value(&json, "sigma_25"), sigma_25 / 0.1, 1e-12, "sigma_25");
+    // 0.6 mg/L per uS/cm: uS/cm = 1e-4 S/m, mg/L = 1e-3 kg/m^3.
+    assert_close(value(&json, "TDS"), 0.6 * sigma_25 / 1e-4, 1e-12, "TDS");
+    let rho_w = 1.0 / sigma * (18.0 + 21.5) / (46.0 + 21.5);
+    assert_close(value(&json, "rho_w"), rho_w, 1e-12, "rho_w");
+    let porosity = (rho_w / 22.0f64).sqrt();
+    assert_close(value(&json, "n_archie"), porosity, 1e-12, "n");
+    let saturation = (rho_w / (porosity * porosity * 80.0)).sqrt();
+    assert_close(value(&json, "S_w"), saturation, 1e-12, "S_w");
+}
+
 /// erf by Simpson's rule on 2/sqrt(pi) exp(-s^2), independent of the library's erfc.
 fn erf_by_quadrature(x: f64) -> f64 {
     let steps = 20_000;

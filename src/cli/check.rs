@@ -2,12 +2,16 @@
 //! for `.fxs`, in sorted order) and prints only what needs attention (errors, warnings, failed
 //! checks, values that moved since an earlier run), then a line per sheet and a total.
 
-use super::against::{compare, Earlier, Moved};
+use super::against::{added_names, compare, compare_inputs, Earlier, InputChange, Moved};
 use super::{exit, exit_code_for, read_sheet, unreadable_json, SheetSource};
 use crate::eval::warnings::warning_count;
 use crate::eval::{Evaluation, LineResult, Severity};
 use crate::front::limits::{FileKind, ReadLimits};
-use crate::render::json::{diagnostics_json, value_json, CheckJson, DiagnosticJson};
+use crate::render::json::{
+    diagnostics_json, fields_json, inputs_json, value_json, CheckJson, DiagnosticJson, FieldJson,
+    InputJson,
+};
+use crate::render::report::InputFile;
 use crate::render::table::check_text;
 use crate::render::{self, Format, RenderOptions};
 use clap::Args;
@@ -41,6 +45,9 @@ pub struct CheckArgs {
     /// Relative change beyond which a value counts as moved (with --against)
     #[arg(long, requires = "against", value_parser = parse_tolerance, value_name = "RELATIVE")]
     pub tolerance: Option<f64>,
+    /// Fail (exit 1) a sheet whose title block names no checker (`@checker: …` missing or blank)
+    #[arg(long)]
+    pub require_signoff: bool,
     #[command(flatten)]
     pub limits: super::LimitArgs,
 }
@@ -59,6 +66,9 @@ fn parse_tolerance(text: &str) -> Result<f64, String> {
 struct Target {
     label: String,
     path: Option<PathBuf>,
+    /// The path within the folder given (the file name for a file given by itself), to pair
+    /// it with an earlier run of a folder that moved.
+    relative: Option<String>,
     /// Why it cannot be checked at all (a path that does not exist, an unreadable folder).
     problem: Option<String>,
 }
@@ -71,6 +81,7 @@ fn targets(paths: &[String]) -> Vec<Target> {
             targets.push(Target {
                 label: "<stdin>".to_string(),
                 path: None,
+                relative: None,
                 problem: None,
             });
             continue;
@@ -81,15 +92,25 @@ fn targets(paths: &[String]) -> Vec<Target> {
             let mut problems = Vec::new();
             walk(&path, &mut found, &mut problems);
             found.sort();
-            targets.extend(found.into_iter().map(|path| Target {
-                label: path.display().to_string(),
-                path: Some(path),
+            targets.extend(found.into_iter().map(|found| Target {
+                label: found.display().to_string(),
+                relative: found.strip_prefix(&path).ok().map(|relative| {
+                    relative
+                        .components()
+                        .map(|part| part.as_os_str().to_string_lossy().into_owned())
+                        .collect::<Vec<_>>()
+                        .join("/")
+                }),
+                path: Some(found),
                 problem: None,
             }));
             targets.extend(problems);
         } else {
             targets.push(Target {
                 label: argument.clone(),
+                relative: path
+                    .file_name()
+                    .map(|name| name.to_string_lossy().into_owned()),
                 path: Some(path),
                 problem: None,
             });
@@ -107,6 +128,7 @@ fn walk(directory: &Path, found: &mut Vec<PathBuf>, problems: &mut Vec<Target>) 
             problems.push(Target {
                 label: directory.display().to_string(),
                 path: None,
+                relative: None,
                 problem: Some(format!(
                     "cannot read folder `{}`: {error}",
                     directory.display()
@@ -153,6 +175,14 @@ struct SheetReport {
     evaluation: Option<Evaluation>,
     unreadable: Option<String>,
     moved: Vec<Moved>,
+    /// Named values the earlier run did not have: `(line, name)`.
+    added: Vec<(u64, String)>,
+    /// Input files whose hash differs from the earlier run's, or that came or went.
+    input_changes: Vec<InputChange>,
+    /// Every file the run read, with its hash.
+    inputs: Vec<InputFile>,
+    /// `--require-signoff` and the sheet names no checker.
+    unsigned: bool,
     /// `--against` was given.
     compared: bool,
     /// `--against` was given but the earlier run has no such sheet.
@@ -187,7 +217,7 @@ impl SheetReport {
             .iter()
             .filter(|diagnostic| diagnostic.severity == Severity::Error)
             .count();
-        counts.moved = self.moved.len() + usize::from(self.no_earlier);
+        counts.moved = self.moved.len() + self.added.len() + usize::from(self.no_earlier);
         counts
     }
 
@@ -250,12 +280,16 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                 evaluation: None,
                 unreadable: Some(message),
                 moved: Vec::new(),
+                added: Vec::new(),
+                input_changes: Vec::new(),
+                inputs: Vec::new(),
+                unsigned: false,
                 compared: false,
                 no_earlier: false,
                 code: exit::SHEET_ERROR,
             },
             Ok(source) => {
-                let evaluation = super::evaluate_file(
+                let (evaluation, read) = super::evaluate_file_reading(
                     &source,
                     target.path.as_deref(),
                     arguments.allow_outside,
@@ -263,17 +297,45 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     &arguments.limits.settings(),
                     &arguments.limits.read_limits(),
                 );
+                let inputs = super::all_inputs(&source, &read);
                 let mut code = exit_code_for(&evaluation);
-                let (moved, no_earlier) = match &earlier {
-                    None => (Vec::new(), false),
-                    Some(earlier) => {
-                        match earlier.find(&target.label, target.path.as_deref(), targets.len()) {
-                            Some(sheet) => (compare(sheet, &evaluation, tolerance), false),
-                            None => (Vec::new(), true),
+                let title = evaluation
+                    .fields
+                    .iter()
+                    .rev()
+                    .find(|field| field.name == "title")
+                    .map(|field| field.text.as_str());
+                let mut moved = Vec::new();
+                let mut added = Vec::new();
+                let mut input_changes = Vec::new();
+                let mut no_earlier = false;
+                if let Some(earlier) = &earlier {
+                    match earlier.find(
+                        &target.label,
+                        target.path.as_deref(),
+                        targets.len(),
+                        target.relative.as_deref(),
+                        title,
+                    ) {
+                        Some(sheet) => {
+                            moved = compare(sheet, &evaluation, tolerance);
+                            added = added_names(sheet, &evaluation);
+                            input_changes = compare_inputs(sheet, &inputs);
                         }
+                        None => no_earlier = true,
                     }
-                };
-                if (!moved.is_empty() || no_earlier) && code == exit::OK {
+                }
+                let unsigned = arguments.require_signoff
+                    && !evaluation
+                        .fields
+                        .iter()
+                        .any(|field| field.name == "checker" && !field.text.is_empty());
+                let changed = !moved.is_empty()
+                    || !added.is_empty()
+                    || !input_changes.is_empty()
+                    || no_earlier
+                    || unsigned;
+                if changed && code == exit::OK {
                     code = exit::CHECK_FAILED;
                 }
                 SheetReport {
@@ -281,6 +343,10 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     evaluation: Some(evaluation),
                     unreadable: None,
                     moved,
+                    added,
+                    input_changes,
+                    inputs,
+                    unsigned,
                     compared: earlier.is_some(),
                     no_earlier,
                     code,
@@ -364,6 +430,12 @@ fn write_text(
             "{label}: no earlier results for this sheet to compare with"
         )?;
     }
+    if report.unsigned {
+        writeln!(
+            out,
+            "{label}: not signed off: the title block names no checker (`@checker: …`)"
+        )?;
+    }
     for moved in &report.moved {
         let old = exact(moved.old_si_value);
         let in_row = moved
@@ -371,7 +443,17 @@ fn write_text(
             .map(|row| format!(" in row {row}"))
             .unwrap_or_default();
         let old_unit = &moved.old_si_unit;
+        let shown = (moved.old_shown.as_ref(), moved.new_shown.as_ref());
         match (moved.new_si_value, &moved.new_si_unit, moved.relative_change) {
+            (Some(_), _, Some(relative)) if shown.0.is_some() && shown.1.is_some() => writeln!(
+                out,
+                "{label}:{}: `{}` moved{in_row}: {} -> {} ({}; relative change {relative:.3e} > {tolerance:e})",
+                moved.line,
+                moved.name,
+                shown.0.map_or("", String::as_str),
+                shown.1.map_or("", String::as_str),
+                signed_percent(moved.signed_change),
+            )?,
             (Some(new), _, Some(relative)) => writeln!(
                 out,
                 "{label}:{}: `{}` moved{in_row}: {old} -> {} {old_unit} (relative change {relative:.3e} > {tolerance:e})",
@@ -388,10 +470,33 @@ fn write_text(
             )?,
             _ => writeln!(
                 out,
-                "{label}:{}: `{}` is no longer computed (was {old} {old_unit})",
-                moved.line, moved.name
+                "{label}:{}: `{}` is no longer computed (was {})",
+                moved.line,
+                moved.name,
+                moved.old_shown.clone().unwrap_or(format!("{old} {old_unit}"))
             )?,
         }
+    }
+    for (line, name) in &report.added {
+        writeln!(
+            out,
+            "{label}:{line}: `{name}` is new (not in the earlier run)"
+        )?;
+    }
+    for change in &report.input_changes {
+        writeln!(
+            out,
+            "{label}: input `{}` {} since the earlier run",
+            change.path,
+            match change.change {
+                "changed" => "changed (its SHA-256 differs)",
+                "added" => "is read now but was not",
+                _ => "is no longer read",
+            }
+        )?;
+    }
+    if report.compared && !report.no_earlier {
+        write_summary(out, report)?;
     }
     let counts = report.counts();
     let mut details = vec![
@@ -408,6 +513,33 @@ fn write_text(
         details.push(format!("{} moved", plural(counts.moved, "value", "values")));
     }
     writeln!(out, "{label}: {} ({})", report.status(), details.join(", "))
+}
+
+/// A signed relative change as a percentage: `+3.2 %`.
+fn signed_percent(change: Option<f64>) -> String {
+    match change {
+        Some(change) => format!("{:+.3} %", change * 100.0),
+        None => "new value".to_string(),
+    }
+}
+
+/// The short table of what changed since the earlier run: moved, added, removed, inputs.
+fn write_summary(out: &mut dyn Write, report: &SheetReport) -> io::Result<()> {
+    let removed = report
+        .moved
+        .iter()
+        .filter(|moved| moved.new_si_value.is_none())
+        .count();
+    let moved = report.moved.len() - removed;
+    let changed_inputs = report.input_changes.len();
+    if moved + removed + report.added.len() + changed_inputs == 0 {
+        return Ok(());
+    }
+    writeln!(out, "{}: since the earlier run", report.label)?;
+    writeln!(out, "  {:<16} {:>5}", "moved", moved)?;
+    writeln!(out, "  {:<16} {:>5}", "added", report.added.len())?;
+    writeln!(out, "  {:<16} {:>5}", "removed", removed)?;
+    writeln!(out, "  {:<16} {:>5}", "inputs changed", changed_inputs)
 }
 
 #[derive(Serialize, Default)]
@@ -474,6 +606,11 @@ struct CheckDocument {
 struct SheetCheckJson {
     file: String,
     status: &'static str,
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    fields: Vec<FieldJson>,
+    inputs: Vec<InputJson>,
+    #[serde(skip_serializing_if = "std::ops::Not::not")]
+    not_signed_off: bool,
     values: usize,
     checks: usize,
     passed_checks: usize,
@@ -483,6 +620,22 @@ struct SheetCheckJson {
     moved: Option<Vec<MovedJson>>,
     #[serde(skip_serializing_if = "std::ops::Not::not")]
     no_earlier_results: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    added: Option<Vec<AddedJson>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    input_changes: Option<Vec<InputChangeJson>>,
+}
+
+#[derive(Serialize)]
+struct AddedJson {
+    name: String,
+    line: u64,
+}
+
+#[derive(Serialize)]
+struct InputChangeJson {
+    path: String,
+    change: &'static str,
 }
 
 #[derive(Serialize)]
@@ -496,6 +649,9 @@ struct MovedJson {
     new_si_value: Option<f64>,
     new_si_unit: Option<String>,
     relative_change: Option<f64>,
+    /// In the line's display unit.
+    old_value: Option<String>,
+    new_value: Option<String>,
 }
 
 fn sheet_json(report: &SheetReport) -> SheetCheckJson {
@@ -526,6 +682,13 @@ fn sheet_json(report: &SheetReport) -> SheetCheckJson {
     SheetCheckJson {
         file: report.label.clone(),
         status: report.status(),
+        fields: report
+            .evaluation
+            .as_ref()
+            .map(fields_json)
+            .unwrap_or_default(),
+        inputs: inputs_json(&report.inputs),
+        not_signed_off: report.unsigned,
         values: counts.values,
         checks: counts.checks,
         passed_checks: counts.passed,
@@ -544,9 +707,31 @@ fn sheet_json(report: &SheetReport) -> SheetCheckJson {
                     new_si_value: moved.new_si_value,
                     new_si_unit: moved.new_si_unit.clone(),
                     relative_change: moved.relative_change,
+                    old_value: moved.old_shown.clone(),
+                    new_value: moved.new_shown.clone(),
                 })
                 .collect()
         }),
         no_earlier_results: report.no_earlier,
+        added: report.compared.then(|| {
+            report
+                .added
+                .iter()
+                .map(|(line, name)| AddedJson {
+                    name: name.clone(),
+                    line: *line,
+                })
+                .collect()
+        }),
+        input_changes: report.compared.then(|| {
+            report
+                .input_changes
+                .iter()
+                .map(|change| InputChangeJson {
+                    path: change.path.clone(),
+                    change: change.change,
+                })
+                .collect()
+        }),
     }
 }

@@ -72,13 +72,15 @@ pub fn run(out: &mut dyn Write, arguments: &ReportArgs, options: RenderOptions) 
         &arguments.limits.settings(),
         &arguments.limits.read_limits(),
     );
-    if let Err(message) = refuse_output(output, &inputs) {
+    if let Err(message) = refuse_output(output, &inputs.paths) {
         crate::stderr_line!("error: {message}");
         return Ok(exit::USAGE);
     }
+    let all_inputs = super::all_inputs(&source, &inputs);
     let context = ReportContext {
         label: &source.label,
         source: &source.text,
+        inputs: &all_inputs,
         evaluation: &evaluation,
         version: env!("CARGO_PKG_VERSION"),
         digits: options.digits,

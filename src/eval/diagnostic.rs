@@ -72,6 +72,6 @@ impl Diagnostic {
 
 impl From<&SyntaxError> for Diagnostic {
     fn from(error: &SyntaxError) -> Diagnostic {
-        Diagnostic::error(error.to_string(), error.span)
+        Diagnostic::error(error.to_string(), error.span).with_help(error.hint().map(str::to_string))
     }
 }

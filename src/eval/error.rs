@@ -40,6 +40,11 @@ pub enum EvalErrorKind {
         symbol: String,
         suggestions: Vec<String>,
     },
+    /// `a`, `ton`: a spelling the trade uses for more than one unit.
+    AmbiguousUnit {
+        symbol: String,
+        choices: Vec<(String, String)>,
+    },
     /// `PA`: a prefixed reading (peta-ampere) that exists only because of case, beside `Pa`.
     CaseOnlyUnit {
         symbol: String,
@@ -232,7 +237,7 @@ impl EvalError {
             }
             EvalErrorKind::UnknownUnit { suggestions, .. } if !suggestions.is_empty() => {
                 let list = suggestions.iter().map(|symbol| format!("`{symbol}`")).collect::<Vec<_>>();
-                diagnostic.with_help(Some(format!("did you mean {}? (`fluxsheet units` lists them all)", list.join(", "))))
+                diagnostic.with_help(Some(format!("did you mean {}? (`fluxsheet units` lists them all); a product of a number and a name needs `*`", list.join(", "))))
             }
             EvalErrorKind::CaseOnlyUnit { suggestion, suggestion_name, .. } => diagnostic.with_help(Some(format!(
                 "did you mean `{suggestion}` ({suggestion_name})? Unit symbols are case-sensitive; if the prefixed unit is really meant, write the power of ten times the base unit"
@@ -293,6 +298,15 @@ impl fmt::Display for EvalErrorKind {
                 write!(formatter, "`{name}` is a value, not a function; use `*` to multiply")
             }
             EvalErrorKind::UnknownUnit { symbol, .. } => write!(formatter, "unknown unit `{symbol}`"),
+            EvalErrorKind::AmbiguousUnit { symbol, choices } => write!(
+                formatter,
+                "`{symbol}` means more than one unit in the trade: write {}",
+                choices
+                    .iter()
+                    .map(|(choice, meaning)| format!("`{choice}` for {meaning}"))
+                    .collect::<Vec<_>>()
+                    .join(" or ")
+            ),
             EvalErrorKind::CaseOnlyUnit { symbol, reading, .. } => write!(
                 formatter,
                 "unit `{symbol}` would be read as {reading}: it differs from a catalog unit only by letter case"

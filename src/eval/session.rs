@@ -1,5 +1,8 @@
 //! An interactive session: a sheet that grows one entry at a time.
 //!
+//! Over 800 lines: entries, redefinition with dependents, loading a sheet with its includes and
+//! data files, and saving, all over one table of kept lines; tests at the foot.
+//!
 //! Each kept line is parsed once, when it is entered, and keeps its value. The session knows
 //! which lines refer to which names, so an entry costs parsing that one line and evaluating it;
 //! redefining a name re-evaluates only the lines that depend on it, directly or through other
@@ -355,7 +358,7 @@ impl<'l> Session<'l> {
                     .diagnostics
                     .push(Diagnostic::error(message, line.span));
             }
-            LineKind::Comment | LineKind::Heading(_) => {
+            LineKind::Comment | LineKind::Heading(_) | LineKind::Field(_) => {
                 let index = self.push(report.text.clone(), line);
                 report.outcome = Outcome::Added(index);
             }
@@ -999,6 +1002,7 @@ fn for_each_expression<'a>(line: &'a Line, visit: &mut impl FnMut(&'a Expression
         | LineKind::Heading(_)
         | LineKind::Invalid
         | LineKind::Include(_)
+        | LineKind::Field(_)
         | LineKind::Plot(_) => {}
     }
 }
@@ -1043,6 +1047,8 @@ fn evaluate_line(
         LineKind::Blank => return (LineResult::Blank, Vec::new()),
         LineKind::Comment => return (LineResult::Comment, Vec::new()),
         LineKind::Heading(heading) => return (LineResult::Heading(heading.clone()), Vec::new()),
+        // A title-block field is kept and saved with the session, and has no value.
+        LineKind::Field(_) => return (LineResult::Blank, Vec::new()),
         // Settled when its sheet is loaded (see `follow_include`); refused as an entry.
         LineKind::Include(_) => {
             let message = "an include is followed when its sheet is loaded: `:load` the sheet";

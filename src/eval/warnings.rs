@@ -101,6 +101,7 @@ pub fn sheet_warnings(
     for line in lines {
         shadowed_builtin(line, library, &mut warnings);
         mixed_units(line, &mut warnings);
+        unit_precedence(line, &mut warnings);
     }
     for (line, outcome) in lines.iter().zip(&evaluation.lines) {
         if let (LineKind::Definition(definition), LineResult::Value(shown)) =
@@ -236,38 +237,17 @@ struct Systems {
 }
 
 fn collect_systems(expression: &Expression, systems: &mut Systems) {
-    match &expression.kind {
-        ExpressionKind::Quantity {
+    for_each_subexpression(expression, &mut |part| {
+        if let ExpressionKind::Quantity {
             unit: Some(unit), ..
-        } => unit_systems(unit, systems),
-        ExpressionKind::List {
+        }
+        | ExpressionKind::List {
             unit: Some(unit), ..
-        } => unit_systems(unit, systems),
-        ExpressionKind::Quantity { unit: None, .. }
-        | ExpressionKind::List { unit: None, .. }
-        | ExpressionKind::FileColumn { .. }
-        | ExpressionKind::Name(_) => {}
-        ExpressionKind::Range(range) => {
-            for part in range.parts() {
-                collect_systems(part, systems);
-            }
+        } = &part.kind
+        {
+            unit_systems(unit, systems);
         }
-        ExpressionKind::Solve(solve) => {
-            for part in [&solve.goal, &solve.lower, &solve.upper] {
-                collect_systems(part, systems);
-            }
-        }
-        ExpressionKind::Call { arguments, .. } => {
-            for argument in arguments {
-                collect_systems(argument, systems);
-            }
-        }
-        ExpressionKind::Negate(inner) => collect_systems(inner, systems),
-        ExpressionKind::Binary { left, right, .. } => {
-            collect_systems(left, systems);
-            collect_systems(right, systems);
-        }
-    }
+    });
 }
 
 fn unit_systems(unit: &UnitExpression, systems: &mut Systems) {
@@ -491,6 +471,70 @@ const TRIGONOMETRY: &[&str] = &["sin", "cos", "tan"];
 const ANGLE_UNITS: &[&str] = &["rad", "deg", "°"];
 
 /// The expressions of a line that are evaluated.
+/// `W/m*K` reads as W·K/m, since `*` and `/` bind left to right; the trade usually means
+/// W/(m·K). Warns on every unit written with a `*` after a `/` outside parentheses.
+fn unit_precedence(line: &Line, warnings: &mut Vec<Diagnostic>) {
+    let mut units: Vec<&UnitExpression> = Vec::new();
+    if let LineKind::Definition(definition) = &line.kind {
+        units.extend(definition.display_unit.as_ref());
+    }
+    if let LineKind::Display(display) = &line.kind {
+        units.extend(display.display_unit.as_ref());
+    }
+    for expression in line_expressions(line) {
+        for_each_subexpression(expression, &mut |part| {
+            if let ExpressionKind::Quantity {
+                unit: Some(unit), ..
+            }
+            | ExpressionKind::List {
+                unit: Some(unit), ..
+            } = &part.kind
+            {
+                units.push(unit);
+            }
+        });
+    }
+    for unit in units {
+        if let Some(meant) = meant_denominator(&unit.text) {
+            warnings.push(
+                Diagnostic::warning(
+                    format!(
+                        "`{}` is read as ({})*{}: a `*` after a `/` multiplies, it does not divide",
+                        unit.text,
+                        &unit.text[..unit.text.rfind('*').unwrap_or(0)],
+                        &unit.text[unit.text.rfind('*').map_or(0, |star| star + 1)..]
+                    ),
+                    unit.span,
+                )
+                .with_code("unit-precedence")
+                .with_help(Some(format!(
+                    "if the whole is the denominator, write `{meant}`; to keep it as it is, write the \
+numerator first (`W*K/m`)"
+                ))),
+            );
+        }
+    }
+}
+
+/// `W/m*K` -> `W/(m*K)`: the unit as probably meant, when a `*` follows a `/` at the top level.
+fn meant_denominator(text: &str) -> Option<String> {
+    let mut depth = 0;
+    let mut slash = None;
+    for (index, character) in text.char_indices() {
+        match character {
+            '(' => depth += 1,
+            ')' => depth -= 1,
+            '/' if depth == 0 && slash.is_none() => slash = Some(index),
+            '*' | '·' | '⋅' if depth == 0 && slash.is_some() => {
+                let slash = slash?;
+                return Some(format!("{}/({})", &text[..slash], &text[slash + 1..]));
+            }
+            _ => {}
+        }
+    }
+    None
+}
+
 fn line_expressions(line: &Line) -> Vec<&Expression> {
     match &line.kind {
         LineKind::Definition(definition) => vec![&definition.expression],

@@ -32,6 +32,12 @@ pub const VOLTAGE_GRADIENT: Dimension = Dimension::from_integers([1, 1, -3, -1, 
 pub const CURRENT_DENSITY: Dimension = Dimension::from_integers([-2, 0, 0, 1, 0, 0, 0]);
 /// Hazen's coefficient written with its units, 1/(cm·s) in the trade.
 pub const PER_LENGTH_TIME: Dimension = Dimension::from_integers([-1, 0, -1, 0, 0, 0, 0]);
+/// Heat capacity per volume, J/(m^3 K): rho c of a fluid or of a saturated medium.
+pub const VOLUMETRIC_HEAT_CAPACITY: Dimension = Dimension::from_integers([-1, 1, -2, 0, -1, 0, 0]);
+/// A coefficient per kelvin: the temperature coefficient of conductivity.
+pub const PER_TEMPERATURE: Dimension = Dimension::from_integers([0, 0, 0, 0, -1, 0, 0]);
+/// Dissolved solids per conductivity, (mg/L)/(uS/cm) in the trade.
+pub const DENSITY_PER_CONDUCTIVITY: Dimension = Dimension::from_integers([0, 2, -3, -2, 0, 0, 0]);
 /// A rate constant (1/s): first-order decay.
 pub const PER_TIME: Dimension = Dimension::from_integers([0, 0, -1, 0, 0, 0, 0]);
 /// A molar concentration (mol/m³); a mass concentration has the dimension of a density.

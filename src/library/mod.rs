@@ -19,6 +19,7 @@ pub mod constants;
 pub mod diffusion;
 pub mod dimensions;
 pub mod electrical;
+pub mod electrolyte;
 pub mod flow;
 pub mod formulation;
 pub mod heat;
@@ -160,6 +161,7 @@ fn all_relations() -> impl Iterator<Item = &'static relation::Relation> {
         .chain(wells::RELATIONS)
         .chain(water::RELATIONS)
         .chain(brine::RELATIONS)
+        .chain(electrolyte::RELATIONS)
         .chain(air::RELATIONS)
 }
 

@@ -194,38 +194,45 @@ impl Form {
     /// The checks that depend only on the numbers: every row of a column goes through them.
     fn check_numbers(&self, values: &[f64]) -> Result<(), CallError> {
         for (index, (value, parameter)) in values.iter().zip(self.parameters).enumerate() {
-            if let Some(message) = outside_domain(*value, parameter) {
-                return Err(CallError::Domain {
-                    argument: Some(index),
-                    message,
-                });
+            if !parameter.domain.admits(*value) {
+                return Err(domain_error(index, parameter));
             }
         }
         for formulation in self.formulations {
             for range in formulation.ranges {
-                let Some(index) = self
-                    .parameters
-                    .iter()
-                    .position(|parameter| parameter.name == range.parameter)
-                else {
-                    continue;
-                };
-                let Some(value) = values.get(index) else {
-                    continue;
-                };
-                if *value < range.low || *value > range.high {
-                    return Err(CallError::OutOfRange {
-                        argument: Some(index),
-                        message: outside_range_message(*value, range, formulation),
-                    });
-                }
+                self.check_range(values, range, formulation)?;
             }
         }
         Ok(())
     }
 
-    /// The body over checked numbers, with the defaults of left-out parameters filled in.
+    fn check_range(
+        &self,
+        values: &[f64],
+        range: &ValidRange,
+        formulation: &Formulation,
+    ) -> Result<(), CallError> {
+        let index = self
+            .parameters
+            .iter()
+            .position(|parameter| parameter.name == range.parameter);
+        match index.and_then(|index| values.get(index).map(|value| (index, *value))) {
+            Some((index, value)) if value < range.low || value > range.high => {
+                Err(CallError::OutOfRange {
+                    argument: Some(index),
+                    message: outside_range_message(value, range, formulation),
+                })
+            }
+            _ => Ok(()),
+        }
+    }
+
+    /// The body over checked numbers, with the defaults of left-out parameters filled in
+    /// (a full row goes to the body as it is).
     fn evaluate(&self, values: &[f64]) -> Result<f64, CallError> {
+        if values.len() == self.parameters.len() {
+            return (self.body)(values);
+        }
         let mut full = [0.0; MOST_PARAMETERS];
         for (index, (slot, parameter)) in full.iter_mut().zip(self.parameters).enumerate() {
             *slot = match values.get(index) {
@@ -237,20 +244,38 @@ impl Form {
     }
 }
 
-/// Why `value` is outside the parameter's domain, if it is.
-fn outside_domain(value: f64, parameter: &Parameter) -> Option<String> {
+impl Domain {
+    /// Whether the domain takes `value` (a plain comparison: every row of a column asks).
+    #[inline]
+    fn admits(self, value: f64) -> bool {
+        match self {
+            Domain::Any => true,
+            Domain::Positive => value > 0.0,
+            Domain::NonNegative | Domain::AbsoluteTemperature => value >= 0.0,
+            Domain::Fraction => value > 0.0 && value <= 1.0,
+            Domain::OpenFraction => value > 0.0 && value < 1.0,
+        }
+    }
+}
+
+/// The refusal of a value outside a parameter's domain, naming the domain.
+#[cold]
+fn domain_error(index: usize, parameter: &Parameter) -> CallError {
     let name = parameter.name;
     let meaning = parameter.meaning;
-    match parameter.domain {
-        Domain::Any => None,
-        Domain::Positive => (value <= 0.0).then(|| format!("`{name}` must be positive")),
-        Domain::NonNegative => (value < 0.0).then(|| format!("`{name}` must not be negative")),
-        Domain::Fraction => (!(value > 0.0 && value <= 1.0))
-            .then(|| format!("`{name}` is {meaning} and must lie in (0, 1]")),
-        Domain::OpenFraction => (!(value > 0.0 && value < 1.0))
-            .then(|| format!("`{name}` is {meaning} and must lie in (0, 1)")),
-        Domain::AbsoluteTemperature => (value < 0.0)
-            .then(|| format!("`{name}` is below absolute zero: it must be 0 K or above")),
+    let message = match parameter.domain {
+        Domain::Any => format!("`{name}` is outside its domain"),
+        Domain::Positive => format!("`{name}` must be positive"),
+        Domain::NonNegative => format!("`{name}` must not be negative"),
+        Domain::Fraction => format!("`{name}` is {meaning} and must lie in (0, 1]"),
+        Domain::OpenFraction => format!("`{name}` is {meaning} and must lie in (0, 1)"),
+        Domain::AbsoluteTemperature => {
+            format!("`{name}` is below absolute zero: it must be 0 K or above")
+        }
+    };
+    CallError::Domain {
+        argument: Some(index),
+        message,
     }
 }
 
@@ -369,12 +394,44 @@ impl Function for Relation {
     }
 
     /// Every relation is its own row kernel: the rows after the first go through the same
-    /// number checks and the body, without re-deciding the form or the dimensions.
+    /// number checks and the body, without re-deciding the form or the dimensions. The checks
+    /// that can fail are listed once here, so a row costs only them and the body.
     fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
         let form = self.form_for(first_row).ok()?;
+        let provided = first_row.len();
+        let domains: Vec<(usize, Domain)> = form.parameters[..provided]
+            .iter()
+            .enumerate()
+            .filter(|(_, parameter)| parameter.domain != Domain::Any)
+            .map(|(index, parameter)| (index, parameter.domain))
+            .collect();
+        let has_ranges = form
+            .formulations
+            .iter()
+            .any(|formulation| !formulation.ranges.is_empty());
+        let arity = form.parameters.len().min(MOST_PARAMETERS);
+        let mut defaults = [0.0; MOST_PARAMETERS];
+        for (slot, parameter) in defaults.iter_mut().zip(form.parameters) {
+            *slot = parameter.default.unwrap_or(f64::NAN);
+        }
         Some(Box::new(move |row: &[f64]| {
-            form.check_numbers(row)?;
-            form.evaluate(row)
+            for &(index, domain) in &domains {
+                match row.get(index) {
+                    Some(value) if domain.admits(*value) => {}
+                    _ => return Err(domain_error(index, &form.parameters[index])),
+                }
+            }
+            if has_ranges {
+                form.check_numbers(row)?;
+            }
+            if row.len() != provided || provided > MOST_PARAMETERS {
+                return form.evaluate(row);
+            }
+            let mut full = defaults;
+            for (slot, value) in full.iter_mut().zip(row) {
+                *slot = *value;
+            }
+            (form.body)(&full[..arity])
         }))
     }
 

@@ -10,10 +10,53 @@ use serde::{Serialize, Serializer};
 pub struct SheetJson<'e> {
     #[serde(skip_serializing_if = "Option::is_none")]
     pub file: Option<String>,
+    /// The title block (`@project: …`), field by field; absent when the sheet has none.
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub fields: Vec<FieldJson>,
+    /// Every file the run read: the main sheet first, then includes and data files.
+    pub inputs: Vec<InputJson>,
     pub lines: Vec<LineJson<'e>>,
     pub checks: Vec<CheckJson<'e>>,
     pub diagnostics: Vec<DiagnosticJson>,
     pub formulations: Vec<FormulationJson>,
+}
+
+#[derive(Serialize)]
+pub struct FieldJson {
+    pub field: String,
+    pub text: String,
+}
+
+#[derive(Serialize)]
+pub struct InputJson {
+    /// Relative to the main sheet's folder (the main sheet by its file name).
+    pub path: String,
+    pub sha256: String,
+    pub bytes: usize,
+}
+
+/// The inputs of a run as JSON.
+pub fn inputs_json(inputs: &[crate::render::report::InputFile]) -> Vec<InputJson> {
+    inputs
+        .iter()
+        .map(|input| InputJson {
+            path: input.path.clone(),
+            sha256: input.sha256.clone(),
+            bytes: input.bytes,
+        })
+        .collect()
+}
+
+/// The title block as JSON.
+pub fn fields_json(evaluation: &Evaluation) -> Vec<FieldJson> {
+    evaluation
+        .fields
+        .iter()
+        .map(|field| FieldJson {
+            field: field.name.clone(),
+            text: field.text.clone(),
+        })
+        .collect()
 }
 
 #[derive(Serialize)]
@@ -160,7 +203,11 @@ pub fn diagnostics_json(sources: &SourceMap, diagnostics: &[Diagnostic]) -> Vec<
         .collect()
 }
 
-pub fn sheet_json<'e>(file: Option<&str>, evaluation: &'e Evaluation) -> SheetJson<'e> {
+pub fn sheet_json<'e>(
+    file: Option<&str>,
+    evaluation: &'e Evaluation,
+    inputs: &[crate::render::report::InputFile],
+) -> SheetJson<'e> {
     let mut lines = Vec::new();
     let mut checks = Vec::new();
     for line in &evaluation.lines {
@@ -190,6 +237,8 @@ pub fn sheet_json<'e>(file: Option<&str>, evaluation: &'e Evaluation) -> SheetJs
     }
     SheetJson {
         file: file.map(str::to_string),
+        fields: fields_json(evaluation),
+        inputs: inputs_json(inputs),
         lines,
         checks,
         diagnostics: diagnostics_json(&evaluation.sources, &evaluation.diagnostics),

@@ -8,6 +8,7 @@ pub mod report;
 pub mod snippet;
 pub mod table;
 pub mod text_table;
+pub mod working;
 
 pub use number::format_significant;
 pub use snippet::write_diagnostics;

@@ -1,5 +1,8 @@
 //! SVG line charts for calculation sheets.
 //!
+//! Over 800 lines: axis ticks, log scales, legends and the SVG text escaping a chart needs,
+//! each small and tied to the others through the one layout.
+//!
 //! Charts are drawn with `plotters` through its SVG backend only. Plotters is
 //! built without any font feature: it then falls back to a built-in text size
 //! estimate, which is all an SVG needs because the viewer lays out the text.

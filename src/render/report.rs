@@ -11,14 +11,27 @@
 use super::table::check_text;
 use super::CAUTION;
 use crate::eval::{Evaluation, LineResult, Severity};
+use crate::library::Builtins;
 use sha2::{Digest, Sha256};
 use std::io::{self, Write};
+
+/// A file a run read besides the main sheet (an included sheet, a data file).
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct InputFile {
+    /// Relative to the main sheet's folder, `/`-separated (`shared/site.fxs`, `../data/k.csv`).
+    pub path: String,
+    /// Lower-case hex SHA-256 of the bytes read.
+    pub sha256: String,
+    pub bytes: usize,
+}
 
 /// What a report is made from.
 pub struct ReportContext<'a> {
     /// The sheet's file as given on the command line.
     pub label: &'a str,
     pub source: &'a str,
+    /// The included sheets and data files the run read, with their hashes.
+    pub inputs: &'a [InputFile],
     pub evaluation: &'a Evaluation,
     /// Version of the tool that wrote the report.
     pub version: &'a str,
@@ -266,6 +279,39 @@ fn outcome(evaluation: &Evaluation) -> String {
     }
 }
 
+/// The sheet's title-block fields, labelled, in the order a title block reads.
+fn title_block(evaluation: &Evaluation) -> Vec<(&'static str, String)> {
+    const ORDER: [(&str, &str); 7] = [
+        ("project", "Project"),
+        ("job", "Job number"),
+        ("title", "Title"),
+        ("author", "Author"),
+        ("checker", "Checker"),
+        ("date", "Date"),
+        ("revision", "Revision"),
+    ];
+    ORDER
+        .iter()
+        .filter_map(|(field, label)| {
+            let text = evaluation
+                .fields
+                .iter()
+                .rev()
+                .find(|known| known.name == *field)?
+                .text
+                .clone();
+            Some((
+                *label,
+                if text.is_empty() {
+                    "(blank)".to_string()
+                } else {
+                    text
+                },
+            ))
+        })
+        .collect()
+}
+
 fn file_name(label: &str) -> &str {
     std::path::Path::new(label)
         .file_name()
@@ -314,6 +360,9 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
         md_cell(file_name(context.label))
     )?;
     writeln!(out, "| | |\n|---|---|")?;
+    for (field, text) in title_block(evaluation) {
+        writeln!(out, "| {field} | {} |", md_cell(&text))?;
+    }
     writeln!(out, "| Sheet | {} |", md_code(context.label))?;
     writeln!(
         out,
@@ -374,6 +423,39 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
             }
         }
     }
+    let working = super::working::working(evaluation, Builtins::standard(), context.digits);
+    if !working.is_empty() {
+        writeln!(out, "## Working\n")?;
+        for step in &working {
+            let name = step
+                .name
+                .as_deref()
+                .map(|name| format!("{name} = "))
+                .unwrap_or_default();
+            writeln!(out, "Line {}:\n", step.line)?;
+            writeln!(out, "```text\n{name}{}", step.expression)?;
+            let indent = " ".repeat(name.chars().count().saturating_sub(2));
+            writeln!(out, "{indent}= {}", step.substituted)?;
+            writeln!(out, "{indent}= {}\n```\n", step.result)?;
+            for relation in &step.relations {
+                writeln!(out, "- {}", md_code(&relation.call))?;
+                if !relation.formula.is_empty() {
+                    writeln!(
+                        out,
+                        "  - formula {} with the values: {}",
+                        md_code(&relation.formula),
+                        md_code(&relation.substituted)
+                    )?;
+                }
+                for citation in &relation.citations {
+                    writeln!(out, "  - after {}", md_cell(citation))?;
+                }
+            }
+            if !step.relations.is_empty() {
+                writeln!(out)?;
+            }
+        }
+    }
     let checks = checks(evaluation, context.digits);
     writeln!(out, "## Checks\n")?;
     if checks.is_empty() {
@@ -406,6 +488,18 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
         }
         writeln!(out)?;
     }
+    writeln!(out, "## Inputs\n")?;
+    writeln!(out, "| file | bytes | SHA-256 |\n|---|---:|---|")?;
+    for input in context.inputs {
+        writeln!(
+            out,
+            "| {} | {} | `{}` |",
+            md_code(&input.path),
+            input.bytes,
+            input.sha256
+        )?;
+    }
+    writeln!(out)?;
     writeln!(out, "## Sources\n")?;
     let used = evaluation.provenance.formulations();
     if used.is_empty() {
@@ -469,6 +563,7 @@ tr.failed td.value, tr.error td.value, span.failed { color: #a40e0e; font-weight
 span.passed { color: #116329; }
 figure.chart { margin: 1rem 0; }
 figure.chart svg { max-width: 100%; height: auto; }
+div.step pre { margin: 0.25rem 0 0.5rem; white-space: pre-wrap; }
 section.caution { background: #fff8e1; border-left: 4px solid #d29922; padding: 0.25rem 1rem; margin-top: 2rem; }
 @media print { main { max-width: none; } tr { break-inside: avoid; } }
 ";
@@ -488,6 +583,14 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
     )?;
     writeln!(out, "<h1>{}</h1>", escape(&title))?;
     writeln!(out, "<table class=\"meta\">")?;
+    for (field, text) in title_block(evaluation) {
+        writeln!(
+            out,
+            "<tr><th>{field}</th><td data-field=\"{}\">{}</td></tr>",
+            field.to_lowercase(),
+            escape(&text)
+        )?;
+    }
     writeln!(
         out,
         "<tr><th>Sheet</th><td><code>{}</code></td></tr>",
@@ -538,6 +641,44 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
         }
     }
     writeln!(out, "</section>")?;
+    let working = super::working::working(evaluation, Builtins::standard(), context.digits);
+    if !working.is_empty() {
+        writeln!(out, "<section class=\"working\">\n<h2>Working</h2>")?;
+        for step in &working {
+            let name = step
+                .name
+                .as_deref()
+                .map(|name| format!("{name} = "))
+                .unwrap_or_default();
+            let indent = " ".repeat(name.chars().count().saturating_sub(2));
+            writeln!(
+                out,
+                "<div class=\"step\"><p>Line {}</p><pre>{}{}\n{indent}= {}\n{indent}= {}</pre>",
+                step.line,
+                escape(&name),
+                escape(&step.expression),
+                escape(&step.substituted),
+                escape(&step.result)
+            )?;
+            for relation in &step.relations {
+                writeln!(out, "<p><code>{}</code>", escape(&relation.call))?;
+                if !relation.formula.is_empty() {
+                    writeln!(
+                        out,
+                        "<br>formula <code>{}</code> with the values: <code>{}</code>",
+                        escape(&relation.formula),
+                        escape(&relation.substituted)
+                    )?;
+                }
+                for citation in &relation.citations {
+                    writeln!(out, "<br>after {}", escape(citation))?;
+                }
+                writeln!(out, "</p>")?;
+            }
+            writeln!(out, "</div>")?;
+        }
+        writeln!(out, "</section>")?;
+    }
     let checks = checks(evaluation, context.digits);
     writeln!(out, "<section class=\"checks\">\n<h2>Checks</h2>")?;
     if checks.is_empty() {
@@ -582,6 +723,21 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
         }
         writeln!(out, "</ul>\n</section>")?;
     }
+    writeln!(
+        out,
+        "<section class=\"inputs\">\n<h2>Inputs</h2>\n<table class=\"inputs\">\n\
+<thead><tr><th>file</th><th>bytes</th><th>SHA-256</th></tr></thead>\n<tbody>"
+    )?;
+    for input in context.inputs {
+        writeln!(
+            out,
+            "<tr><td><code>{}</code></td><td class=\"number\">{}</td><td><code>{}</code></td></tr>",
+            escape(&input.path),
+            input.bytes,
+            input.sha256
+        )?;
+    }
+    writeln!(out, "</tbody>\n</table>\n</section>")?;
     writeln!(out, "<section class=\"sources\">\n<h2>Sources</h2>")?;
     let used = evaluation.provenance.formulations();
     if used.is_empty() {

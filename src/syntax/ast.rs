@@ -34,6 +34,8 @@ pub enum LineKind {
     Function(FunctionDefinition),
     Include(Include),
     Plot(Plot),
+    /// `@checker: B. Checker`: a field of the title block.
+    Field(Field),
     /// A line that failed to parse; its error is in the parse result.
     Invalid,
 }
@@ -60,6 +62,15 @@ pub struct FunctionDefinition {
 pub struct Parameter {
     pub name: Name,
     pub unit: Option<UnitExpression>,
+}
+
+/// `@name: text`: one field of the sheet's title block (project, job, title, author, checker,
+/// date, revision), shown at the top of reports and in JSON, never evaluated.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Field {
+    pub name: String,
+    /// The text after the colon, trimmed; empty when the field is left blank.
+    pub text: String,
 }
 
 /// `include "path"`

@@ -1,6 +1,9 @@
 //! Builds the syntax tree from pest pairs. Operator precedence and associativity live in one
 //! table here (`binding_power`), not in the grammar. `expect_*` helpers would be user errors; a pair shape
 //! the grammar rules out is reported as `internal`, never a panic.
+//!
+//! Over 800 lines: one builder per grammar rule, kept together with the precedence table
+//! they share, and the tests of each rule's tree at the foot.
 
 use super::ast::*;
 use super::error::{SyntaxError, SyntaxErrorKind};
@@ -124,6 +127,20 @@ pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, Synt
                 comment = inner_text(pair).map(|text| text.trim().to_string());
             }
             Rule::definition => kind = builder.definition(pair)?,
+            Rule::field_line => {
+                let mut field = Field {
+                    name: String::new(),
+                    text: String::new(),
+                };
+                for inner in pair.into_inner() {
+                    match inner.as_rule() {
+                        Rule::field_name => field.name = inner.as_str().to_string(),
+                        Rule::field_text => field.text = inner.as_str().trim().to_string(),
+                        _ => {}
+                    }
+                }
+                kind = LineKind::Field(field);
+            }
             Rule::include_line => {
                 for inner in pair.into_inner() {
                     match inner.as_rule() {
@@ -732,8 +749,12 @@ impl Builder {
                 match inner.next() {
                     None => Ok(base),
                     Some(exponent) => {
+                        let written = match exponent.as_rule() {
+                            Rule::unit_superscript => plain_digits(exponent.as_str()),
+                            _ => exponent.as_str().to_string(),
+                        };
                         let (numerator, denominator) =
-                            exponent_value(exponent.as_str()).map_err(|kind| SyntaxError {
+                            exponent_value(&written).map_err(|kind| SyntaxError {
                                 kind,
                                 span: self.span(&exponent),
                             })?;
@@ -762,6 +783,26 @@ impl Builder {
             _ => Err(internal(span.start)),
         }
     }
+}
+
+/// `⁻¹` -> `-1`: a superscript power as the digits `exponent_value` reads.
+fn plain_digits(superscript: &str) -> String {
+    superscript
+        .chars()
+        .map(|character| match character {
+            '⁻' => '-',
+            '⁰' => '0',
+            '¹' => '1',
+            '²' => '2',
+            '³' => '3',
+            '⁴' => '4',
+            '⁵' => '5',
+            '⁶' => '6',
+            '⁷' => '7',
+            '⁸' => '8',
+            _ => '9',
+        })
+        .collect()
 }
 
 /// Precedence climbing over an expression's tokens: operands and operators alternate (the
@@ -854,6 +895,7 @@ fn internal(position: usize) -> SyntaxError {
         kind: SyntaxErrorKind::Unexpected {
             expected: vec!["valid syntax (internal parser error)"],
             found: None,
+            hint: None,
         },
         span: Span::new(position, position),
     }
@@ -886,6 +928,7 @@ fn convert(error: pest::error::Error<Rule>, text: &str, offset: usize) -> Syntax
         kind: SyntaxErrorKind::Unexpected {
             expected,
             found: if rest.is_empty() { None } else { Some(found) },
+            hint: super::error::hint_for(text),
         },
         span: Span::new(
             offset + position,
@@ -914,6 +957,9 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::EOI => "the end of the line",
         Rule::definition | Rule::display | Rule::check_line => "a line",
         Rule::quoted_path => "a quoted path",
+        Rule::field_name => {
+            "a field name (project, job, title, author, checker, date or revision) and `:`"
+        }
         Rule::list | Rule::list_item => "an expression",
         Rule::to_keyword | Rule::range_tail => "`to`",
         Rule::ranged => "an expression",

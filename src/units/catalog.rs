@@ -95,6 +95,28 @@ const fn unit(
     }
 }
 
+/// Spellings used in the trade for more than one unit: refused with the choices rather than
+/// guessed (`a`: annum or are).
+pub const AMBIGUOUS: &[(&str, &[(&str, &str)])] = &[
+    ("a", &[("yr", "a year (annum)"), ("are", "an are, 100 m^2")]),
+    (
+        "ton",
+        &[
+            ("t", "a tonne, 1000 kg"),
+            ("ton_US", "a short ton, 2000 lb"),
+            ("ton_UK", "a long ton, 2240 lb"),
+        ],
+    ),
+    (
+        "pcf",
+        &[("lb/ft^3", "a density"), ("lbf/ft^3", "a unit weight")],
+    ),
+    (
+        "therm",
+        &[("therm_US", "the US therm"), ("therm_EC", "the EC therm")],
+    ),
+];
+
 /// Every unit the language knows.
 pub const UNITS: &[UnitDefinition] = &[
     // Length
@@ -130,7 +152,7 @@ pub const UNITS: &[UnitDefinition] = &[
         "exact",
     ),
     unit(
-        &["acre"],
+        &["acre", "ac"],
         "acre (international)",
         AREA,
         "43560*0.3048*0.3048",
@@ -176,7 +198,15 @@ pub const UNITS: &[UnitDefinition] = &[
         "exact",
     ),
     // Time
-    unit(&["s"], "second", TIME, "1", true, SI_BROCHURE_BASE, ""),
+    unit(
+        &["s", "sec"],
+        "second",
+        TIME,
+        "1",
+        true,
+        SI_BROCHURE_BASE,
+        "",
+    ),
     unit(
         &["min"],
         "minute",
@@ -187,7 +217,7 @@ pub const UNITS: &[UnitDefinition] = &[
         "exact",
     ),
     unit(
-        &["h"],
+        &["h", "hr"],
         "hour",
         TIME,
         "3600",
@@ -196,7 +226,7 @@ pub const UNITS: &[UnitDefinition] = &[
         "exact",
     ),
     unit(
-        &["d"],
+        &["d", "day"],
         "day",
         TIME,
         "86400",
@@ -214,7 +244,7 @@ pub const UNITS: &[UnitDefinition] = &[
         "7 d, exact",
     ),
     unit(
-        &["yr"],
+        &["yr", "year"],
         "year (Julian, 365.25 d)",
         TIME,
         "31557600",
@@ -336,7 +366,7 @@ pub const UNITS: &[UnitDefinition] = &[
         "exact",
     ),
     unit(
-        &["ftH2O"],
+        &["ftH2O", "ft_H2O"],
         "foot of water (conventional)",
         PRESSURE,
         "0.3048*9806.65",
@@ -412,7 +442,7 @@ pub const UNITS: &[UnitDefinition] = &[
         "",
     ),
     UnitDefinition {
-        symbols: &["degC", "°C"],
+        symbols: &["degC", "°C", "℃"],
         name: "degree Celsius",
         dimension: TEMPERATURE,
         factor: "1",
@@ -423,7 +453,7 @@ pub const UNITS: &[UnitDefinition] = &[
         note: "absolute; a difference inside a compound unit",
     },
     UnitDefinition {
-        symbols: &["degF", "°F"],
+        symbols: &["degF", "°F", "℉"],
         name: "degree Fahrenheit",
         dimension: TEMPERATURE,
         factor: "5/9",
@@ -526,6 +556,24 @@ pub const UNITS: &[UnitDefinition] = &[
         SI_BROCHURE_DERIVED,
         "",
     ),
+    unit(
+        &["mho"],
+        "mho",
+        CONDUCTANCE,
+        "1",
+        true,
+        NIST_811,
+        "the siemens under its old name; umho/cm is uS/cm",
+    ),
+    unit(
+        &["HFU"],
+        "heat flow unit",
+        [0, 1, -3, 0, 0, 0, 0],
+        "4.184/1000000/0.0001",
+        false,
+        COMMON_PRACTICE,
+        "1 ucal/(cm^2*s) with the thermochemical calorie (NIST SP 811 B.8): 41.84 mW/m^2",
+    ),
     // Ratios and angles
     unit(
         &["%"],
@@ -571,6 +619,142 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_ACCEPTED,
         "pi/180, not a decimal",
+    ),
+    // Trade spellings: units engineers type every day, beside the SI and NIST rows above.
+    unit(
+        &["are"],
+        "are",
+        AREA,
+        "100",
+        false,
+        NIST_811,
+        "exact; `a` alone is refused (annum or are)",
+    ),
+    unit(
+        &["gal_imp", "impgal"],
+        "gallon (imperial)",
+        VOLUME,
+        "0.00454609",
+        false,
+        NIST_811,
+        "exact; `gal` is the US gallon",
+    ),
+    unit(
+        &["cfs"],
+        "cubic foot per second",
+        VOLUME_FLOW,
+        "0.3048*0.3048*0.3048",
+        false,
+        NIST_811,
+        "exact",
+    ),
+    unit(
+        &["gpd"],
+        "US gallon per day",
+        VOLUME_FLOW,
+        "0.003785411784/86400",
+        false,
+        COMMON_PRACTICE,
+        "exact from NIST SP 811 gallon and day",
+    ),
+    unit(
+        &["MGD"],
+        "million US gallons per day",
+        VOLUME_FLOW,
+        "3785.411784/86400",
+        false,
+        COMMON_PRACTICE,
+        "exact from NIST SP 811 gallon and day",
+    ),
+    unit(
+        &["ton_US"],
+        "ton (short, 2000 lb)",
+        MASS,
+        "907.18474",
+        false,
+        NIST_811,
+        "exact",
+    ),
+    unit(
+        &["ton_UK"],
+        "ton (long, 2240 lb)",
+        MASS,
+        "1016.0469088",
+        false,
+        NIST_811,
+        "exact",
+    ),
+    unit(
+        &["kip"],
+        "kip (1000 lbf)",
+        FORCE,
+        "4448.2216152605",
+        false,
+        NIST_811,
+        "exact",
+    ),
+    unit(
+        &["ksi"],
+        "kip per square inch",
+        PRESSURE,
+        "453.59237*9.80665/0.0254/0.0254",
+        false,
+        NIST_811,
+        "exact",
+    ),
+    unit(
+        &["tsf"],
+        "ton-force (short) per square foot",
+        PRESSURE,
+        "907.18474*9.80665/0.3048/0.3048",
+        false,
+        COMMON_PRACTICE,
+        "2000 lbf/ft^2, exact from NIST SP 811 factors; geotechnical practice",
+    ),
+    unit(
+        &["Torr", "torr"],
+        "torr",
+        PRESSURE,
+        "101325/760",
+        false,
+        NIST_811,
+        "exact, 1/760 atm",
+    ),
+    unit(
+        &["inHg"],
+        "inch of mercury (conventional)",
+        PRESSURE,
+        "13595.1*9.80665*0.0254",
+        false,
+        NIST_811_CONVENTIONAL,
+        "13.5951 kg/L x 1 in x g0",
+    ),
+    unit(
+        &["mmH2O"],
+        "millimetre of water (conventional)",
+        PRESSURE,
+        "9.80665",
+        false,
+        NIST_811_CONVENTIONAL,
+        "1000 kg/m^3 x 1 mm x g0, exact",
+    ),
+    unit(
+        &["therm_US"],
+        "therm (US)",
+        ENERGY,
+        "105480400",
+        false,
+        NIST_811,
+        "exact as tabulated; `therm` alone is refused (US or EC)",
+    ),
+    unit(
+        &["therm_EC"],
+        "therm (EC)",
+        ENERGY,
+        "105506000",
+        false,
+        NIST_811,
+        "exact as tabulated",
     ),
 ];
 

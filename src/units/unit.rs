@@ -3,7 +3,7 @@
 //! `divide` and `power`; any combination drops the offset, so inside a compound unit a degree
 //! is a temperature difference (`W/(m*degC)`), as the trade writes it.
 
-use super::catalog::{TemperatureRole, UnitDefinition, PREFIXES, UNITS};
+use super::catalog::{TemperatureRole, UnitDefinition, AMBIGUOUS, PREFIXES, UNITS};
 use super::dimension::{Dimension, Exponent, ExponentOverflow};
 use super::factor::Factor;
 use std::collections::HashMap;
@@ -36,6 +36,12 @@ pub enum UnitError {
         /// The catalog unit with the same letters, e.g. `Pa` (pascal).
         suggestion: String,
         suggestion_name: String,
+    },
+    /// A spelling the trade uses for more than one unit (`a`, `ton`): the choices, each a
+    /// symbol and what it means.
+    Ambiguous {
+        symbol: String,
+        choices: Vec<(String, String)>,
     },
     ExponentOverflow,
 }
@@ -128,6 +134,15 @@ impl Unit {
 
     /// A symbol from the catalog, optionally behind an SI prefix (`kPa`, `µS`, `mD`).
     pub fn lookup(symbol: &str) -> Result<Unit, UnitError> {
+        if let Some((_, choices)) = AMBIGUOUS.iter().find(|(spelling, _)| *spelling == symbol) {
+            return Err(UnitError::Ambiguous {
+                symbol: symbol.to_string(),
+                choices: choices
+                    .iter()
+                    .map(|(choice, meaning)| (choice.to_string(), meaning.to_string()))
+                    .collect(),
+            });
+        }
         let catalog = catalog();
         if let Some(index) = catalog.by_symbol.get(symbol) {
             return Ok(catalog.entries[*index].unit.clone());
@@ -163,6 +178,9 @@ impl Unit {
                     temperature: entry.unit.temperature,
                 });
             }
+        }
+        if let Some(power) = trailing_power_of_length(symbol) {
+            return Ok(power);
         }
         Err(UnitError::Unknown {
             symbol: symbol.to_string(),
@@ -224,6 +242,20 @@ impl Unit {
             None => scaled,
         }
     }
+}
+
+/// `m3`, `ft2`, `cm3`: a length symbol with a trailing 2 or 3 is that power, as the trade
+/// writes areas and volumes (`m3/d`).
+fn trailing_power_of_length(symbol: &str) -> Option<Unit> {
+    let (stem, power) = match symbol.strip_suffix('2') {
+        Some(stem) => (stem, 2),
+        None => (symbol.strip_suffix('3')?, 3),
+    };
+    let base = Unit::lookup(stem).ok()?;
+    if base.dimension != Dimension::from_integers([1, 0, 0, 0, 0, 0, 0]) {
+        return None;
+    }
+    base.power(Exponent::new(power, 1)).ok()
 }
 
 impl Catalog {
@@ -340,7 +372,7 @@ mod tests {
             }
         }
         refused.sort();
-        assert_eq!(refused, ["EV", "PA", "YD", "hA", "hP", "pA", "yD"]);
+        assert_eq!(refused, ["EV", "PA", "YD", "aC", "hA", "hP", "pA", "yD"]);
     }
 
     #[test]

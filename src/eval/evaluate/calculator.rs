@@ -442,6 +442,9 @@ pub fn resolve_unit(expression: &UnitExpression) -> Result<Unit, EvalError> {
             },
             span,
         ),
+        UnitError::Ambiguous { symbol, choices } => {
+            EvalError::new(EvalErrorKind::AmbiguousUnit { symbol, choices }, span)
+        }
         UnitError::ExponentOverflow => EvalError::new(EvalErrorKind::ExponentOverflow, span),
     };
     match &expression.kind {

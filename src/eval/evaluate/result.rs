@@ -24,6 +24,11 @@ pub struct Evaluation {
     /// Every built-in call that got its arguments evaluated, in evaluation order (for checks
     /// on the values passed, such as the plausibility warnings).
     pub calls: Vec<CallRecord>,
+    /// The main sheet's title-block fields (`@checker: …`), in file order.
+    pub fields: Vec<crate::syntax::Field>,
+    /// Named values defined in included sheets, `(name, value)`, so the working of a line that
+    /// uses them can show their values.
+    pub included_values: Vec<(String, Shown)>,
 }
 
 /// A built-in call and the values of its arguments.

@@ -560,7 +560,8 @@ impl<'a> Evaluator<'a> {
     pub(super) fn evaluate_other(&mut self, index: usize) {
         let line = &self.lines[index];
         let result = match &line.kind {
-            LineKind::Blank => LineResult::Blank,
+            // A title-block field has no value: the evaluation lists it in `fields`.
+            LineKind::Blank | LineKind::Field(_) => LineResult::Blank,
             LineKind::Comment => LineResult::Comment,
             LineKind::Heading(text) => LineResult::Heading(text.clone()),
             LineKind::Invalid | LineKind::Definition(_) | LineKind::Include(_) => LineResult::Error,
@@ -680,12 +681,32 @@ impl<'a> Evaluator<'a> {
             .collect();
         let mut diagnostics = self.diagnostics;
         diagnostics.sort_by_key(|diagnostic| diagnostic.span.start);
+        let fields = self.lines[..main_lines]
+            .iter()
+            .filter_map(|line| match &line.kind {
+                LineKind::Field(field) => Some(field.clone()),
+                _ => None,
+            })
+            .collect();
+        // The values of included sheets, for showing the working of lines that use them.
+        let included_values = self.lines[main_lines..]
+            .iter()
+            .zip(&self.slots[main_lines..])
+            .filter_map(|(line, slot)| match (&line.kind, slot) {
+                (LineKind::Definition(definition), Slot::Ready(shown)) => {
+                    Some((definition.name.text.clone(), shown.clone()))
+                }
+                _ => None,
+            })
+            .collect();
         Evaluation {
             lines,
             sources: SourceMap::default(),
             diagnostics,
             provenance: self.calculator.provenance,
             calls: self.calculator.calls,
+            fields,
+            included_values,
         }
     }
 }
