@@ -290,12 +290,94 @@ fn columns(criterion: &mut Criterion) {
     group.finish();
 }
 
+/// A keystroke in the editor on a 1 000-line sheet, through the language server's own message
+/// handling: an edit of one input (full re-evaluation and the diagnostics to publish) followed
+/// by the inlay hints of every line. Beside it, the two ways the engine could answer: the
+/// full evaluation alone, and the session's incremental redefinition of the same input.
+fn lsp_keystroke(criterion: &mut Criterion) {
+    use fluxsheet::eval::session::Session;
+    use fluxsheet::lsp::Server;
+    use lsp_server::{Message, Notification, Request};
+    use serde_json::json;
+    let library = Builtins::standard();
+    let sheet = generated_sheet(1_000);
+    let folder = tempfile::tempdir().expect("a scratch folder");
+    let path = folder.path().join("keystroke.fxs");
+    std::fs::write(&path, &sheet).expect("the sheet is written");
+    let uri = format!("file://{}", path.display());
+    let mut server = Server::default();
+    let initialize = Request::new(1.into(), "initialize".into(), json!({"capabilities": {}}));
+    server.handle(Message::Request(initialize));
+    server.handle(Message::Notification(Notification::new(
+        "initialized".into(),
+        json!({}),
+    )));
+    let open = json!({"textDocument": {"uri": uri, "languageId": "fluxsheet", "version": 1, "text": sheet}});
+    server.handle(Message::Notification(Notification::new(
+        "textDocument/didOpen".into(),
+        open,
+    )));
+    let mut group = criterion.benchmark_group("lsp_keystroke_1000_lines");
+    let mut version = 1;
+    let mut request_id = 1;
+    group.bench_function("edit_diagnostics_and_inlay_hints", |bencher| {
+        bencher.iter(|| {
+            version += 1;
+            request_id += 1;
+            // Line 500 is `k_100 = 3.5 mD`: its digit goes back and forth between 3 and 4.
+            let digit = if version % 2 == 0 { "4" } else { "3" };
+            let change = json!({
+                "textDocument": {"uri": uri, "version": version},
+                "contentChanges": [{"range": {"start": {"line": 500, "character": 8}, "end": {"line": 500, "character": 9}}, "text": digit}]
+            });
+            let published = server.handle(Message::Notification(Notification::new(
+                "textDocument/didChange".into(),
+                change,
+            )));
+            assert_eq!(published.len(), 1);
+            let hints = json!({
+                "textDocument": {"uri": uri},
+                "range": {"start": {"line": 0, "character": 0}, "end": {"line": 1000, "character": 0}}
+            });
+            let answer = server.handle(Message::Request(Request::new(
+                request_id.into(),
+                "textDocument/inlayHint".into(),
+                hints,
+            )));
+            black_box(answer)
+        })
+    });
+    group.bench_function("full_evaluation_alone", |bencher| {
+        bencher.iter(|| {
+            let evaluation = evaluate_sheet(black_box(&sheet), library);
+            assert!(!evaluation.has_errors());
+            evaluation
+        })
+    });
+    let mut session = Session::new(library);
+    session.load("<bench>", &sheet, &mut fluxsheet::eval::NoIncludes);
+    let mut flip = false;
+    group.bench_function("session_redefinition", |bencher| {
+        bencher.iter(|| {
+            flip = !flip;
+            let entry = if flip {
+                "k_100 = 4.5 mD"
+            } else {
+                "k_100 = 3.5 mD"
+            };
+            session.enter(black_box(entry))
+        })
+    });
+    group.finish();
+}
+
 criterion_group!(
     benches,
     sheets,
     property_calls,
     check_folder,
     session,
-    columns
+    columns,
+    lsp_keystroke
 );
 criterion_main!(benches);

@@ -171,6 +171,11 @@ pub enum Command {
         /// A sheet to load first (created by `:save` if it does not exist)
         file: Option<String>,
     },
+    /// Serve the language server protocol over standard input and output, for editors
+    #[command(
+        after_help = "Editors start it themselves; the README shows the set-up for Neovim, Helix and VS Code."
+    )]
+    Lsp,
     /// Print a shell completion script (bash, zsh, fish or powershell) to standard output
     #[command(
         after_help = "Examples:\n  fluxsheet completions bash > ~/.local/share/bash-completion/completions/fluxsheet\n  fluxsheet completions zsh > \"${fpath[1]}/_fluxsheet\"\n  fluxsheet completions fish > ~/.config/fish/completions/fluxsheet.fish"
@@ -220,6 +225,10 @@ fn expression_argument(text: &str) -> Result<String, String> {
 /// closed pipe (`run bad.fxs | head -1`): the commands finish and the exit code is still the
 /// sheet's.
 pub fn run(command_line: CommandLine) -> u8 {
+    // The language server owns standard input and output for the protocol.
+    if let Some(Command::Lsp) = &command_line.command {
+        return crate::lsp::run();
+    }
     let options = command_line.output.options();
     let mut out = PipeSafe::new(io::stdout().lock());
     let Some(command) = &command_line.command else {
@@ -240,6 +249,8 @@ pub fn run(command_line: CommandLine) -> u8 {
             properties::run(&mut out, arguments, &command_line.output)
         }
         Command::Repl { file } => crate::repl::run(file.as_deref(), options, &mut out),
+        // Served above, before standard output is locked.
+        Command::Lsp => Ok(exit::OK),
         Command::Completions { shell } => {
             let mut definition = <CommandLine as clap::CommandFactory>::command();
             clap_complete::generate(*shell, &mut definition, "fluxsheet", &mut out);

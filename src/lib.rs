@@ -2,8 +2,8 @@
 //! media (Darcy, Fick, Fourier, Ohm).
 //!
 //! Layers, each using only those before it: `syntax` and `units` → `eval` → `library` →
-//! `render`. The front ends (`cli`, `repl`, and `front`, which they share) are the only code that
-//! touches files or the terminal.
+//! `render`. The front ends (`cli`, `repl`, `lsp`, and `front`, which they share) are the only
+//! code that touches files, the terminal or an editor's connection.
 //!
 //! # Using the engine from Rust
 //!
@@ -39,6 +39,8 @@ pub mod eval;
 #[doc(hidden)]
 pub mod front;
 pub mod library;
+#[doc(hidden)]
+pub mod lsp;
 pub mod numeric;
 pub mod render;
 #[doc(hidden)]

@@ -15,6 +15,7 @@
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `trust_warnings`: warnings only where a mistake is likely; formulations cited by every relation.
+//! - `lsp`: the language server over stdio as an editor drives it, and Neovim headless.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
 //! - `trust`: no silent wrong numbers: temperatures, absolute zero, check boundaries, domains,
 //!   letter case of units, and an oracle over random sheets.
@@ -29,6 +30,7 @@ mod columns;
 mod errors;
 mod fuzz_corpus;
 mod includes;
+mod lsp;
 mod package;
 mod plot;
 mod properties;
