@@ -6,6 +6,7 @@ use crate::eval::warnings::deny_warnings;
 use crate::eval::{
     evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
 };
+use crate::front::limits::{FileKind, ReadLimits};
 use crate::front::streams::{error_stream, PipeSafe};
 use crate::library::Builtins;
 use crate::render::json::{diagnostics_json, sheet_json, DiagnosticJson};
@@ -14,7 +15,7 @@ use crate::render::{self, Format, RenderOptions};
 use crate::units::unit::{catalog_entries, prefixes};
 use crate::units::Dimension;
 use clap::{Args, Parser, Subcommand, ValueEnum};
-use std::io::{self, Read, Write};
+use std::io::{self, Write};
 use std::path::{Path, PathBuf};
 
 mod against;
@@ -95,13 +96,31 @@ pub struct LimitArgs {
     /// Longest column a sheet may make (ranges, lists, data files)
     #[arg(long, value_name = "ROWS", default_value_t = crate::eval::columns::DEFAULT_MAX_ROWS)]
     pub max_rows: usize,
+    /// Most rows all of a sheet's columns may hold together
+    #[arg(long, value_name = "ROWS", default_value_t = crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS)]
+    pub max_total_rows: usize,
+    /// Largest sheet file, included sheet or standard input, in bytes
+    #[arg(long, value_name = "BYTES", default_value_t = crate::front::limits::DEFAULT_MAX_SHEET_BYTES)]
+    pub max_sheet_bytes: u64,
+    /// Largest data file (`column … from`), in bytes
+    #[arg(long, value_name = "BYTES", default_value_t = crate::front::limits::DEFAULT_MAX_DATA_BYTES)]
+    pub max_data_bytes: u64,
 }
 
 impl LimitArgs {
     pub fn settings(&self) -> Settings {
         Settings {
             max_rows: self.max_rows,
+            max_total_rows: self.max_total_rows,
             overrides: Vec::new(),
+        }
+    }
+
+    /// The sizes of the files a command may read.
+    pub fn read_limits(&self) -> crate::front::limits::ReadLimits {
+        crate::front::limits::ReadLimits {
+            sheet_bytes: self.max_sheet_bytes,
+            data_bytes: self.max_data_bytes,
         }
     }
 }
@@ -264,21 +283,16 @@ pub(crate) struct SheetSource {
     pub text: String,
 }
 
-pub(crate) fn read_sheet(file: &str) -> Result<SheetSource, String> {
+/// Reads the sheet `file` (`-`: standard input), refusing one larger than `limits` allow.
+pub(crate) fn read_sheet(file: &str, limits: &ReadLimits) -> Result<SheetSource, String> {
     if file == "-" {
-        let mut text = String::new();
-        io::stdin()
-            .read_to_string(&mut text)
-            .map_err(|error| format!("cannot read standard input: {error}"))?;
+        let text = limits.read_text(io::stdin().lock(), "<stdin>", FileKind::Sheet)?;
         return Ok(SheetSource {
             label: "<stdin>".to_string(),
             text,
         });
     }
-    let bytes =
-        std::fs::read(Path::new(file)).map_err(|error| format!("cannot read `{file}`: {error}"))?;
-    let text = String::from_utf8(bytes)
-        .map_err(|_| format!("cannot read `{file}`: it is not UTF-8 text"))?;
+    let text = limits.read_file(Path::new(file), file, FileKind::Sheet)?;
     Ok(SheetSource {
         label: file.to_string(),
         text,
@@ -329,9 +343,11 @@ pub(crate) fn evaluate_file_reading(
     allow_outside: bool,
     deny: bool,
     settings: &Settings,
+    limits: &ReadLimits,
 ) -> (Evaluation, ReadInputs) {
     let mut loader =
-        crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside);
+        crate::front::includes::FileIncludeLoader::new(&source.label, path, allow_outside)
+            .with_limits(*limits);
     let mut evaluation = evaluate_with(
         &source.label,
         &source.text,
@@ -370,6 +386,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let files = &arguments.files;
     let (allow_outside, deny) = (arguments.allow_outside, arguments.deny_warnings);
     let mut settings = arguments.limits.settings();
+    let read_limits = arguments.limits.read_limits();
     settings.overrides = match parse_overrides(&arguments.overrides) {
         Ok(overrides) => overrides,
         Err(message) => {
@@ -384,12 +401,12 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let mut worst = exit::OK;
     let mut json_sheets = Vec::new();
     for (index, file) in files.iter().enumerate() {
-        let source = match read_sheet(file) {
+        let source = match read_sheet(file, &read_limits) {
             Ok(source) => source,
             Err(message) => {
                 worst = exit::SHEET_ERROR;
                 if options.format == Format::Json {
-                    json_sheets.push(serde_json::json!({ "file": file, "diagnostics": [unreadable_json(file, &message)] }));
+                    json_sheets.push(JsonSheet::Unreadable(serde_json::json!({ "file": file, "diagnostics": [unreadable_json(file, &message)] })));
                 } else {
                     crate::stderr_line!("error: {message}");
                 }
@@ -398,7 +415,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         };
         let path = (file != "-").then(|| Path::new(file.as_str()));
         let (evaluation, inputs) =
-            evaluate_file_reading(&source, path, allow_outside, deny, &settings);
+            evaluate_file_reading(&source, path, allow_outside, deny, &settings, &read_limits);
         if evaluation
             .diagnostics
             .iter()
@@ -426,12 +443,12 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             }
         }
         if options.format == Format::Json {
-            let sheet = sheet_json(
-                Some(&source.label),
-                &evaluation,
-                &all_inputs(&source, &inputs),
-            );
-            json_sheets.push(serde_json::to_value(sheet).map_err(io::Error::other)?);
+            let inputs = all_inputs(&source, &inputs);
+            json_sheets.push(JsonSheet::Evaluated {
+                label: source.label,
+                evaluation,
+                inputs,
+            });
             continue;
         }
         if files.len() > 1 {
@@ -456,18 +473,51 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         }
     }
     if options.format == Format::Json {
-        let document = if json_sheets.len() == 1 {
-            json_sheets.remove(0)
-        } else {
-            serde_json::Value::Array(json_sheets)
-        };
-        writeln!(
-            out,
-            "{}",
-            serde_json::to_string_pretty(&document).map_err(io::Error::other)?
-        )?;
+        write_json_sheets(out, &json_sheets)?;
     }
     Ok(worst)
+}
+
+/// A sheet of `run --format json`, kept until every file is read so that several sheets make
+/// one array.
+enum JsonSheet {
+    Evaluated {
+        label: String,
+        evaluation: Evaluation,
+        inputs: Vec<InputFile>,
+    },
+    Unreadable(serde_json::Value),
+}
+
+/// Writes one sheet's JSON object, or an array of several, straight to `out`: a column's
+/// numbers are converted as they are written, never collected into a JSON tree first.
+fn write_json_sheets(out: &mut dyn Write, sheets: &[JsonSheet]) -> io::Result<()> {
+    #[derive(serde::Serialize)]
+    #[serde(untagged)]
+    enum Document<'e> {
+        Evaluated(render::json::SheetJson<'e>),
+        Unreadable(&'e serde_json::Value),
+    }
+    let documents: Vec<Document> = sheets
+        .iter()
+        .map(|sheet| match sheet {
+            JsonSheet::Evaluated {
+                label,
+                evaluation,
+                inputs,
+            } => Document::Evaluated(sheet_json(Some(label), evaluation, inputs)),
+            JsonSheet::Unreadable(value) => Document::Unreadable(value),
+        })
+        .collect();
+    let mut buffered = io::BufWriter::new(out);
+    match documents.as_slice() {
+        [one] => serde_json::to_writer_pretty(&mut buffered, one),
+        all => serde_json::to_writer_pretty(&mut buffered, all),
+    }
+    // `From` keeps an I/O error's kind (a closed pipe stays one).
+    .map_err(io::Error::from)?;
+    writeln!(buffered)?;
+    buffered.flush()
 }
 
 fn unreadable_json(file: &str, message: &str) -> DiagnosticJson {

@@ -737,7 +737,7 @@ impl Repl {
             if let crate::syntax::ExpressionKind::FileColumn { path, .. } =
                 &definition.expression.kind
             {
-                let read = crate::eval::IncludeLoader::load(&mut loader, path, label)
+                let read = crate::eval::IncludeLoader::load_data(&mut loader, path, label)
                     .map(|file| file.text);
                 self.session.provide_data_file(path, read);
             }
@@ -747,16 +747,11 @@ impl Repl {
     /// Loads a sheet into the session; `false` if it cannot be read.
     fn load(&mut self, path: &Path, out: &mut dyn Write, err: &mut dyn Write) -> io::Result<bool> {
         let label = path.display().to_string();
-        let text = match std::fs::read(path) {
-            Ok(bytes) => match String::from_utf8(bytes) {
-                Ok(text) => text,
-                Err(_) => {
-                    self.fail(err, &format!("cannot read `{label}`: it is not UTF-8 text"))?;
-                    return Ok(false);
-                }
-            },
-            Err(error) => {
-                self.fail(err, &format!("cannot read `{label}`: {error}"))?;
+        let limits = crate::front::limits::ReadLimits::default();
+        let text = match limits.read_file(path, &label, crate::front::limits::FileKind::Sheet) {
+            Ok(text) => text,
+            Err(message) => {
+                self.fail(err, &message)?;
                 return Ok(false);
             }
         };

@@ -585,7 +585,9 @@ fn html_report_renders_in_headless_chromium() {
     assert!(dom.contains("<span class=\"failed\">FAILED</span>"));
     assert!(dom.contains("data-formulation=\"iapws-if97-region1\""));
     assert!(dom.contains("data-formulation=\"iapws-2008-viscosity\""));
-    assert_eq!(dom.matches("data-formulation=").count(), 2);
+    // `hydraulic_conductivity` also cites the relation between k and K it evaluates.
+    assert!(dom.contains("data-formulation=\"conductivity-permeability\""));
+    assert_eq!(dom.matches("data-formulation=").count(), 3);
     assert!(dom.contains("<h2>Caution</h2>"));
     // The chart is inline SVG in the page, with its curve, and the sweep's column table.
     assert!(dom.contains("<figure class=\"chart\"><svg"), "{dom}");

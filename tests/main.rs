@@ -22,12 +22,15 @@
 //!   letter case of units, and an oracle over random sheets.
 //! - `trust_front`: solve precision over wide brackets, sessions loading sheets with includes,
 //!   expressions starting with a minus sign on the command line.
+//! - `robust_memory`: the row and file-size limits as errors, and long columns streamed.
+//! - `fuzz_corpus`: the committed fuzz corpus replayed through the fuzz targets' entry points.
 
 mod checker;
 mod cli;
 mod columns;
 mod errors;
 mod fitting;
+mod fuzz_corpus;
 mod includes;
 mod lsp;
 mod package;
@@ -36,6 +39,7 @@ mod properties;
 mod reference;
 mod repl;
 mod robust_inputs;
+mod robust_memory;
 mod robustness;
 mod transport;
 mod trust;

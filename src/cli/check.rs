@@ -6,6 +6,7 @@ use super::against::{added_names, compare, compare_inputs, Earlier, InputChange,
 use super::{exit, exit_code_for, read_sheet, unreadable_json, SheetSource};
 use crate::eval::warnings::warning_count;
 use crate::eval::{Evaluation, LineResult, Severity};
+use crate::front::limits::{FileKind, ReadLimits};
 use crate::render::json::{
     diagnostics_json, fields_json, inputs_json, value_json, CheckJson, DiagnosticJson, FieldJson,
     InputJson,
@@ -153,17 +154,15 @@ fn walk(directory: &Path, found: &mut Vec<PathBuf>, problems: &mut Vec<Target>) 
 }
 
 /// Reads a sheet from its path (or standard input).
-fn read_target(target: &Target) -> Result<SheetSource, String> {
+fn read_target(target: &Target, limits: &ReadLimits) -> Result<SheetSource, String> {
     if let Some(problem) = &target.problem {
         return Err(problem.clone());
     }
     let Some(path) = &target.path else {
-        return read_sheet("-");
+        return read_sheet("-", limits);
     };
     let label = &target.label;
-    let bytes = std::fs::read(path).map_err(|error| format!("cannot read `{label}`: {error}"))?;
-    let text = String::from_utf8(bytes)
-        .map_err(|_| format!("cannot read `{label}`: it is not UTF-8 text"))?;
+    let text = limits.read_file(path, label, FileKind::Sheet)?;
     Ok(SheetSource {
         label: label.clone(),
         text,
@@ -274,7 +273,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
     let color = !json && io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
     let mut reports = Vec::with_capacity(targets.len());
     for target in &targets {
-        let read = read_target(target);
+        let read = read_target(target, &arguments.limits.read_limits());
         let report = match read {
             Err(message) => SheetReport {
                 label: target.label.clone(),
@@ -296,6 +295,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     arguments.allow_outside,
                     arguments.deny_warnings,
                     &arguments.limits.settings(),
+                    &arguments.limits.read_limits(),
                 );
                 let inputs = super::all_inputs(&source, &read);
                 let mut code = exit_code_for(&evaluation);
@@ -614,7 +614,7 @@ struct SheetCheckJson {
     values: usize,
     checks: usize,
     passed_checks: usize,
-    failed_checks: Vec<CheckJson>,
+    failed_checks: Vec<CheckJson<'static>>,
     diagnostics: Vec<DiagnosticJson>,
     #[serde(skip_serializing_if = "Option::is_none")]
     moved: Option<Vec<MovedJson>>,

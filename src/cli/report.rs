@@ -48,7 +48,7 @@ fn format_of(path: &Path) -> Option<ReportFormat> {
 
 /// Runs `report`; returns the exit code.
 pub fn run(out: &mut dyn Write, arguments: &ReportArgs, options: RenderOptions) -> io::Result<u8> {
-    let source = match read_sheet(&arguments.file) {
+    let source = match read_sheet(&arguments.file, &arguments.limits.read_limits()) {
         Ok(source) => source,
         Err(message) => {
             crate::stderr_line!("error: {message}");
@@ -70,6 +70,7 @@ pub fn run(out: &mut dyn Write, arguments: &ReportArgs, options: RenderOptions) 
         arguments.allow_outside,
         false,
         &arguments.limits.settings(),
+        &arguments.limits.read_limits(),
     );
     if let Err(message) = refuse_output(output, &inputs.paths) {
         crate::stderr_line!("error: {message}");

@@ -12,6 +12,72 @@ use std::sync::Arc;
 /// mistyped step is an error rather than an out-of-memory kill.
 pub const DEFAULT_MAX_ROWS: usize = 10_000_000;
 
+/// The default limit on the rows of all of a sheet's column-valued lines together: five
+/// columns of the longest length, 400 MB of numbers, so that twenty long columns are an error
+/// rather than an out-of-memory kill.
+pub const DEFAULT_MAX_TOTAL_ROWS: usize = 50_000_000;
+
+/// How many rows a sheet's column-valued lines hold together, against the limit. A column
+/// shared by several lines (`y = x`) is counted once.
+#[derive(Debug, Clone)]
+pub(crate) struct RowBudget {
+    pub(crate) limit: usize,
+    kept: usize,
+    counted: rustc_hash::FxHashSet<usize>,
+}
+
+impl RowBudget {
+    pub(crate) fn new(limit: usize) -> RowBudget {
+        RowBudget {
+            limit,
+            kept: 0,
+            counted: Default::default(),
+        }
+    }
+
+    /// Refuses a column of `rows` more rows before it is allocated.
+    pub(crate) fn check(&self, rows: usize, span: Span) -> Result<(), EvalError> {
+        if self.kept.saturating_add(rows) > self.limit {
+            return Err(EvalError::new(
+                EvalErrorKind::TooManyRowsInAll {
+                    rows,
+                    kept: self.kept,
+                    limit: self.limit,
+                },
+                span,
+            ));
+        }
+        Ok(())
+    }
+
+    /// Counts a line's column (once, however many lines share it), or refuses it when it
+    /// takes the total over the limit.
+    pub(crate) fn keep(&mut self, value: &Value, span: Span) -> Result<(), EvalError> {
+        let (address, rows) = match value {
+            Value::Scalar(_) => return Ok(()),
+            Value::Column(column) => (Arc::as_ptr(&column.values) as usize, column.len()),
+            Value::Labels(labels) => (Arc::as_ptr(&labels.texts) as usize, labels.texts.len()),
+        };
+        if self.counted.contains(&address) {
+            return Ok(());
+        }
+        self.check(rows, span)?;
+        self.counted.insert(address);
+        self.kept += rows;
+        Ok(())
+    }
+}
+
+/// Room for a column of `rows` numbers, or an error when the allocator has none (rather than
+/// the process aborting).
+pub(crate) fn allocate_rows(rows: usize, span: Span) -> Result<Vec<f64>, EvalError> {
+    let mut values = Vec::new();
+    values
+        .try_reserve_exact(rows)
+        .map_err(|_| EvalError::new(EvalErrorKind::NoMemoryForColumn { rows }, span))?;
+    Ok(values)
+}
+
 /// The number of rows two operands share: `None` if both are scalars.
 pub(crate) fn common_rows(
     left: &Value,
@@ -209,28 +275,31 @@ pub(crate) fn check_rows(rows: f64, limit: usize, span: Span) -> Result<usize, E
 }
 
 /// Evenly spaced values from `from` to `to` (both included), `count` of them, linear or
-/// geometric. The ends are exact.
-pub(crate) fn spaced(from: f64, to: f64, count: usize, logarithmic: bool) -> Vec<f64> {
+/// geometric, written into `values` (empty, with room for them). The ends are exact.
+pub(crate) fn spaced(
+    from: f64,
+    to: f64,
+    count: usize,
+    logarithmic: bool,
+    mut values: Vec<f64>,
+) -> Vec<f64> {
     let last = count.saturating_sub(1).max(1) as f64;
-    let mut values: Vec<f64> = if logarithmic {
+    if logarithmic {
         let (low, high) = (from.ln(), to.ln());
-        (0..count)
-            .map(|row| (low + (high - low) * row as f64 / last).exp())
-            .collect()
+        values.extend((0..count).map(|row| (low + (high - low) * row as f64 / last).exp()));
     } else {
         let width = to - from;
-        (0..count)
-            .map(|row| {
+        values.extend((0..count).map(|row| {
+            if width.is_finite() {
+                // Multiplied before divided: whole-number steps stay whole numbers.
+                from + width * row as f64 / last
+            } else {
+                // Ends near the largest double: their difference overflows, a blend does not.
                 let fraction = row as f64 / last;
-                if width.is_finite() {
-                    from + width * fraction
-                } else {
-                    // Ends near the largest double: their difference overflows, a blend does not.
-                    from * (1.0 - fraction) + to * fraction
-                }
-            })
-            .collect()
-    };
+                from * (1.0 - fraction) + to * fraction
+            }
+        }));
+    }
     if let Some(first) = values.first_mut() {
         *first = from;
     }
@@ -242,14 +311,37 @@ pub(crate) fn spaced(from: f64, to: f64, count: usize, logarithmic: bool) -> Vec
     values
 }
 
-/// Values from `from` by `step` up to `to`: the last is the last step that does not pass `to`
-/// (within a rounding allowance, so `0 to 1 step 0.1` ends at exactly 1).
-pub(crate) fn stepped(from: f64, to: f64, steps: usize, step: f64) -> Vec<f64> {
-    let mut values: Vec<f64> = (0..steps).map(|row| from + step * row as f64).collect();
+/// Values from `from` by `step` up to `to`, written into `values` (empty, with room for them):
+/// the last is the last step that does not pass `to` (within a rounding allowance, so
+/// `0 to 1 step 0.1` ends at exactly 1).
+pub(crate) fn stepped(
+    from: f64,
+    to: f64,
+    steps: usize,
+    step: f64,
+    mut values: Vec<f64>,
+) -> Vec<f64> {
+    values.extend((0..steps).map(|row| from + step * row as f64));
     if let Some(end) = values.last_mut() {
         if (*end - to).abs() <= 1e-9 * step.abs() {
             *end = to;
         }
     }
     values
+}
+
+#[cfg(test)]
+mod tests {
+    use super::spaced;
+
+    #[test]
+    fn a_range_of_whole_numbers_by_count_holds_whole_numbers() {
+        let rows = 1_000_000;
+        let values = spaced(1.0, 1e6, rows, false, Vec::with_capacity(rows));
+        let off = values
+            .iter()
+            .enumerate()
+            .find(|(row, value)| **value != (row + 1) as f64);
+        assert_eq!(off, None);
+    }
 }

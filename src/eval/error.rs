@@ -165,6 +165,16 @@ pub enum EvalErrorKind {
         rows: f64,
         limit: usize,
     },
+    /// A column that would take the sheet's columns past their total row limit.
+    TooManyRowsInAll {
+        rows: usize,
+        kept: usize,
+        limit: usize,
+    },
+    /// A column the allocator refused: the machine has no memory for it.
+    NoMemoryForColumn {
+        rows: usize,
+    },
     /// A data file that cannot be read, or a bad cell in it.
     DataFile {
         message: String,
@@ -424,6 +434,15 @@ impl fmt::Display for EvalErrorKind {
             EvalErrorKind::TooManyRows { rows, limit } => write!(
                 formatter,
                 "a column of {rows} rows is longer than the limit of {limit} rows (raise it with `--max-rows`)"
+            ),
+            EvalErrorKind::TooManyRowsInAll { rows, kept, limit } => write!(
+                formatter,
+                "a column of {rows} rows would take the sheet's columns to {} rows in all, over the limit of {limit} (raise it with `--max-total-rows`)",
+                kept.saturating_add(*rows)
+            ),
+            EvalErrorKind::NoMemoryForColumn { rows } => write!(
+                formatter,
+                "not enough memory for a column of {rows} rows"
             ),
         }
     }

@@ -221,6 +221,12 @@ impl<'l> Session<'l> {
         }
     }
 
+    /// Sets the longest column entries may make (`--max-rows` of `run`); by default
+    /// `DEFAULT_MAX_ROWS`. Applies to entries and data files provided from now on.
+    pub fn set_max_rows(&mut self, max_rows: usize) {
+        self.calculator.max_rows = max_rows;
+    }
+
     /// The kept lines, in sheet order, with those of included sheets.
     pub fn lines(&self) -> &[SessionLine] {
         &self.lines
@@ -614,7 +620,7 @@ impl<'l> Session<'l> {
         };
         if let crate::syntax::ExpressionKind::FileColumn { path, .. } = &definition.expression.kind
         {
-            let text = loader.load(path, label).map(|file| file.text);
+            let text = loader.load_data(path, label).map(|file| file.text);
             self.provide_data_file(path, text);
         }
     }

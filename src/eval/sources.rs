@@ -116,6 +116,12 @@ pub trait IncludeLoader {
     /// Loads `path` as written in an include line of the sheet labelled `from`.
     fn load(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String>;
 
+    /// Loads the data file `path` of a `column … from` line of the sheet labelled `from`: as
+    /// an include unless the loader treats data files apart (a larger size limit).
+    fn load_data(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String> {
+        self.load(path, from)
+    }
+
     /// The cycle key of the main sheet (labelled `label`), comparable with `LoadedSheet::key`.
     fn main_key(&self, label: &str) -> String {
         label.to_string()

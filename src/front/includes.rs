@@ -4,6 +4,7 @@
 //! running a colleague's sheet cannot read arbitrary files. A folder above the sheet holding a
 //! `fluxsheet.project` file widens the tree to that project folder.
 
+use super::limits::{FileKind, ReadLimits};
 use crate::eval::{IncludeLoader, LoadedSheet};
 use crate::render::report::{sha256_hex, InputFile};
 use std::collections::HashMap;
@@ -18,6 +19,7 @@ pub struct FileIncludeLoader {
     allow_outside: bool,
     /// Folder of each loaded sheet, by label, to resolve its own includes.
     folders: HashMap<String, PathBuf>,
+    limits: ReadLimits,
     /// Every file read (included sheets and data files), canonical: the inputs of the run,
     /// which no output may overwrite.
     files_read: Vec<PathBuf>,
@@ -54,9 +56,16 @@ impl FileIncludeLoader {
             main_key,
             allow_outside,
             folders,
+            limits: ReadLimits::default(),
             files_read: Vec::new(),
             inputs: Vec::new(),
         }
+    }
+
+    /// The same loader with other file size limits than the defaults.
+    pub fn with_limits(mut self, limits: ReadLimits) -> FileIncludeLoader {
+        self.limits = limits;
+        self
     }
 
     /// The included sheets and data files read so far, with their hashes, in reading order.
@@ -76,6 +85,16 @@ impl IncludeLoader for FileIncludeLoader {
     }
 
     fn load(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String> {
+        self.load_file(path, from, FileKind::Sheet)
+    }
+
+    fn load_data(&mut self, path: &str, from: &str) -> Result<LoadedSheet, String> {
+        self.load_file(path, from, FileKind::Data)
+    }
+}
+
+impl FileIncludeLoader {
+    fn load_file(&mut self, path: &str, from: &str, kind: FileKind) -> Result<LoadedSheet, String> {
         let requested = Path::new(path);
         if requested.is_absolute() && !self.allow_outside {
             return Err(format!(
@@ -95,18 +114,15 @@ impl IncludeLoader for FileIncludeLoader {
                 "`{path}` is outside the sheet's folder; pass --allow-outside to include it anyway, or mark a project folder around both with a `{PROJECT_MARKER}` file"
             ));
         }
-        let bytes =
-            std::fs::read(&canonical).map_err(|error| format!("cannot read `{path}`: {error}"))?;
+        let text = self.limits.read_file(&canonical, path, kind)?;
         if !self.files_read.contains(&canonical) {
             self.files_read.push(canonical.clone());
             self.inputs.push(InputFile {
                 path: relative_path(&self.sheet_folder, &canonical),
-                sha256: sha256_hex(&bytes),
-                bytes: bytes.len(),
+                sha256: sha256_hex(text.as_bytes()),
+                bytes: text.len(),
             });
         }
-        let text = String::from_utf8(bytes)
-            .map_err(|_| format!("cannot read `{path}`: it is not UTF-8 text"))?;
         let label = joined.to_string_lossy().replace("/./", "/");
         let label = label.strip_prefix("./").unwrap_or(&label).to_string();
         let parent = joined

@@ -1,11 +1,13 @@
 //! JSON output. Serializable mirror types live here, at the edge, so the JSON contract in
-//! DESIGN.md does not freeze the evaluator's internal types.
+//! DESIGN.md does not freeze the evaluator's internal types. A column's numbers are borrowed
+//! from the evaluation and converted as they are written, so a sheet's JSON can be streamed to
+//! its writer without a copy of its columns.
 
-use crate::eval::{Diagnostic, Evaluation, LineResult, Shown, ShownValue, SourceMap};
-use serde::Serialize;
+use crate::eval::{Diagnostic, Evaluation, LineResult, Shown, ShownColumn, ShownValue, SourceMap};
+use serde::{Serialize, Serializer};
 
 #[derive(Serialize)]
-pub struct SheetJson {
+pub struct SheetJson<'e> {
     #[serde(skip_serializing_if = "Option::is_none")]
     pub file: Option<String>,
     /// The title block (`@project: …`), field by field; absent when the sheet has none.
@@ -13,8 +15,8 @@ pub struct SheetJson {
     pub fields: Vec<FieldJson>,
     /// Every file the run read: the main sheet first, then includes and data files.
     pub inputs: Vec<InputJson>,
-    pub lines: Vec<LineJson>,
-    pub checks: Vec<CheckJson>,
+    pub lines: Vec<LineJson<'e>>,
+    pub checks: Vec<CheckJson<'e>>,
     pub diagnostics: Vec<DiagnosticJson>,
     pub formulations: Vec<FormulationJson>,
 }
@@ -58,12 +60,12 @@ pub fn fields_json(evaluation: &Evaluation) -> Vec<FieldJson> {
 }
 
 #[derive(Serialize)]
-pub struct LineJson {
+pub struct LineJson<'e> {
     pub line: usize,
     pub name: Option<String>,
     pub expression: String,
     #[serde(flatten)]
-    pub value: ValueJson,
+    pub value: ValueJson<'e>,
     /// How the value was found (a solve's iterations), when that is worth saying.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub note: Option<String>,
@@ -72,30 +74,43 @@ pub struct LineJson {
 /// The value fields of `eval` and of each `run` line: numbers for a single value, arrays for a
 /// column (text for a column of labels, which has no SI value or dimension).
 #[derive(Serialize)]
-pub struct ValueJson {
-    pub value: Numbers,
+pub struct ValueJson<'e> {
+    pub value: Numbers<'e>,
     pub unit: String,
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub si_value: Option<Numbers>,
+    pub si_value: Option<Numbers<'e>>,
     pub si_unit: String,
     pub dimension: String,
 }
 
-#[derive(Serialize)]
-#[serde(untagged)]
-pub enum Numbers {
+/// A number, or an array of them (or of text), written as JSON is written.
+pub enum Numbers<'e> {
     One(f64),
-    Column(Vec<f64>),
-    Text(Vec<String>),
+    /// A column's rows in its display unit.
+    Shown(&'e ShownColumn),
+    /// A column's rows in SI.
+    Si(&'e [f64]),
+    Text(&'e [String]),
+}
+
+impl Serialize for Numbers<'_> {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        match self {
+            Numbers::One(value) => serializer.serialize_f64(*value),
+            Numbers::Shown(column) => serializer.collect_seq(column.shown_values()),
+            Numbers::Si(values) => serializer.collect_seq(values.iter()),
+            Numbers::Text(texts) => serializer.collect_seq(texts.iter()),
+        }
+    }
 }
 
 #[derive(Serialize)]
-pub struct CheckJson {
+pub struct CheckJson<'e> {
     pub line: usize,
     pub passed: bool,
     pub text: String,
-    pub left: ValueJson,
-    pub right: ValueJson,
+    pub left: ValueJson<'e>,
+    pub right: ValueJson<'e>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub message: Option<String>,
     /// For a check over columns: rows checked, rows failed, and the row `left`/`right` show.
@@ -134,7 +149,7 @@ pub struct FormulationJson {
     pub validity: &'static str,
 }
 
-pub fn value_json(shown: &ShownValue) -> ValueJson {
+pub fn value_json(shown: &ShownValue) -> ValueJson<'static> {
     ValueJson {
         value: Numbers::One(shown.value),
         unit: shown.unit.clone(),
@@ -145,18 +160,18 @@ pub fn value_json(shown: &ShownValue) -> ValueJson {
 }
 
 /// A line's value: one number, or the column's numbers (or text) as arrays.
-pub fn line_value_json(shown: &Shown) -> ValueJson {
+pub fn line_value_json(shown: &Shown) -> ValueJson<'_> {
     match shown {
         Shown::Scalar(shown) => value_json(shown),
         Shown::Column(shown) => ValueJson {
-            value: Numbers::Column(shown.shown_values().collect()),
+            value: Numbers::Shown(shown),
             unit: shown.unit.clone(),
-            si_value: Some(Numbers::Column(shown.column.values.to_vec())),
+            si_value: Some(Numbers::Si(&shown.column.values)),
             si_unit: shown.column.dimension.si_unit_text(),
             dimension: shown.column.dimension.to_string(),
         },
         Shown::Labels(labels) => ValueJson {
-            value: Numbers::Text(labels.texts.to_vec()),
+            value: Numbers::Text(&labels.texts),
             unit: String::new(),
             si_value: None,
             si_unit: String::new(),
@@ -188,11 +203,11 @@ pub fn diagnostics_json(sources: &SourceMap, diagnostics: &[Diagnostic]) -> Vec<
         .collect()
 }
 
-pub fn sheet_json(
+pub fn sheet_json<'e>(
     file: Option<&str>,
-    evaluation: &Evaluation,
+    evaluation: &'e Evaluation,
     inputs: &[crate::render::report::InputFile],
-) -> SheetJson {
+) -> SheetJson<'e> {
     let mut lines = Vec::new();
     let mut checks = Vec::new();
     for line in &evaluation.lines {

@@ -7,6 +7,7 @@ pub mod plot;
 pub mod report;
 pub mod snippet;
 pub mod table;
+pub mod text_table;
 pub mod working;
 
 pub use number::format_significant;

@@ -793,21 +793,20 @@ where
     let marker_radius = px(3);
     for (position, series) in chart.series.iter().enumerate() {
         let colour = series_colour(position);
-        let points: Vec<(f64, f64)> = chart
-            .x
-            .iter()
-            .copied()
-            .zip(series.values.iter().copied())
-            .collect();
+        let points = chart.x.iter().copied().zip(series.values.iter().copied());
+        let coordinates = context.as_coord_spec();
+        let path = if chart.x.len() > THIN_CURVES_ABOVE {
+            thinned_path(points.clone(), |point| coordinates.translate(point))
+        } else {
+            points.clone().collect()
+        };
         context.draw_series(std::iter::once(PathElement::new(
-            points.clone(),
+            path,
             colour.stroke_width(px(2)),
         )))?;
         if with_markers {
             context.draw_series(
-                points
-                    .iter()
-                    .map(|&point| Circle::new(point, marker_radius, colour.filled())),
+                points.map(|point| Circle::new(point, marker_radius, colour.filled())),
             )?;
         }
     }
@@ -817,6 +816,66 @@ where
         draw_legend(&context.plotting_area().strip_coord_spec(), chart, corner)?;
     }
     Ok(())
+}
+
+/// Curves longer than this are thinned (`thinned_path`); shorter ones keep a vertex per row,
+/// as a reader of the SVG expects.
+const THIN_CURVES_ABOVE: usize = 10_000;
+
+/// The points of a curve with each run of consecutive points on one pixel column reduced to
+/// its first, lowest, highest and last point, in their order: the line then covers the same
+/// pixels, and a curve of ten million rows is drawn (and held as SVG) as a few thousand points.
+fn thinned_path(
+    points: impl Iterator<Item = (f64, f64)>,
+    pixel_of: impl Fn(&(f64, f64)) -> (i32, i32),
+) -> Vec<(f64, f64)> {
+    /// One pixel column's run: (row, point, pixel y) of its first, lowest, highest and last.
+    struct Run {
+        column: i32,
+        kept: [(usize, (f64, f64), i32); 4],
+    }
+    fn flush(run: &Run, path: &mut Vec<(f64, f64)>) {
+        let mut kept = run.kept;
+        kept.sort_by_key(|(row, _, _)| *row);
+        let mut previous = None;
+        for (row, point, _) in kept {
+            if previous != Some(row) {
+                path.push(point);
+                previous = Some(row);
+            }
+        }
+    }
+    let mut path = Vec::new();
+    let mut current: Option<Run> = None;
+    for (row, point) in points.enumerate() {
+        let (column, pixel_y) = pixel_of(&point);
+        let entry = (row, point, pixel_y);
+        match &mut current {
+            Some(run) if run.column == column => {
+                // Screen y grows downwards; which of the two is "lowest" does not matter.
+                if pixel_y < run.kept[1].2 {
+                    run.kept[1] = entry;
+                }
+                if pixel_y > run.kept[2].2 {
+                    run.kept[2] = entry;
+                }
+                run.kept[3] = entry;
+            }
+            _ => {
+                if let Some(run) = &current {
+                    flush(run, &mut path);
+                }
+                current = Some(Run {
+                    column,
+                    kept: [entry; 4],
+                });
+            }
+        }
+    }
+    if let Some(run) = &current {
+        flush(run, &mut path);
+    }
+    path
 }
 
 /// A corner of the plot area.
@@ -948,4 +1007,48 @@ pub fn plot_svg(plot: &crate::eval::PlotOutcome) -> Result<String, PlotError> {
         log_x: plot.log_x,
         log_y: plot.log_y,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::thinned_path;
+
+    /// Pixels of a chart 10 points per column wide and one point per pixel high.
+    fn pixel_of(point: &(f64, f64)) -> (i32, i32) {
+        ((point.0 / 10.0).floor() as i32, point.1 as i32)
+    }
+
+    #[test]
+    fn points_on_their_own_pixel_columns_are_all_kept() {
+        let points: Vec<(f64, f64)> = (0..50)
+            .map(|i| (f64::from(i) * 10.0, f64::from(i)))
+            .collect();
+        assert_eq!(thinned_path(points.iter().copied(), pixel_of), points);
+    }
+
+    #[test]
+    fn a_run_on_one_column_keeps_its_first_extremes_and_last_in_order() {
+        let run = [
+            (0.0, 5.0),
+            (1.0, 9.0),
+            (2.0, 1.0),
+            (3.0, 4.0),
+            (4.0, 6.0),
+            (12.0, 3.0),
+        ];
+        assert_eq!(
+            thinned_path(run.iter().copied(), pixel_of),
+            [(0.0, 5.0), (1.0, 9.0), (2.0, 1.0), (4.0, 6.0), (12.0, 3.0)]
+        );
+    }
+
+    #[test]
+    fn a_million_points_become_a_few_per_column() {
+        let points = (0..1_000_000).map(|i| (f64::from(i) / 1000.0, f64::from(i % 7)));
+        let path = thinned_path(points, pixel_of);
+        // 101 columns (0 to 100), at most four points each.
+        assert!(path.len() <= 4 * 101, "{}", path.len());
+        assert_eq!(path.first(), Some(&(0.0, 0.0)));
+        assert_eq!(path.last(), Some(&(999.999, f64::from(999_999 % 7))));
+    }
 }

@@ -1,9 +1,9 @@
 //! A sheet's results as rows: line, name, value, unit, expression. Headings start sections;
 //! checks show both sides in one unit; failed and skipped lines say so instead of a number.
 
+use super::text_table::{Align, TextTable};
 use super::{format_significant, Format, RenderOptions};
 use crate::eval::{CheckOutcome, Evaluation, LineResult, Shown};
-use comfy_table::{presets, ContentArrangement, Table};
 use std::io::{self, Write};
 
 /// One printable row, before formatting.
@@ -238,35 +238,36 @@ pub fn write_sheet(
     Ok(())
 }
 
+/// The sheet's table, measured over every entry, then written row by row.
 fn write_table(out: &mut dyn Write, entries: &[Entry]) -> io::Result<()> {
-    let mut table = Table::new();
-    table
-        .load_preset(presets::UTF8_FULL_CONDENSED)
-        .set_content_arrangement(ContentArrangement::Disabled);
-    table.set_header(HEADER);
-    for entry in entries {
+    let cells = |entry: &Entry| -> [String; 5] {
         match entry {
-            Entry::Heading(text) => {
-                table.add_row(vec![
-                    String::new(),
-                    String::new(),
-                    String::new(),
-                    String::new(),
-                    format!("## {text}"),
-                ]);
-            }
-            Entry::Row(row) => {
-                table.add_row(vec![
-                    &row.line,
-                    &row.name,
-                    &row.value,
-                    &row.unit,
-                    &row.expression,
-                ]);
-            }
+            Entry::Heading(text) => [
+                String::new(),
+                String::new(),
+                String::new(),
+                String::new(),
+                format!("## {text}"),
+            ],
+            Entry::Row(row) => [
+                row.line.clone(),
+                row.name.clone(),
+                row.value.clone(),
+                row.unit.clone(),
+                row.expression.clone(),
+            ],
         }
+    };
+    let mut table = TextTable::new(&HEADER, &[]);
+    for entry in entries {
+        table.measure(&cells(entry));
     }
-    writeln!(out, "{table}")
+    table.write_top(out)?;
+    table.write_header(out, &HEADER)?;
+    for entry in entries {
+        table.write_row(out, &cells(entry))?;
+    }
+    table.write_bottom(out)
 }
 
 fn markdown_cell(text: &str) -> String {
@@ -319,21 +320,20 @@ fn write_csv(out: &mut dyn Write, entries: &[Entry]) -> io::Result<()> {
     writer.flush()
 }
 
+/// Two passes over the rows, one to measure and one to write, so that a column of millions of
+/// rows is never held as text.
 fn write_column_table(out: &mut dyn Write, table: &ColumnTable, digits: u32) -> io::Result<()> {
-    let mut drawn = Table::new();
-    drawn
-        .load_preset(presets::UTF8_FULL_CONDENSED)
-        .set_content_arrangement(ContentArrangement::Disabled);
-    drawn.set_header(table.header());
+    let header = table.header();
+    let mut drawn = TextTable::new(&header, &vec![Align::Right; header.len()]);
     for row in 0..table.rows {
-        drawn.add_row(table.cells(row, digits));
+        drawn.measure(&table.cells(row, digits));
     }
-    for index in 0..table.columns.len() + 1 {
-        if let Some(column) = drawn.column_mut(index) {
-            column.set_cell_alignment(comfy_table::CellAlignment::Right);
-        }
+    drawn.write_top(out)?;
+    drawn.write_header(out, &header)?;
+    for row in 0..table.rows {
+        drawn.write_row(out, &table.cells(row, digits))?;
     }
-    writeln!(out, "{drawn}")
+    drawn.write_bottom(out)
 }
 
 /// Written row by row, so a column of millions of rows needs no second copy.

@@ -56,6 +56,8 @@ pub(crate) struct Calculator<'l> {
     pub(super) parameters: Vec<Vec<(String, Value)>>,
     /// The longest column allowed.
     pub(crate) max_rows: usize,
+    /// The rows the sheet's column-valued lines hold together, against `--max-total-rows`.
+    pub(crate) row_budget: crate::eval::columns::RowBudget,
     /// The data files the sheet reads, by the span of the path in each `column … from` line.
     pub(crate) data_files: HashMap<usize, Result<Arc<DataTable>, EvalError>>,
     /// Notes on how values were found (a solve's iterations), by expression span start.
@@ -72,6 +74,9 @@ impl<'l> Calculator<'l> {
             unit_cache: HashMap::default(),
             parameters: Vec::new(),
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
+            row_budget: crate::eval::columns::RowBudget::new(
+                crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
+            ),
             data_files: HashMap::default(),
             notes: HashMap::default(),
             data_by_path: HashMap::default(),

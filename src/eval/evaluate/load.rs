@@ -47,7 +47,7 @@ impl Loaded {
             else {
                 continue;
             };
-            let table = match loader.load(path, label) {
+            let table = match loader.load_data(path, label) {
                 Err(message) => Err(message),
                 Ok(file) => self
                     .tables

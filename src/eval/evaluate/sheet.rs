@@ -21,6 +21,8 @@ pub fn evaluate_sheet(source: &str, library: &dyn Library) -> Evaluation {
 #[derive(Debug, Clone)]
 pub struct Settings {
     pub max_rows: usize,
+    /// The most rows all column-valued lines may hold together.
+    pub max_total_rows: usize,
     /// `(name, value text)`: the value replaces the line `name` for this run.
     pub overrides: Vec<(String, String)>,
 }
@@ -29,6 +31,7 @@ impl Default for Settings {
     fn default() -> Settings {
         Settings {
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
+            max_total_rows: crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
             overrides: Vec::new(),
         }
     }
@@ -86,6 +89,7 @@ pub fn evaluate_with(
     } = loaded;
     let mut evaluator = Evaluator::new(&sources, &lines, library);
     evaluator.calculator.max_rows = settings.max_rows;
+    evaluator.calculator.row_budget = crate::eval::columns::RowBudget::new(settings.max_total_rows);
     evaluator.calculator.data_files = data_files;
     evaluator
         .diagnostics
@@ -591,6 +595,11 @@ impl<'a> Evaluator<'a> {
     }
 
     pub(super) fn settle(&mut self, index: usize, outcome: Result<Shown, Failure>) {
+        let span = self.lines[index].span;
+        let outcome = outcome.and_then(|shown| {
+            self.calculator.row_budget.keep(&shown.value(), span)?;
+            Ok(shown)
+        });
         match outcome {
             Ok(shown) => {
                 self.slots[index] = Slot::Ready(shown.clone());

@@ -63,7 +63,7 @@ impl<'l> Calculator<'l> {
         span: Span,
         scope: &dyn Scope,
     ) -> Result<Value, Failure> {
-        use crate::eval::columns::{check_rows, spaced, stepped};
+        use crate::eval::columns::{allocate_rows, check_rows, spaced, stepped};
         use crate::syntax::Spacing;
         let from = self.scalar(&range.from, "the start of a range", scope)?;
         let to = self.scalar(&range.to, "the end of a range", scope)?;
@@ -112,7 +112,14 @@ impl<'l> Calculator<'l> {
                 }
                 let steps = (span_of_range / step.value * (1.0 + 1e-12) + 1e-9).floor() + 1.0;
                 let rows = check_rows(steps, self.max_rows, span)?;
-                stepped(from.value, to.value, rows, step.value)
+                self.row_budget.check(rows, span)?;
+                stepped(
+                    from.value,
+                    to.value,
+                    rows,
+                    step.value,
+                    allocate_rows(rows, span)?,
+                )
             }
             Spacing::Count { count, logarithmic } => {
                 let number = self.scalar(count, "the count of a range", scope)?;
@@ -132,7 +139,9 @@ impl<'l> Calculator<'l> {
                         range.from.span.to(range.to.span),
                     ));
                 }
-                spaced(from.value, to.value, rows, *logarithmic)
+                self.row_budget.check(rows, count.span)?;
+                let values = allocate_rows(rows, count.span)?;
+                spaced(from.value, to.value, rows, *logarithmic, values)
             }
         };
         Ok(Value::Column(Column {
