@@ -424,12 +424,20 @@ impl Function for Relation {
             if has_ranges {
                 form.check_numbers(row)?;
             }
-            if row.len() != provided || provided > MOST_PARAMETERS {
+            if row.len() == arity {
+                return (form.body)(row);
+            }
+            if row.len() != provided || arity > MOST_PARAMETERS {
                 return form.evaluate(row);
             }
-            let mut full = defaults;
-            for (slot, value) in full.iter_mut().zip(row) {
-                *slot = *value;
+            // Written element by element: copying the whole template costs a `memcpy` call
+            // per row.
+            let mut full = [0.0; MOST_PARAMETERS];
+            for index in 0..arity {
+                full[index] = match row.get(index) {
+                    Some(value) => *value,
+                    None => defaults[index],
+                };
             }
             (form.body)(&full[..arity])
         }))
