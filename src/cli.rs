@@ -51,10 +51,17 @@ pub struct OutputArgs {
     /// Output format
     #[arg(long, value_enum, default_value_t = FormatArg::Table, global = true)]
     pub format: FormatArg,
-    /// Significant figures of displayed values (1 to 17)
-    #[arg(long, default_value_t = 4, global = true, value_parser = clap::value_parser!(u32).range(1..=17))]
-    pub digits: u32,
+    /// Significant figures of displayed values (1 to 17; default 4, and 15 for CSV, whose
+    /// numbers are read back by programs)
+    #[arg(long, global = true, value_parser = clap::value_parser!(u32).range(1..=17))]
+    pub digits: Option<u32>,
 }
+
+/// Significant figures shown when `--digits` is not given.
+const DEFAULT_DIGITS: u32 = 4;
+/// CSV's default: 15 significant figures are all a double holds of a decimal value, without
+/// the last-bit noise of converting it back from SI (`420.00000000000006 mD`).
+const FULL_PRECISION_DIGITS: u32 = 15;
 
 #[derive(ValueEnum, Debug, Clone, Copy, PartialEq, Eq)]
 pub enum FormatArg {
@@ -197,10 +204,12 @@ impl OutputArgs {
             FormatArg::Csv => Format::Csv,
             FormatArg::Json => Format::Json,
         };
-        RenderOptions {
-            format,
-            digits: self.digits,
-        }
+        let digits = match (self.digits, format) {
+            (Some(digits), _) => digits,
+            (None, Format::Csv) => FULL_PRECISION_DIGITS,
+            (None, _) => DEFAULT_DIGITS,
+        };
+        RenderOptions { format, digits }
     }
 }
 

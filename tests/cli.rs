@@ -288,3 +288,37 @@ fn shell_completions_and_the_manual_page_are_generated() {
     let (code, _, stderr) = run(&["completions", "tcsh"]);
     assert_eq!(code, 2, "an unknown shell is a usage error: {stderr}");
 }
+
+/// CSV is read by programs: without `--digits` it carries 15 significant figures (all a double
+/// holds of a decimal value), so each number agrees with the JSON of the same run to 1e-14.
+#[test]
+fn csv_output_carries_full_precision_by_default() {
+    let sheet = worksheet("core_permeability.fxs");
+    let sheet = sheet.to_str().unwrap();
+    let (_, csv_text, _) = run(&["run", "--format", "csv", sheet]);
+    let (_, json_text, _) = run(&["run", "--format", "json", sheet]);
+    let json: serde_json::Value = serde_json::from_str(&json_text).unwrap();
+    let mut compared = 0;
+    for record in csv_text.lines().skip(1) {
+        let cells: Vec<&str> = record.split(',').collect();
+        let Ok(value) = cells[2].parse::<f64>() else {
+            continue;
+        };
+        let line = json["lines"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|line| line["name"] == cells[1])
+            .unwrap();
+        let expected = line["value"].as_f64().unwrap();
+        assert!(
+            ((value - expected) / expected).abs() <= 1e-14,
+            "{}: csv {value} json {expected}",
+            cells[1]
+        );
+        compared += 1;
+    }
+    assert!(compared >= 10, "{compared} values compared");
+    let (_, rounded, _) = run(&["run", "--format", "csv", "--digits", "4", sheet]);
+    assert!(rounded.contains(",4.051e-6,"), "{rounded}");
+}

@@ -310,7 +310,7 @@ fn table(
         .iter()
         .map(|row| {
             row.iter()
-                .map(|value| render::format_significant(*value, output.digits))
+                .map(|value| render::format_significant(*value, output.options().digits))
                 .collect()
         })
         .collect();
