@@ -417,10 +417,19 @@ impl fmt::Display for EvalErrorKind {
                 "include cycle: {}",
                 chain.iter().map(|name| format!("`{name}`")).collect::<Vec<_>>().join(" includes ")
             ),
-            EvalErrorKind::ColumnLengths { left_rows, left_origin, right_rows, right_origin } => write!(
-                formatter,
-                "columns of different lengths: {left_rows} rows (from `{left_origin}`) and {right_rows} rows (from `{right_origin}`)"
-            ),
+            EvalErrorKind::ColumnLengths { left_rows, left_origin, right_rows, right_origin } => {
+                // A list or range written in place has no line to name.
+                let from = |origin: &str| match origin {
+                    "" => String::new(),
+                    origin => format!(" (from `{origin}`)"),
+                };
+                write!(
+                    formatter,
+                    "columns of different lengths: {left_rows} rows{} and {right_rows} rows{}",
+                    from(left_origin),
+                    from(right_origin)
+                )
+            }
             EvalErrorKind::TextInArithmetic { origin } => {
                 write!(formatter, "`{origin}` is a column of text; only numbers take part in calculations")
             }
