@@ -28,7 +28,7 @@ use super::evaluate::{with_origin, Calculator, Failure, LineResult, Scope, Shown
 use super::function::Library;
 use super::order::dependency_order;
 use super::sources::IncludeLoader;
-use crate::syntax::{parse_line, Expression, FunctionDefinition, Line, LineKind, Span};
+use crate::syntax::{parse_line, FunctionDefinition, Line, LineKind, Span};
 use std::collections::HashMap;
 
 /// The name that holds the last result.
@@ -897,13 +897,13 @@ impl<'l> Session<'l> {
             return Ok((text.to_string(), line));
         }
         let mut spans = Vec::new();
-        for_each_expression(&line, &mut |expression| {
+        for expression in line.expressions() {
             expression.for_each_name(&mut |name, span| {
                 if name == LAST_RESULT {
                     spans.push(span);
                 }
-            })
-        });
+            });
+        }
         if spans.is_empty() {
             return Ok((text.to_string(), line));
         }
@@ -985,28 +985,6 @@ fn initial_result(line: &Line) -> LineResult {
     }
 }
 
-fn for_each_expression<'a>(line: &'a Line, visit: &mut impl FnMut(&'a Expression)) {
-    match &line.kind {
-        LineKind::Definition(definition) => visit(&definition.expression),
-        LineKind::Display(display) => visit(&display.expression),
-        LineKind::Check(check) => {
-            visit(&check.left);
-            visit(&check.right);
-            if let Some(tolerance) = &check.tolerance {
-                visit(tolerance);
-            }
-        }
-        LineKind::Function(function) => visit(&function.body),
-        LineKind::Blank
-        | LineKind::Comment
-        | LineKind::Heading(_)
-        | LineKind::Invalid
-        | LineKind::Include(_)
-        | LineKind::Field(_)
-        | LineKind::Plot(_) => {}
-    }
-}
-
 /// The names a line refers to, without repeats, in order of appearance.
 /// The names and sheet functions a line refers to (a function's own parameters excluded),
 /// without repeats, in order of appearance.
@@ -1025,10 +1003,10 @@ fn references_of(line: &Line) -> Vec<String> {
             names.push(name.to_string());
         }
     };
-    for_each_expression(line, &mut |expression| {
+    for expression in line.expressions() {
         expression.for_each_name(&mut |name, _| add(name));
         expression.for_each_call(&mut |name, _| add(name));
-    });
+    }
     if let LineKind::Plot(plot) = &line.kind {
         for name in plot.series.iter().chain([&plot.against]) {
             add(&name.text);

@@ -122,7 +122,7 @@ fn unused_lines(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec<Diag
                 used.insert(name.text.as_str());
             }
         }
-        for expression in line_expressions(line) {
+        for expression in line.expressions() {
             expression.for_each_name(&mut |name, _| {
                 used.insert(name);
             });
@@ -237,7 +237,7 @@ struct Systems {
 }
 
 fn collect_systems(expression: &Expression, systems: &mut Systems) {
-    for_each_subexpression(expression, &mut |part| {
+    expression.for_each_subexpression(&mut |part| {
         if let ExpressionKind::Quantity {
             unit: Some(unit), ..
         }
@@ -399,8 +399,8 @@ fn angles_in_radians(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec
         .collect();
     let full_turn = std::f64::consts::TAU;
     let mut seen: HashSet<Span> = HashSet::new();
-    for expression in lines.iter().flat_map(line_expressions) {
-        for_each_subexpression(expression, &mut |node| {
+    for expression in lines.iter().flat_map(Line::expressions) {
+        expression.for_each_subexpression(&mut |node| {
             let ExpressionKind::Call {
                 function,
                 arguments,
@@ -481,8 +481,8 @@ fn unit_precedence(line: &Line, warnings: &mut Vec<Diagnostic>) {
     if let LineKind::Display(display) = &line.kind {
         units.extend(display.display_unit.as_ref());
     }
-    for expression in line_expressions(line) {
-        for_each_subexpression(expression, &mut |part| {
+    for expression in line.expressions() {
+        expression.for_each_subexpression(&mut |part| {
             if let ExpressionKind::Quantity {
                 unit: Some(unit), ..
             }
@@ -535,52 +535,6 @@ fn meant_denominator(text: &str) -> Option<String> {
     None
 }
 
-fn line_expressions(line: &Line) -> Vec<&Expression> {
-    match &line.kind {
-        LineKind::Definition(definition) => vec![&definition.expression],
-        LineKind::Function(function) => vec![&function.body],
-        LineKind::Display(display) => vec![&display.expression],
-        LineKind::Check(check) => {
-            let mut sides = vec![&check.left, &check.right];
-            sides.extend(check.tolerance.as_ref());
-            sides
-        }
-        _ => Vec::new(),
-    }
-}
-
-/// Calls `visit` on an expression and every expression inside it.
-fn for_each_subexpression<'a>(expression: &'a Expression, visit: &mut impl FnMut(&'a Expression)) {
-    visit(expression);
-    match &expression.kind {
-        ExpressionKind::Quantity { .. }
-        | ExpressionKind::Name(_)
-        | ExpressionKind::List { .. }
-        | ExpressionKind::FileColumn { .. } => {}
-        ExpressionKind::Range(range) => {
-            for part in range.parts() {
-                for_each_subexpression(part, visit);
-            }
-        }
-        ExpressionKind::Solve(solve) => {
-            for part in [&solve.goal, &solve.lower, &solve.upper] {
-                for_each_subexpression(part, visit);
-            }
-        }
-        ExpressionKind::Fit(_) => {}
-        ExpressionKind::Call { arguments, .. } => {
-            for argument in arguments {
-                for_each_subexpression(argument, visit);
-            }
-        }
-        ExpressionKind::Negate(inner) => for_each_subexpression(inner, visit),
-        ExpressionKind::Binary { left, right, .. } => {
-            for_each_subexpression(left, visit);
-            for_each_subexpression(right, visit);
-        }
-    }
-}
-
 /// Whether an angle unit is written in `expression` or in the lines it names. A name that is
 /// not a line of this sheet (an included line, a function parameter) might be an angle: it
 /// counts as one, so that no warning rests on a guess.
@@ -590,7 +544,7 @@ fn writes_angle_unit<'a>(
     visited: &mut HashSet<&'a str>,
 ) -> bool {
     let mut angle = false;
-    for_each_subexpression(expression, &mut |node| match &node.kind {
+    expression.for_each_subexpression(&mut |node| match &node.kind {
         ExpressionKind::Quantity {
             unit: Some(unit), ..
         }

@@ -185,22 +185,14 @@ pub fn for_each_unit(line: &Line, visit: &mut dyn FnMut(&str, Span)) {
         }
         _ => {}
     }
-    while let Some(expression) = expressions.pop() {
-        match &expression.kind {
-            ExpressionKind::Quantity { unit, .. } | ExpressionKind::List { unit, .. } => {
-                units.extend(unit)
+    for expression in expressions {
+        expression.for_each_subexpression(&mut |part| {
+            if let ExpressionKind::Quantity { unit, .. } | ExpressionKind::List { unit, .. } =
+                &part.kind
+            {
+                units.extend(unit);
             }
-            ExpressionKind::Range(range) => expressions.extend(range.parts()),
-            ExpressionKind::Solve(solve) => {
-                expressions.extend([&solve.goal, &solve.lower, &solve.upper])
-            }
-            ExpressionKind::Call { arguments, .. } => expressions.extend(arguments),
-            ExpressionKind::Negate(inner) => expressions.push(inner),
-            ExpressionKind::Binary { left, right, .. } => expressions.extend([&**left, &**right]),
-            ExpressionKind::Name(_)
-            | ExpressionKind::FileColumn { .. }
-            | ExpressionKind::Fit(_) => {}
-        }
+        });
     }
     while let Some(unit) = units.pop() {
         match &unit.kind {

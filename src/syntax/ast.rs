@@ -252,8 +252,11 @@ pub enum UnitExpressionKind {
 }
 
 impl Expression {
-    /// Calls `visit` on the name of every function this expression calls.
-    pub fn for_each_call<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
+    /// Calls `visit` on this expression and on every expression inside it, outermost first:
+    /// the one walk over the tree that the passes over names, calls, units, warnings and the
+    /// editor build on.
+    pub fn for_each_subexpression<'a>(&'a self, visit: &mut impl FnMut(&'a Expression)) {
+        visit(self);
         match &self.kind {
             ExpressionKind::Quantity { .. }
             | ExpressionKind::Name(_)
@@ -262,43 +265,40 @@ impl Expression {
             | ExpressionKind::FileColumn { .. } => {}
             ExpressionKind::Range(range) => {
                 for part in range.parts() {
-                    part.for_each_call(visit);
+                    part.for_each_subexpression(visit);
                 }
             }
             ExpressionKind::Solve(solve) => {
                 for part in [&solve.goal, &solve.lower, &solve.upper] {
-                    part.for_each_call(visit);
+                    part.for_each_subexpression(visit);
                 }
             }
-            ExpressionKind::Call {
-                function,
-                arguments,
-            } => {
-                visit(&function.text, function.span);
+            ExpressionKind::Call { arguments, .. } => {
                 for argument in arguments {
-                    argument.for_each_call(visit);
+                    argument.for_each_subexpression(visit);
                 }
             }
-            ExpressionKind::Negate(inner) => inner.for_each_call(visit),
+            ExpressionKind::Negate(inner) => inner.for_each_subexpression(visit),
             ExpressionKind::Binary { left, right, .. } => {
-                left.for_each_call(visit);
-                right.for_each_call(visit);
+                left.for_each_subexpression(visit);
+                right.for_each_subexpression(visit);
             }
         }
     }
 
+    /// Calls `visit` on the name of every function this expression calls.
+    pub fn for_each_call<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
+        self.for_each_subexpression(&mut |expression| {
+            if let ExpressionKind::Call { function, .. } = &expression.kind {
+                visit(&function.text, function.span);
+            }
+        });
+    }
+
     /// Calls `visit` on every sheet name this expression refers to (not function names).
     pub fn for_each_name<'a>(&'a self, visit: &mut impl FnMut(&'a str, Span)) {
-        match &self.kind {
-            ExpressionKind::Quantity { .. }
-            | ExpressionKind::List { .. }
-            | ExpressionKind::FileColumn { .. } => {}
-            ExpressionKind::Name(name) => visit(name, self.span),
-            ExpressionKind::Range(range) => {
-                for part in range.parts() {
-                    part.for_each_name(visit);
-                }
-            }
+        self.for_each_subexpression(&mut |expression| match &expression.kind {
+            ExpressionKind::Name(name) => visit(name, expression.span),
             ExpressionKind::Fit(fit) => {
                 visit(&fit.model.text, fit.model.span);
                 visit(&fit.observed.text, fit.observed.span);
@@ -309,20 +309,26 @@ impl Expression {
             ExpressionKind::Solve(solve) => {
                 visit(&solve.line.text, solve.line.span);
                 visit(&solve.unknown.text, solve.unknown.span);
-                for part in [&solve.goal, &solve.lower, &solve.upper] {
-                    part.for_each_name(visit);
-                }
             }
-            ExpressionKind::Call { arguments, .. } => {
-                for argument in arguments {
-                    argument.for_each_name(visit);
-                }
+            _ => {}
+        });
+    }
+}
+
+impl Line {
+    /// The line's top-level expressions: a definition's value, a function's body, a shown
+    /// expression, a check's sides and tolerance. Walk each with `for_each_subexpression`.
+    pub fn expressions(&self) -> Vec<&Expression> {
+        match &self.kind {
+            LineKind::Definition(definition) => vec![&definition.expression],
+            LineKind::Function(function) => vec![&function.body],
+            LineKind::Display(display) => vec![&display.expression],
+            LineKind::Check(check) => {
+                let mut sides = vec![&check.left, &check.right];
+                sides.extend(check.tolerance.as_ref());
+                sides
             }
-            ExpressionKind::Negate(inner) => inner.for_each_name(visit),
-            ExpressionKind::Binary { left, right, .. } => {
-                left.for_each_name(visit);
-                right.for_each_name(visit);
-            }
+            _ => Vec::new(),
         }
     }
 }
