@@ -1007,3 +1007,17 @@ fn eval_shows_the_warnings_about_its_expression() {
     assert!(stdout.starts_with("-0.988"), "{stdout}");
     assert!(stderr.contains("sin(30 deg)"), "{stderr}");
 }
+
+#[test]
+fn absolute_temperatures_show_on_the_scale_they_were_written_on() {
+    for (expression, shown) in [
+        ("20 degC + 5 K", "25 degC\n"),
+        ("mean({10, 20} degC)", "15 degC\n"),
+        ("68 degF - 5 delta_degF", "63 degF\n"),
+        ("20 degC + 5 K [K]", "298.2 K\n"),
+    ] {
+        let (code, stdout, stderr) = eval(expression);
+        assert_eq!(code, 0, "{expression}: {stderr}");
+        assert_eq!(stdout, shown, "{expression}");
+    }
+}

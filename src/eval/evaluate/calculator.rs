@@ -373,6 +373,23 @@ pub(super) fn present(
     unit: Option<(&Unit, &str)>,
     span: Span,
 ) -> Result<Shown, EvalError> {
+    // An absolute temperature from an offset scale shows on that scale unless a unit is
+    // asked for: `20 degC + 5 K` is 25 degC, not 298.2 K.
+    let scale = match &value {
+        Value::Scalar(quantity) => quantity.offset_scale(),
+        Value::Column(column) => column.shape().offset_scale(),
+        Value::Labels(_) => None,
+    };
+    let own_scale = match (unit, scale) {
+        (None, Some(scale)) => Unit::lookup(scale.symbol())
+            .ok()
+            .map(|unit| (unit, scale.symbol())),
+        _ => None,
+    };
+    let unit = match &own_scale {
+        Some((unit, text)) => Some((unit, *text)),
+        None => unit,
+    };
     match value {
         Value::Scalar(quantity) => Ok(Shown::Scalar(match unit {
             Some((unit, text)) => show_in(quantity, unit, text, span)?,
