@@ -6,7 +6,7 @@
 
 use super::error::{EvalError, EvalErrorKind};
 use super::evaluate::{Calculator, Failure, Scope, Shown, ShownValue};
-use super::solve::{lines_between_any, In, Overlay};
+use super::solve::{lines_between_any, In};
 use super::value::{Quantity, Value};
 use crate::numeric::{fit_least_squares, FitError, Fitted};
 use crate::syntax::{Fit, Name, Span};
@@ -111,21 +111,7 @@ impl Calculator<'_> {
                     }),
                 );
             }
-            for name in &chain {
-                let Some(definition) = scope.definition(name) else {
-                    return Err(Failure::Upstream(name.clone()));
-                };
-                let overlay = Overlay {
-                    base: scope,
-                    values: &values,
-                };
-                let shown = self.line_value(
-                    &definition.expression,
-                    definition.display_unit.as_ref(),
-                    &overlay,
-                )?;
-                values.insert(name.clone(), shown);
-            }
+            self.reevaluate_chain(&chain, &mut values, scope)?;
             match values.get(model_name.as_str()) {
                 Some(Shown::Column(shown)) => Ok(shown.column.values.to_vec()),
                 _ => Err(error(

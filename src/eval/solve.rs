@@ -44,6 +44,32 @@ impl Scope for Overlay<'_> {
 }
 
 impl Calculator<'_> {
+    /// Re-evaluates the lines of `chain`, in order, over `values` (the trial inputs and the
+    /// lines already redone), adding each result: the one re-evaluation behind solve and fit.
+    pub(crate) fn reevaluate_chain(
+        &mut self,
+        chain: &[String],
+        values: &mut HashMap<String, Shown>,
+        scope: &dyn Scope,
+    ) -> Result<(), Failure> {
+        for name in chain {
+            let Some(definition) = scope.definition(name) else {
+                return Err(Failure::Upstream(name.clone()));
+            };
+            let overlay = Overlay {
+                base: scope,
+                values,
+            };
+            let shown = self.line_value(
+                &definition.expression,
+                definition.display_unit.as_ref(),
+                &overlay,
+            )?;
+            values.insert(name.clone(), shown);
+        }
+        Ok(())
+    }
+
     /// Solves for the unknown; the iterations and residual go to `notes`.
     pub(crate) fn solve(
         &mut self,
@@ -146,21 +172,7 @@ impl Calculator<'_> {
                     value: x,
                 }),
             );
-            for name in &chain {
-                let Some(definition) = scope.definition(name) else {
-                    return Err(Failure::Upstream(name.clone()));
-                };
-                let overlay = Overlay {
-                    base: scope,
-                    values: &values,
-                };
-                let shown = self.line_value(
-                    &definition.expression,
-                    definition.display_unit.as_ref(),
-                    &overlay,
-                )?;
-                values.insert(name.clone(), shown);
-            }
+            self.reevaluate_chain(&chain, &mut values, scope)?;
             match values.get(target) {
                 Some(Shown::Scalar(shown)) => Ok(shown.quantity.value - goal.value),
                 _ => Err(EvalError::new(
