@@ -488,6 +488,16 @@ const OUT_OF_DOMAIN: &[(&str, &str, &str)] = &[
         "fitted range",
     ),
     (
+        "brine_thermal_conductivity",
+        "brine_thermal_conductivity(60 degC, 1 MPa, 0.3)",
+        "outside 0 to 0.26",
+    ),
+    (
+        "brine_viscosity",
+        "brine_viscosity(60 degC, 40 MPa, 0.1)",
+        "outside 0.1 to 35 MPa",
+    ),
+    (
         "conductivity_at_25c",
         "conductivity_at_25c(850 uS/cm, 50 degC)",
         "outside",

@@ -414,6 +414,7 @@ const SAMPLE_CALLS: &[(&str, &[&str])] = &[
     ("batzle_wang_brine_density", &["60 degC", "20 MPa", "0.1"]),
     ("batzle_wang_brine_viscosity", &["60 degC", "0.1"]),
     ("brine_specific_heat", &["60 degC", "20 MPa", "0.1"]),
+    ("brine_thermal_conductivity", &["60 degC", "20 MPa", "0.1"]),
     ("conductivity_at_25c", &["850 uS/cm", "12 degC", "0.02 1/K"]),
     ("dissolved_solids", &["900 uS/cm", "0.65 (mg/L)/(uS/cm)"]),
     ("geothermal_gradient", &["65 mW/m^2", "2.5 W/(m*K)"]),
