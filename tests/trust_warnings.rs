@@ -335,7 +335,7 @@ const SAMPLE_CALLS: &[(&str, &[&str])] = &[
     ("archie_porosity", &["40 ohm*m", "2 ohm*m", "1", "2"]),
     ("archie_resistivity", &["2 ohm*m", "0.25", "1", "2"]),
     ("brine_density", &["60 degC", "20 MPa", "0.1"]),
-    ("brine_viscosity", &["60 degC", "0.1"]),
+    ("brine_viscosity", &["60 degC", "20 MPa", "0.1"]),
     (
         "constant_head_conductivity",
         &["1e-6 m^3/s", "0.1 m", "0.01 m^2", "0.5 m"],

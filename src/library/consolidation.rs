@@ -165,7 +165,8 @@ from Young's modulus E and Poisson's ratio nu (0 to below 0.5); no lateral strai
                     "nu",
                     "a Poisson's ratio",
                     DIMENSIONLESS,
-                    Domain::NonNegative,
+                    // M diverges at 0.5, an incompressible skeleton.
+                    Domain::from_up_to_below(0.0, 0.5, ""),
                 ),
             ],
             result: PRESSURE,
@@ -343,20 +344,9 @@ fn hooke_stress(values: &[f64]) -> Result<f64, CallError> {
     Ok(modulus * strain)
 }
 
-/// M diverges at ν = 0.5 (an incompressible skeleton), which the entry's domains cannot say:
-/// the body refuses ν ≥ 0.5 itself.
+/// M = E (1 - ν) / ((1 + ν)(1 - 2ν)); the entry's domain keeps ν in [0, 0.5).
 fn constrained_modulus(values: &[f64]) -> Result<f64, CallError> {
     let [modulus, poisson] = arguments(values);
-    if poisson >= 0.5 {
-        return Err(CallError::Domain {
-            argument: Some(1),
-            message: format!(
-                "`nu` is {}: a Poisson's ratio of 0.5 or more has no finite constrained modulus \
-(it must lie in [0, 0.5))",
-                three_figures(poisson)
-            ),
-        });
-    }
     Ok(modulus * (1.0 - poisson) / ((1.0 + poisson) * (1.0 - 2.0 * poisson)))
 }
 
@@ -602,7 +592,7 @@ mod tests {
             "constrained_modulus",
             &[si(8e6, PRESSURE), number(0.5)],
             Expected::Domain(1),
-            "nu = 0.5",
+            "nu = 0.5, the domain's open end",
         );
         check(
             "volume_compressibility",

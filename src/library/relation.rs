@@ -22,7 +22,7 @@ use crate::units::{Dimension, Unit};
 pub type Body = fn(&[f64]) -> Result<f64, CallError>;
 
 /// What values a parameter takes beyond its dimension.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Domain {
     /// Any finite value: a gradient, a pumping rate (negative for injection), a drawdown.
     Any,
@@ -36,6 +36,95 @@ pub enum Domain {
     OpenFraction,
     /// An absolute temperature: not a difference, not below absolute zero.
     AbsoluteTemperature,
+    /// Bounds of the quantity itself, as data: a Poisson's ratio in [0, 0.5).
+    Within(Interval),
+}
+
+/// The bounds of a `Domain::Within`, in SI, each included or not, with the unit the message
+/// and listings state them in (`""` for a plain number).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Interval {
+    pub low: f64,
+    pub low_included: bool,
+    pub high: f64,
+    pub high_included: bool,
+    pub unit: &'static str,
+}
+
+impl Domain {
+    /// Strictly below `high` (SI), with no lower bound: `(-inf, high)`.
+    pub const fn below(high: f64, unit: &'static str) -> Domain {
+        Domain::Within(Interval {
+            low: f64::NEG_INFINITY,
+            low_included: false,
+            high,
+            high_included: false,
+            unit,
+        })
+    }
+
+    /// From `low` (included) to `high` (included), SI: `[low, high]`.
+    pub const fn between(low: f64, high: f64, unit: &'static str) -> Domain {
+        Domain::Within(Interval {
+            low,
+            low_included: true,
+            high,
+            high_included: true,
+            unit,
+        })
+    }
+
+    /// From `low` (included) to below `high` (excluded), SI: `[low, high)`.
+    pub const fn from_up_to_below(low: f64, high: f64, unit: &'static str) -> Domain {
+        Domain::Within(Interval {
+            low,
+            low_included: true,
+            high,
+            high_included: false,
+            unit,
+        })
+    }
+}
+
+impl Interval {
+    #[inline]
+    fn admits(&self, value: f64) -> bool {
+        let above_low = if self.low_included {
+            value >= self.low
+        } else {
+            value > self.low
+        };
+        let below_high = if self.high_included {
+            value <= self.high
+        } else {
+            value < self.high
+        };
+        above_low && below_high
+    }
+
+    /// `[0, 0.5)`, `(-inf, 2 m)`, in the interval's unit.
+    fn describe(&self) -> String {
+        let in_unit = |si: f64| {
+            if si.is_infinite() {
+                if si < 0.0 { "-inf" } else { "inf" }.to_string()
+            } else {
+                let shown = Unit::lookup(self.unit).map_or(si, |unit| unit.from_si(si));
+                crate::eval::error::short_number(shown)
+            }
+        };
+        let open = if self.low_included { '[' } else { '(' };
+        let close = if self.high_included { ']' } else { ')' };
+        let unit = if self.unit.is_empty() {
+            String::new()
+        } else {
+            format!(" {}", self.unit)
+        };
+        format!(
+            "{open}{}, {}{close}{unit}",
+            in_unit(self.low),
+            in_unit(self.high)
+        )
+    }
 }
 
 /// One parameter of a relation.
@@ -69,12 +158,13 @@ impl Parameter {
     /// `K: a hydraulic conductivity, a velocity (m/s), 0 or more`.
     pub fn describe(&self) -> String {
         let domain = match self.domain {
-            Domain::Any => "",
-            Domain::Positive => ", above 0",
-            Domain::NonNegative => ", 0 or more",
-            Domain::Fraction => ", in (0, 1]",
-            Domain::OpenFraction => ", in (0, 1)",
-            Domain::AbsoluteTemperature => ", absolute",
+            Domain::Any => String::new(),
+            Domain::Positive => ", above 0".to_string(),
+            Domain::NonNegative => ", 0 or more".to_string(),
+            Domain::Fraction => ", in (0, 1]".to_string(),
+            Domain::OpenFraction => ", in (0, 1)".to_string(),
+            Domain::AbsoluteTemperature => ", absolute".to_string(),
+            Domain::Within(interval) => format!(", in {}", interval.describe()),
         };
         let default = match self.default {
             Some(value) => format!(
@@ -254,6 +344,7 @@ impl Domain {
             Domain::NonNegative | Domain::AbsoluteTemperature => value >= 0.0,
             Domain::Fraction => value > 0.0 && value <= 1.0,
             Domain::OpenFraction => value > 0.0 && value < 1.0,
+            Domain::Within(interval) => interval.admits(value),
         }
     }
 }
@@ -271,6 +362,12 @@ fn domain_error(index: usize, parameter: &Parameter) -> CallError {
         Domain::OpenFraction => format!("`{name}` is {meaning} and must lie in (0, 1)"),
         Domain::AbsoluteTemperature => {
             format!("`{name}` is below absolute zero: it must be 0 K or above")
+        }
+        Domain::Within(interval) => {
+            format!(
+                "`{name}` is {meaning} and must lie in {}",
+                interval.describe()
+            )
         }
     };
     CallError::Domain {
@@ -523,12 +620,31 @@ mod tests {
         parts
     }
 
-    /// A value just outside a domain, if the domain has an outside.
-    fn outside(domain: Domain) -> Option<f64> {
+    /// Values just outside a domain, at each end it has.
+    fn outside(domain: Domain) -> Vec<f64> {
         match domain {
-            Domain::Any => None,
-            Domain::Positive | Domain::Fraction | Domain::OpenFraction => Some(0.0),
-            Domain::NonNegative | Domain::AbsoluteTemperature => Some(-1e-300),
+            Domain::Any => vec![],
+            Domain::Positive | Domain::Fraction | Domain::OpenFraction => vec![0.0],
+            Domain::NonNegative | Domain::AbsoluteTemperature => vec![-1e-300],
+            Domain::Within(interval) => {
+                let step = |bound: f64| (bound.abs() * 1e-12).max(1e-300);
+                let mut values = Vec::new();
+                if interval.low.is_finite() {
+                    values.push(if interval.low_included {
+                        interval.low - step(interval.low)
+                    } else {
+                        interval.low
+                    });
+                }
+                if interval.high.is_finite() {
+                    values.push(if interval.high_included {
+                        interval.high + step(interval.high)
+                    } else {
+                        interval.high
+                    });
+                }
+                values
+            }
         }
     }
 
@@ -584,7 +700,7 @@ mod tests {
                             form.example, parameter.name
                         ),
                     }
-                    if let Some(value) = outside(parameter.domain) {
+                    for value in outside(parameter.domain) {
                         arguments[index] = Quantity {
                             value,
                             ..example[index]
@@ -593,6 +709,9 @@ mod tests {
                             Err(CallError::Domain { argument, message }) => {
                                 assert_eq!(argument, Some(index), "{}: {message}", form.example);
                                 assert!(message.contains(parameter.name), "{message}");
+                                if let Domain::Within(interval) = parameter.domain {
+                                    assert!(message.contains(&interval.describe()), "{message}");
+                                }
                             }
                             other => panic!(
                                 "{}: `{}` = {value}: {other:?}",
@@ -634,6 +753,29 @@ mod tests {
             }
         }
         assert!(walked >= 100, "walked {walked} parameters");
+    }
+
+    #[test]
+    fn bounded_domains_state_their_bounds_in_their_unit() {
+        let cases = [
+            (Domain::from_up_to_below(0.0, 0.5, ""), "[0, 0.5)", 0.0, 0.5),
+            (Domain::below(0.002, "mm"), "(-inf, 2) mm", -1e9, 0.002),
+            (
+                Domain::between(1e5, 35e6, "MPa"),
+                "[0.1, 35] MPa",
+                1e5,
+                35e6 * 1.000_001,
+            ),
+        ];
+        for (domain, text, inside_or_edge, outside) in cases {
+            let Domain::Within(interval) = domain else {
+                panic!("{domain:?}")
+            };
+            assert_eq!(interval.describe(), text);
+            assert!(domain.admits(inside_or_edge), "{text}: {inside_or_edge}");
+            assert!(!domain.admits(outside), "{text}: {outside}");
+            assert!(!domain.admits(f64::NAN), "{text}: NaN");
+        }
     }
 
     /// The column fast path is the body itself: every row goes through the same checks.
