@@ -47,6 +47,35 @@ pub fn dependency_order(dependencies: &[Vec<usize>]) -> Order {
     }
 }
 
+/// The shortest cycle through `start`, if there is one: the nodes from `start` along
+/// dependencies, each needing the next and the last needing `start` (which is not repeated).
+/// A breadth-first walk, so among cycles of equal length the one through earlier-listed
+/// dependencies is named; it visits only what `start` depends on.
+pub fn shortest_cycle_through(dependencies: &[Vec<usize>], start: usize) -> Option<Vec<usize>> {
+    let mut reached_from: Vec<Option<usize>> = vec![None; dependencies.len()];
+    let mut queue = std::collections::VecDeque::from([start]);
+    while let Some(node) = queue.pop_front() {
+        for &need in dependencies.get(node).into_iter().flatten() {
+            if need == start {
+                // Back along the walk to `start`, whose own entry is empty.
+                let mut path = vec![node];
+                let mut step = node;
+                while let Some(previous) = reached_from[step] {
+                    path.push(previous);
+                    step = previous;
+                }
+                path.reverse();
+                return Some(path);
+            }
+            if need < reached_from.len() && reached_from[need].is_none() {
+                reached_from[need] = Some(node);
+                queue.push_back(need);
+            }
+        }
+    }
+    None
+}
+
 /// Every blocked node is in a cycle or depends on one; walking blocked dependencies from each
 /// node not yet explained must revisit a node, and the loop from that node is a cycle.
 fn find_cycles(
@@ -113,6 +142,24 @@ mod tests {
         assert_eq!(order.sequence, vec![4]);
         assert_eq!(order.cycles, vec![vec![0, 1, 2]]);
         assert_eq!(order.blocked, vec![0, 1, 2, 3]);
+    }
+
+    #[test]
+    fn the_shortest_cycle_through_a_node_is_named_from_it() {
+        // 0 needs 3 and 1; 1 needs 0; 3 needs 2; 2 needs 1 and 0; 4 needs nothing.
+        let dependencies = [vec![3, 1], vec![0], vec![1, 0], vec![2], vec![]];
+        assert_eq!(shortest_cycle_through(&dependencies, 0), Some(vec![0, 1]));
+        assert_eq!(
+            shortest_cycle_through(&dependencies, 3),
+            Some(vec![3, 2, 1, 0])
+        );
+        assert_eq!(shortest_cycle_through(&dependencies, 4), None);
+        assert_eq!(shortest_cycle_through(&[vec![0]], 0), Some(vec![0]));
+        // A cycle elsewhere is not one through the start.
+        assert_eq!(
+            shortest_cycle_through(&[vec![1], vec![2], vec![1]], 0),
+            None
+        );
     }
 
     #[test]

@@ -26,7 +26,7 @@ use super::diagnostic::Diagnostic;
 use super::error::{EvalError, EvalErrorKind};
 use super::evaluate::{with_origin, Calculator, Failure, LineResult, Scope, Shown};
 use super::function::Library;
-use super::order::dependency_order;
+use super::order::{dependency_order, shortest_cycle_through};
 use super::sources::IncludeLoader;
 use crate::syntax::{parse_line, FunctionDefinition, Line, LineKind, Span};
 use std::collections::HashMap;
@@ -854,40 +854,60 @@ impl<'l> Session<'l> {
     }
 
     /// If defining `name` with these references would close a loop, the loop as names from
-    /// `name` back to `name`. The search walks from `name` to the lines that depend on it, so it
-    /// costs nothing for a new name and no more than the recomputation for a redefinition.
+    /// `name` back to `name`. The graph handed to `order::shortest_cycle_through` is the new
+    /// definition (node 0) and the lines that depend on `name`, directly or through others:
+    /// only they can lead back to it, so the cost is nothing for a new name and no more than
+    /// the recomputation for a redefinition.
     fn cycle_through(&self, name: &str, references: &[String]) -> Option<Vec<String>> {
-        if references.iter().any(|reference| reference == name) {
-            return Some(vec![name.to_string(), name.to_string()]);
-        }
-        // Each dependent found, with the name it was reached from.
-        let mut reached_from: HashMap<&str, &str> = HashMap::new();
-        let mut queue = std::collections::VecDeque::from([name]);
-        while let Some(current) = queue.pop_front() {
+        let mut members: Vec<usize> = Vec::new();
+        let mut node_of: HashMap<usize, usize> = HashMap::new();
+        let mut pending = vec![name];
+        while let Some(current) = pending.pop() {
             for referrer in self.referrers.get(current).into_iter().flatten() {
                 let Some(dependent) = self.lines.get(*referrer).and_then(SessionLine::name) else {
                     continue;
                 };
-                if dependent == name || reached_from.contains_key(dependent) {
+                if dependent == name || node_of.contains_key(referrer) {
                     continue;
                 }
-                reached_from.insert(dependent, current);
-                if references.iter().any(|reference| reference == dependent) {
-                    // `name` would depend on `dependent`, which depends on `name` through the
-                    // chain it was reached by.
-                    let mut path = vec![name.to_string()];
-                    let mut step = dependent;
-                    while step != name {
-                        path.push(step.to_string());
-                        step = reached_from.get(step).copied().unwrap_or(name);
-                    }
-                    path.push(name.to_string());
-                    return Some(path);
-                }
-                queue.push_back(dependent);
+                node_of.insert(*referrer, members.len() + 1);
+                members.push(*referrer);
+                pending.push(dependent);
             }
         }
-        None
+        let node_named = |reference: &String| {
+            if reference == name {
+                return Some(0);
+            }
+            self.by_name
+                .get(reference.as_str())
+                .and_then(|line| node_of.get(line))
+                .copied()
+        };
+        let mut dependencies: Vec<Vec<usize>> =
+            vec![references.iter().filter_map(node_named).collect()];
+        for line in &members {
+            dependencies.push(
+                self.lines[*line]
+                    .references
+                    .iter()
+                    .filter_map(node_named)
+                    .collect(),
+            );
+        }
+        let cycle = shortest_cycle_through(&dependencies, 0)?;
+        let mut path: Vec<String> = cycle
+            .iter()
+            .map(|node| match node.checked_sub(1) {
+                Some(member) => self.lines[members[member]]
+                    .name()
+                    .unwrap_or_default()
+                    .to_string(),
+                None => name.to_string(),
+            })
+            .collect();
+        path.push(name.to_string());
+        Some(path)
     }
 
     /// Replaces `_` in an entry by the last result's name or value, unless the session defines
