@@ -319,6 +319,15 @@ fn mixed_unit_systems_need_a_display_unit() {
     // One system, or units that belong to none (time, ratios), do not mix.
     assert!(warning_codes("x = 2 ft/d * 3 d + 1 in\n").is_empty());
     assert!(warning_codes("x = 2 m/d * 3 d * 50 %\n").is_empty());
+    // The system is the catalog's tag: spellings and units once missing from a private list.
+    assert_eq!(warning_codes("x = 3 gpd + 1 m^3/d\n"), ["mixed-units"]);
+    assert_eq!(warning_codes("x = 2 ksi + 1 MPa\n"), ["mixed-units"]);
+    assert!(warning_codes("x = 2 ft/day * 3 hr + 1 in\n").is_empty());
+    assert!(warning_codes("x = 2 cfs * 1 year / 1 acre\n").is_empty());
+    let evaluation = evaluate_sheet("x = 2 gal_imp + 1 L\n", Builtins::standard());
+    assert!(evaluation.diagnostics[0]
+        .message
+        .contains("mixes SI/metric and imperial units"));
 }
 
 #[test]

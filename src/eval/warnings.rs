@@ -11,8 +11,9 @@
 //!   deliberately (`k_spare [mD] = 420 mD`). A sheet where no line computes is a list of values
 //!   and gets none.
 //! - `shadowed-builtin`: a sheet name equal to a built-in function or constant.
-//! - `mixed-units`: a named or bare line whose literals mix SI/metric and US customary units
-//!   and that declares no display unit (so the value silently shows in SI).
+//! - `mixed-units`: a named or bare line whose literals mix SI/metric and US customary (or
+//!   imperial) units, by the catalog's system of each unit, and that declares no display unit
+//!   (so the value silently shows in SI).
 //! - `porosity-range`, `conductivity-range`: plausibility of common inputs, with ranges taken
 //!   from common practice (see `PLAUSIBLE_*`). Water temperatures need no warning: the water
 //!   functions refuse ice, and steam at any pressure the sheet does not give (their refusal
@@ -30,7 +31,7 @@ use super::value::Value;
 use crate::syntax::{
     Expression, ExpressionKind, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
-use crate::units::Dimension;
+use crate::units::{system_of, Dimension, UnitSystem};
 use std::collections::{HashMap, HashSet};
 
 /// Porosity is a fraction of the bulk volume (common practice).
@@ -38,35 +39,6 @@ pub const PLAUSIBLE_POROSITY: (f64, f64) = (0.0, 1.0);
 /// Hydraulic conductivity of natural ground, unfractured clay to clean gravel, in m/s (common
 /// practice).
 pub const PLAUSIBLE_CONDUCTIVITY: (f64, f64) = (1e-13, 1.0);
-/// Unit symbols of US customary (and imperial-derived oilfield) measure. Time, angles and
-/// plain ratios belong to no system; every other catalog unit counts as SI or metric.
-const US_CUSTOMARY: &[&str] = &[
-    "ft",
-    "in",
-    "yd",
-    "mi",
-    "acre",
-    "gal",
-    "bbl",
-    "gpm",
-    "lb",
-    "lbf",
-    "psi",
-    "ftH2O",
-    "inH2O",
-    "BTU",
-    "Btu",
-    "hp",
-    "degF",
-    "°F",
-    "degR",
-    "°R",
-    "delta_degF",
-];
-const NO_SYSTEM: &[&str] = &[
-    "s", "min", "h", "d", "wk", "yr", "Hz", "%", "ppm", "ppb", "rad", "deg", "°",
-];
-
 /// Turns every warning into an error (`--deny-warnings`), saying so in its message.
 pub fn deny_warnings(evaluation: &mut Evaluation) {
     for diagnostic in &mut evaluation.diagnostics {
@@ -230,10 +202,12 @@ means this line",
     }
 }
 
+/// The systems of measure a line's unit literals come from (the catalog's `UnitSystem`).
 #[derive(Default)]
 struct Systems {
     metric: bool,
     us_customary: bool,
+    imperial: bool,
 }
 
 fn collect_systems(expression: &Expression, systems: &mut Systems) {
@@ -252,13 +226,12 @@ fn collect_systems(expression: &Expression, systems: &mut Systems) {
 
 fn unit_systems(unit: &UnitExpression, systems: &mut Systems) {
     match &unit.kind {
-        UnitExpressionKind::Symbol(symbol) => {
-            if US_CUSTOMARY.contains(&symbol.as_str()) {
-                systems.us_customary = true;
-            } else if !NO_SYSTEM.contains(&symbol.as_str()) {
-                systems.metric = true;
-            }
-        }
+        UnitExpressionKind::Symbol(symbol) => match system_of(symbol) {
+            Some(UnitSystem::Metric) => systems.metric = true,
+            Some(UnitSystem::UsCustomary) => systems.us_customary = true,
+            Some(UnitSystem::Imperial) => systems.imperial = true,
+            Some(UnitSystem::None) | None => {}
+        },
         UnitExpressionKind::One => {}
         UnitExpressionKind::Product(left, right) | UnitExpressionKind::Quotient(left, right) => {
             unit_systems(left, systems);
@@ -287,16 +260,20 @@ fn mixed_units(line: &Line, warnings: &mut Vec<Diagnostic>) {
     }
     let mut systems = Systems::default();
     collect_systems(expression, &mut systems);
-    if systems.metric && systems.us_customary {
+    let other = match (systems.us_customary, systems.imperial) {
+        (true, false) => "US customary",
+        (false, true) => "imperial",
+        (true, true) => "US customary and imperial",
+        (false, false) => return,
+    };
+    if systems.metric {
         let hint = match &line.kind {
             LineKind::Definition(definition) => format!("`{} [unit] = …`", definition.name.text),
             _ => "`… [unit]`".to_string(),
         };
         warnings.push(
             Diagnostic::warning(
-                format!(
-                    "{label} mixes SI/metric and US customary units but declares no display unit"
-                ),
+                format!("{label} mixes SI/metric and {other} units but declares no display unit"),
                 expression.span,
             )
             .with_code("mixed-units")

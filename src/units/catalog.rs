@@ -33,7 +33,29 @@ pub struct UnitDefinition {
     pub source: &'static str,
     /// A short remark shown in `fluxsheet units` (conventions, exactness).
     pub note: &'static str,
+    /// The system of measure it belongs to, which the mixed-units warning reads.
+    pub system: UnitSystem,
 }
+
+/// The system of measure of a unit, for telling a sheet that mixes systems.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum UnitSystem {
+    /// SI, the units accepted for use with it, and units of metric origin (bar, darcy, poise,
+    /// the thermochemical calorie, mmHg).
+    Metric,
+    /// US customary measure and the oilfield units built on it (ft, psi, bbl, BTU, degF).
+    UsCustomary,
+    /// British imperial measure (the imperial gallon, the long ton, the EC therm of
+    /// 100 000 BTU).
+    Imperial,
+    /// Belongs to no system: time, frequency, angles and plain ratios.
+    None,
+}
+
+const METRIC: UnitSystem = UnitSystem::Metric;
+const US_CUSTOMARY: UnitSystem = UnitSystem::UsCustomary;
+const IMPERIAL: UnitSystem = UnitSystem::Imperial;
+const NO_SYSTEM: UnitSystem = UnitSystem::None;
 
 /// An SI prefix (SI Brochure, 9th ed., Table 7).
 #[derive(Debug)]
@@ -81,6 +103,7 @@ const fn unit(
     prefixable: bool,
     source: &'static str,
     note: &'static str,
+    system: UnitSystem,
 ) -> UnitDefinition {
     UnitDefinition {
         symbols,
@@ -92,6 +115,7 @@ const fn unit(
         prefixable,
         source,
         note,
+        system,
     }
 }
 
@@ -120,7 +144,7 @@ pub const AMBIGUOUS: &[(&str, &[(&str, &str)])] = &[
 /// Every unit the language knows.
 pub const UNITS: &[UnitDefinition] = &[
     // Length
-    unit(&["m"], "metre", L, "1", true, SI_BROCHURE_BASE, ""),
+    unit(&["m"], "metre", L, "1", true, SI_BROCHURE_BASE, "", METRIC),
     unit(
         &["ft"],
         "foot (international)",
@@ -129,9 +153,28 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
-    unit(&["in"], "inch", L, "0.0254", false, NIST_811, "exact"),
-    unit(&["yd"], "yard", L, "0.9144", false, NIST_811, "exact"),
+    unit(
+        &["in"],
+        "inch",
+        L,
+        "0.0254",
+        false,
+        NIST_811,
+        "exact",
+        US_CUSTOMARY,
+    ),
+    unit(
+        &["yd"],
+        "yard",
+        L,
+        "0.9144",
+        false,
+        NIST_811,
+        "exact",
+        US_CUSTOMARY,
+    ),
     unit(
         &["mi"],
         "mile (international)",
@@ -140,6 +183,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     // Area
     unit(
@@ -150,6 +194,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_ACCEPTED,
         "exact",
+        METRIC,
     ),
     unit(
         &["acre", "ac"],
@@ -159,6 +204,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "43 560 ft^2, exact",
+        US_CUSTOMARY,
     ),
     // Volume
     unit(
@@ -169,6 +215,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_ACCEPTED,
         "exact",
+        METRIC,
     ),
     unit(
         &["gal"],
@@ -178,6 +225,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "231 in^3, exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["bbl"],
@@ -187,6 +235,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["gpm"],
@@ -196,6 +245,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     // Time
     unit(
@@ -206,6 +256,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_BASE,
         "",
+        NO_SYSTEM,
     ),
     unit(
         &["min"],
@@ -215,6 +266,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_ACCEPTED,
         "exact",
+        NO_SYSTEM,
     ),
     unit(
         &["h", "hr"],
@@ -224,6 +276,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_ACCEPTED,
         "exact",
+        NO_SYSTEM,
     ),
     unit(
         &["d", "day"],
@@ -233,6 +286,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_ACCEPTED,
         "exact",
+        NO_SYSTEM,
     ),
     unit(
         &["wk"],
@@ -242,6 +296,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "7 d, exact",
+        NO_SYSTEM,
     ),
     unit(
         &["yr", "year"],
@@ -251,6 +306,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         JULIAN_YEAR,
         "365.25 d = 31 557 600 s, exact",
+        NO_SYSTEM,
     ),
     unit(
         &["Hz"],
@@ -260,6 +316,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_DERIVED,
         "",
+        NO_SYSTEM,
     ),
     // Mass
     unit(
@@ -270,6 +327,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_BASE,
         "kg is k + g",
+        METRIC,
     ),
     unit(
         &["t"],
@@ -279,6 +337,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_ACCEPTED,
         "exact",
+        METRIC,
     ),
     unit(
         &["lb"],
@@ -288,9 +347,19 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     // Force
-    unit(&["N"], "newton", FORCE, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(
+        &["N"],
+        "newton",
+        FORCE,
+        "1",
+        true,
+        SI_BROCHURE_DERIVED,
+        "",
+        METRIC,
+    ),
     unit(
         &["lbf"],
         "pound-force",
@@ -299,6 +368,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["kgf"],
@@ -308,6 +378,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        METRIC,
     ),
     // Pressure
     unit(
@@ -318,8 +389,18 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_DERIVED,
         "",
+        METRIC,
     ),
-    unit(&["bar"], "bar", PRESSURE, "100000", true, NIST_811, "exact"),
+    unit(
+        &["bar"],
+        "bar",
+        PRESSURE,
+        "100000",
+        true,
+        NIST_811,
+        "exact",
+        METRIC,
+    ),
     unit(
         &["atm"],
         "standard atmosphere",
@@ -328,6 +409,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        METRIC,
     ),
     unit(
         &["psi"],
@@ -337,6 +419,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "lbf/in^2, exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["mmHg"],
@@ -346,6 +429,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811_CONVENTIONAL,
         "13.5951 kg/L x 1 mm x g0",
+        METRIC,
     ),
     unit(
         &["mH2O"],
@@ -355,6 +439,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811_CONVENTIONAL,
         "1000 kg/m^3 x 1 m x g0, exact",
+        METRIC,
     ),
     unit(
         &["cmH2O"],
@@ -364,6 +449,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811_CONVENTIONAL,
         "exact",
+        METRIC,
     ),
     unit(
         &["ftH2O", "ft_H2O"],
@@ -373,6 +459,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811_CONVENTIONAL,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["inH2O"],
@@ -382,9 +469,19 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811_CONVENTIONAL,
         "exact",
+        US_CUSTOMARY,
     ),
     // Energy and power
-    unit(&["J"], "joule", ENERGY, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(
+        &["J"],
+        "joule",
+        ENERGY,
+        "1",
+        true,
+        SI_BROCHURE_DERIVED,
+        "",
+        METRIC,
+    ),
     unit(
         &["cal"],
         "calorie (thermochemical)",
@@ -393,6 +490,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         NIST_811,
         "exact",
+        METRIC,
     ),
     unit(
         &["BTU", "Btu"],
@@ -402,6 +500,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["Wh"],
@@ -411,6 +510,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         NIST_811,
         "exact; kWh is k + Wh",
+        METRIC,
     ),
     unit(
         &["eV"],
@@ -420,8 +520,18 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_ACCEPTED,
         "exact (2019 SI)",
+        METRIC,
     ),
-    unit(&["W"], "watt", POWER, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(
+        &["W"],
+        "watt",
+        POWER,
+        "1",
+        true,
+        SI_BROCHURE_DERIVED,
+        "",
+        METRIC,
+    ),
     unit(
         &["hp"],
         "horsepower (mechanical, 550 ft lbf/s)",
@@ -430,6 +540,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     // Temperature
     unit(
@@ -440,6 +551,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_BASE,
         "",
+        METRIC,
     ),
     UnitDefinition {
         symbols: &["degC", "°C", "℃"],
@@ -451,6 +563,7 @@ pub const UNITS: &[UnitDefinition] = &[
         prefixable: false,
         source: SI_BROCHURE_DERIVED,
         note: "absolute; a difference inside a compound unit",
+        system: METRIC,
     },
     UnitDefinition {
         symbols: &["degF", "°F", "℉"],
@@ -462,6 +575,7 @@ pub const UNITS: &[UnitDefinition] = &[
         prefixable: false,
         source: NIST_811,
         note: "absolute; a difference inside a compound unit",
+        system: US_CUSTOMARY,
     },
     UnitDefinition {
         symbols: &["degR", "°R"],
@@ -473,6 +587,7 @@ pub const UNITS: &[UnitDefinition] = &[
         prefixable: false,
         source: NIST_811,
         note: "absolute",
+        system: US_CUSTOMARY,
     },
     UnitDefinition {
         symbols: &["delta_degC"],
@@ -484,6 +599,7 @@ pub const UNITS: &[UnitDefinition] = &[
         prefixable: false,
         source: SI_BROCHURE_DERIVED,
         note: "temperature difference",
+        system: METRIC,
     },
     UnitDefinition {
         symbols: &["delta_degF"],
@@ -495,6 +611,7 @@ pub const UNITS: &[UnitDefinition] = &[
         prefixable: false,
         source: NIST_811,
         note: "temperature difference",
+        system: US_CUSTOMARY,
     },
     // Viscosity
     unit(
@@ -505,6 +622,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         NIST_811,
         "exact; cP = mPa s",
+        METRIC,
     ),
     unit(
         &["St"],
@@ -514,6 +632,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         NIST_811,
         "exact",
+        METRIC,
     ),
     // Permeability
     unit(
@@ -524,10 +643,29 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         NIST_811,
         "1 cP x (1 cm/s) / (1 atm/cm), exact; SP 811 prints 9.869233E-13 m^2",
+        METRIC,
     ),
     // Amount, electricity
-    unit(&["mol"], "mole", AMOUNT, "1", true, SI_BROCHURE_BASE, ""),
-    unit(&["A"], "ampere", CURRENT, "1", true, SI_BROCHURE_BASE, ""),
+    unit(
+        &["mol"],
+        "mole",
+        AMOUNT,
+        "1",
+        true,
+        SI_BROCHURE_BASE,
+        "",
+        METRIC,
+    ),
+    unit(
+        &["A"],
+        "ampere",
+        CURRENT,
+        "1",
+        true,
+        SI_BROCHURE_BASE,
+        "",
+        METRIC,
+    ),
     unit(
         &["C"],
         "coulomb",
@@ -536,8 +674,18 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_DERIVED,
         "",
+        METRIC,
     ),
-    unit(&["V"], "volt", VOLTAGE, "1", true, SI_BROCHURE_DERIVED, ""),
+    unit(
+        &["V"],
+        "volt",
+        VOLTAGE,
+        "1",
+        true,
+        SI_BROCHURE_DERIVED,
+        "",
+        METRIC,
+    ),
     unit(
         &["ohm", "Ω"],
         "ohm",
@@ -546,6 +694,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_DERIVED,
         "",
+        METRIC,
     ),
     unit(
         &["S"],
@@ -555,6 +704,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         SI_BROCHURE_DERIVED,
         "",
+        METRIC,
     ),
     unit(
         &["mho"],
@@ -564,6 +714,7 @@ pub const UNITS: &[UnitDefinition] = &[
         true,
         NIST_811,
         "the siemens under its old name; umho/cm is uS/cm",
+        METRIC,
     ),
     unit(
         &["HFU"],
@@ -573,6 +724,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         COMMON_PRACTICE,
         "1 ucal/(cm^2*s) with the thermochemical calorie (NIST SP 811 B.8): 41.84 mW/m^2",
+        METRIC,
     ),
     // Ratios and angles
     unit(
@@ -583,6 +735,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         COMMON_PRACTICE,
         "exact",
+        NO_SYSTEM,
     ),
     unit(
         &["ppm"],
@@ -592,6 +745,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         COMMON_PRACTICE,
         "by mass or volume as the data say",
+        NO_SYSTEM,
     ),
     unit(
         &["ppb"],
@@ -601,6 +755,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         COMMON_PRACTICE,
         "",
+        NO_SYSTEM,
     ),
     unit(
         &["rad"],
@@ -610,6 +765,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_DERIVED,
         "",
+        NO_SYSTEM,
     ),
     unit(
         &["deg", "°"],
@@ -619,6 +775,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         SI_BROCHURE_ACCEPTED,
         "pi/180, not a decimal",
+        NO_SYSTEM,
     ),
     // Trade spellings: units engineers type every day, beside the SI and NIST rows above.
     unit(
@@ -629,6 +786,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact; `a` alone is refused (annum or are)",
+        METRIC,
     ),
     unit(
         &["gal_imp", "impgal"],
@@ -638,6 +796,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact; `gal` is the US gallon",
+        IMPERIAL,
     ),
     unit(
         &["cfs"],
@@ -647,6 +806,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["gpd"],
@@ -656,6 +816,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         COMMON_PRACTICE,
         "exact from NIST SP 811 gallon and day",
+        US_CUSTOMARY,
     ),
     unit(
         &["MGD"],
@@ -665,6 +826,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         COMMON_PRACTICE,
         "exact from NIST SP 811 gallon and day",
+        US_CUSTOMARY,
     ),
     unit(
         &["ton_US"],
@@ -674,6 +836,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["ton_UK"],
@@ -683,6 +846,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        IMPERIAL,
     ),
     unit(
         &["kip"],
@@ -692,6 +856,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["ksi"],
@@ -701,6 +866,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact",
+        US_CUSTOMARY,
     ),
     unit(
         &["tsf"],
@@ -710,6 +876,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         COMMON_PRACTICE,
         "2000 lbf/ft^2, exact from NIST SP 811 factors; geotechnical practice",
+        US_CUSTOMARY,
     ),
     unit(
         &["Torr", "torr"],
@@ -719,6 +886,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact, 1/760 atm",
+        METRIC,
     ),
     unit(
         &["inHg"],
@@ -728,6 +896,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811_CONVENTIONAL,
         "13.5951 kg/L x 1 in x g0",
+        US_CUSTOMARY,
     ),
     unit(
         &["mmH2O"],
@@ -737,6 +906,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811_CONVENTIONAL,
         "1000 kg/m^3 x 1 mm x g0, exact",
+        METRIC,
     ),
     unit(
         &["therm_US"],
@@ -746,6 +916,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact as tabulated; `therm` alone is refused (US or EC)",
+        US_CUSTOMARY,
     ),
     unit(
         &["therm_EC"],
@@ -755,6 +926,7 @@ pub const UNITS: &[UnitDefinition] = &[
         false,
         NIST_811,
         "exact as tabulated",
+        IMPERIAL,
     ),
 ];
 

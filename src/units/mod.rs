@@ -8,7 +8,7 @@ pub mod dimension;
 pub mod factor;
 pub mod unit;
 
-pub use catalog::TemperatureRole;
+pub use catalog::{TemperatureRole, UnitSystem};
 pub use dimension::{Dimension, Exponent};
 pub use factor::Factor;
-pub use unit::{Unit, UnitError};
+pub use unit::{system_of, Unit, UnitError};

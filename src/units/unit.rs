@@ -3,7 +3,7 @@
 //! `divide` and `power`; any combination drops the offset, so inside a compound unit a degree
 //! is a temperature difference (`W/(m*degC)`), as the trade writes it.
 
-use super::catalog::{TemperatureRole, UnitDefinition, AMBIGUOUS, PREFIXES, UNITS};
+use super::catalog::{TemperatureRole, UnitDefinition, UnitSystem, AMBIGUOUS, PREFIXES, UNITS};
 use super::dimension::{Dimension, Exponent, ExponentOverflow};
 use super::factor::Factor;
 use std::collections::HashMap;
@@ -115,6 +115,36 @@ fn catalog() -> &'static Catalog {
 /// All catalog rows, in table order.
 pub fn catalog_entries() -> &'static [CatalogEntry] {
     &catalog().entries
+}
+
+/// The system of measure of a unit symbol as the lookup reads it (`kPa` is the pascal's, `ft3`
+/// the foot's); `None` for a symbol the catalog does not know.
+pub fn system_of(symbol: &str) -> Option<UnitSystem> {
+    let catalog = catalog();
+    let entry = |symbol: &str| {
+        catalog
+            .by_symbol
+            .get(symbol)
+            .map(|index| &catalog.entries[*index])
+    };
+    if let Some(found) = entry(symbol) {
+        return Some(found.definition.system);
+    }
+    for (prefix, _) in &catalog.prefixes {
+        if let Some(found) = symbol.strip_prefix(prefix).and_then(entry) {
+            if found.definition.prefixable {
+                return Some(found.definition.system);
+            }
+        }
+    }
+    let stem = symbol.strip_suffix(['2', '3'])?;
+    let found = entry(stem).or_else(|| {
+        catalog
+            .prefixes
+            .iter()
+            .find_map(|(prefix, _)| stem.strip_prefix(prefix).and_then(entry))
+    })?;
+    Some(found.definition.system)
 }
 
 /// The SI prefixes with their factors.
@@ -331,6 +361,30 @@ mod tests {
 
     fn si(symbol: &str) -> f64 {
         Unit::lookup(symbol).expect(symbol).factor.value()
+    }
+
+    #[test]
+    fn each_symbol_has_its_units_system() {
+        let cases = [
+            ("m", Some(UnitSystem::Metric)),
+            ("kPa", Some(UnitSystem::Metric)),
+            ("mD", Some(UnitSystem::Metric)),
+            ("m3", Some(UnitSystem::Metric)),
+            ("cm2", Some(UnitSystem::Metric)),
+            ("ft", Some(UnitSystem::UsCustomary)),
+            ("ft3", Some(UnitSystem::UsCustomary)),
+            ("°F", Some(UnitSystem::UsCustomary)),
+            ("gpd", Some(UnitSystem::UsCustomary)),
+            ("gal_imp", Some(UnitSystem::Imperial)),
+            ("min", Some(UnitSystem::None)),
+            ("%", Some(UnitSystem::None)),
+            ("°", Some(UnitSystem::None)),
+            ("kft", None),
+            ("furlong", None),
+        ];
+        for (symbol, system) in cases {
+            assert_eq!(system_of(symbol), system, "{symbol}");
+        }
     }
 
     #[test]
