@@ -299,6 +299,31 @@ impl Catalog {
             .copied()
     }
 
+    /// Two units written without the `*` between them, as the trade writes `Ωm` or `kNm`:
+    /// each split whose halves are both catalog units, prefixed or not, as `Ω*m`.
+    fn run_together(&self, symbol: &str) -> Vec<String> {
+        // Suggestions are for typing slips; a long symbol is not one.
+        if symbol.chars().count() > 12 {
+            return Vec::new();
+        }
+        let known = |part: &str| {
+            self.by_symbol.contains_key(part)
+                || self.prefixes.iter().any(|(prefix, _)| {
+                    part.strip_prefix(prefix)
+                        .and_then(|rest| self.by_symbol.get(rest))
+                        .is_some_and(|index| self.entries[*index].definition.prefixable)
+                })
+        };
+        symbol
+            .char_indices()
+            .skip(1)
+            .map(|(split, _)| symbol.split_at(split))
+            .filter(|(left, right)| known(left) && known(right))
+            .map(|(left, right)| format!("{left}*{right}"))
+            .take(2)
+            .collect()
+    }
+
     /// Units, prefixed or not, with the same letters as `symbol` in another case (`mD` for
     /// `md`, `kPa` for `KPA`), those keeping more of the user's own letter cases first.
     fn same_letters(&self, symbol: &str) -> Vec<String> {
@@ -339,6 +364,9 @@ impl Catalog {
 pub fn suggest_symbols(symbol: &str) -> Vec<String> {
     let catalog = catalog();
     let mut suggestions = catalog.same_letters(symbol);
+    if suggestions.is_empty() {
+        suggestions = catalog.run_together(symbol);
+    }
     let mut scored: Vec<(f64, &str)> = catalog
         .by_symbol
         .keys()
@@ -361,6 +389,20 @@ mod tests {
 
     fn si(symbol: &str) -> f64 {
         Unit::lookup(symbol).expect(symbol).factor.value()
+    }
+
+    #[test]
+    fn units_written_together_are_suggested_with_a_star() {
+        for (typed, suggested) in [("Ωm", "Ω*m"), ("ohmm", "ohm*m"), ("kNm", "kN*m")] {
+            let suggestions = suggest_symbols(typed);
+            assert!(
+                suggestions.iter().any(|known| known == suggested),
+                "{typed}: {suggestions:?}"
+            );
+        }
+        assert!(suggest_symbols("furlong")
+            .iter()
+            .all(|known| !known.contains('*')));
     }
 
     #[test]
