@@ -57,6 +57,8 @@ const BAD_INPUTS: &[(&str, i32, &str)] = &[
     ("x = 2 b", 3, "unknown unit `b`"),
     ("x = 1 PA", 3, "letter case"),
     ("x = 1 md", 3, "unknown unit `md`"),
+    ("rho [ohm*m] = 500 uS/cm", 3, "write `1 / (…) [ohm*m]`"),
+    ("rho = 20 Ωm", 3, "did you mean `Ω*m`"),
     // temperatures
     ("x = -500 degF", 3, "below absolute zero"),
     ("x = 20 degC - 300 K", 3, "below absolute zero"),

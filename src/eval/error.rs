@@ -271,6 +271,15 @@ impl EvalError {
             EvalErrorKind::BelowAbsoluteZero { .. } => diagnostic.with_help(Some(
                 "absolute zero is 0 K, -273.15 degC or -459.67 degF; a temperature difference is written `5 K` or `5 delta_degC`".to_string(),
             )),
+            EvalErrorKind::DisplayUnitMismatch { unit, unit_dimension, value_dimension }
+                if !value_dimension.is_dimensionless()
+                    && value_dimension.multiply(unit_dimension).is_ok_and(|product| product.is_dimensionless()) =>
+            {
+                // A resistivity asked of a conductivity, a time of a frequency.
+                diagnostic.with_help(Some(format!(
+                    "`{unit}` measures the reciprocal of this value: for the reciprocal write `1 / (…) [{unit}]`"
+                )))
+            }
             EvalErrorKind::AbsoluteTemperatureSum => diagnostic.with_help(Some(
                 "subtract them for a difference, or add a difference such as `5 delta_degC`".to_string(),
             )),
