@@ -364,14 +364,39 @@ fn core_sweep_pins() {
 /// carried, and Freeze & Cherry's harmonic layered mean with 1 HFU = 41.84 mW/m^2.
 #[test]
 fn geothermal_doublet_pins() {
-    use seuif97::{pt, OCP, OD, ODV};
+    use seuif97::{pt, OCP, OD, ODV, OTC};
     let json = run_json(&worksheet("geothermal_doublet.fxs"));
     let w_w = 1.0 - 0.1;
     let water_rho = pt(10.0, 80.0, OD);
     let rho = 1.0 / (w_w / water_rho + 1.0 / 1040.4525595928078 - w_w / 971.7977826915796);
     assert_close(value(&json, "rho_b"), rho, 1e-9, "rho_b");
-    let mu = 4.428594083984076e-4 / 3.5507263740548647e-4 * pt(0.101325, 80.0, ODV);
+    // Laliberté's ratio (thermo 0.6.1, as in the library's tests) on water at 10 MPa, times
+    // Kestin, Khalifa & Correia's (1981) pressure factor of the brine over water's, 10 MPa
+    // against 1 atm, typed here from the paper: beta = beta_w + beta_s^E beta*(m / m_s).
+    let t = 80.0f64;
+    let beta_w = -1.297 + 5.74e-2 * t - 6.97e-4 * t * t + 4.47e-6 * t.powi(3) - 1.05e-8 * t.powi(4);
+    let m = 0.1 / (0.9 * 0.058443);
+    let reduced = m / (6.044 + 2.8e-3 * t + 3.6e-5 * t * t);
+    let beta = beta_w
+        + (0.545 + 2.8e-3 * t - beta_w)
+            * (2.5 * reduced - 2.0 * reduced.powi(2) + 0.5 * reduced.powi(3));
+    let factor = |p_mpa: f64, b: f64| 1.0 + b * p_mpa / 1000.0;
+    let pressure_factor = (factor(10.0, beta) / factor(10.0, beta_w))
+        / (factor(0.101325, beta) / factor(0.101325, beta_w));
+    let mu = 4.428594083984076e-4 / 3.5507263740548647e-4 * pt(10.0, 80.0, ODV) * pressure_factor;
     assert_close(value(&json, "mu_b"), mu * 1e3, 1e-9, "mu_b");
+    // Ozbek & Phillips (1980): lambda/lambda_w with S in mass percent, on seuif97's water.
+    let s = 10.0;
+    let ratio = 1.0 - (2.3434e-3 - 7.924e-6 * t + 3.924e-8 * t * t) * s
+        + (1.06e-5 - 2.0e-8 * t + 1.2e-10 * t * t) * s * s;
+    let lambda_b = ratio * pt(10.0, 80.0, (OTC, 1));
+    assert_close(value(&json, "lambda_b"), lambda_b, 1e-9, "lambda_b");
+    assert_close(
+        value(&json, "lambda_res"),
+        5.5f64.powf(0.78) * lambda_b.powf(0.22),
+        1e-9,
+        "lambda_res",
+    );
     let cp = 3766.865444060635 - w_w * 4195.521841492736 + w_w * pt(10.0, 80.0, OCP) * 1000.0;
     assert_close(value(&json, "cp_b"), cp / 1e3, 1e-9, "cp_b");
     let k = 250.0 * 1e-15 / 1.01325;
