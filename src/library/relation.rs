@@ -22,7 +22,11 @@ use crate::units::{Dimension, Unit};
 pub type Body = fn(&[f64]) -> Result<f64, CallError>;
 
 /// What values a parameter takes beyond its dimension.
+///
+/// `repr(u8)` keeps the variant in a plain first byte, so the check on every row of a column
+/// reads one byte rather than decoding a niche inside a bounded domain's fields.
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[repr(u8)]
 pub enum Domain {
     /// Any finite value: a gradient, a pumping rate (negative for injection), a drawdown.
     Any,
@@ -337,7 +341,7 @@ impl Form {
 impl Domain {
     /// Whether the domain takes `value` (a plain comparison: every row of a column asks).
     #[inline]
-    fn admits(self, value: f64) -> bool {
+    fn admits(&self, value: f64) -> bool {
         match self {
             Domain::Any => true,
             Domain::Positive => value > 0.0,
@@ -496,11 +500,12 @@ impl Function for Relation {
     fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
         let form = self.form_for(first_row).ok()?;
         let provided = first_row.len();
-        let domains: Vec<(usize, Domain)> = form.parameters[..provided]
+        // By reference: a bounded domain is five words, too many to copy for every row.
+        let domains: Vec<(usize, &'static Domain)> = form.parameters[..provided]
             .iter()
             .enumerate()
             .filter(|(_, parameter)| parameter.domain != Domain::Any)
-            .map(|(index, parameter)| (index, parameter.domain))
+            .map(|(index, parameter)| (index, &parameter.domain))
             .collect();
         let has_ranges = form
             .formulations
