@@ -522,7 +522,7 @@ mod tests {
             .map(|hint| hint.display);
         assert_eq!(hint.as_deref(), Some("   water_density(T[, p])"));
         let hint = helper.hint_text("x = brine_visc").map(|hint| hint.display);
-        assert_eq!(hint.as_deref(), Some("osity(T, S)"));
+        assert_eq!(hint.as_deref(), Some("osity(T, S) or (T, p, S)"));
         assert!(helper.hint_text("x = 2 m").is_none());
     }
 }
