@@ -94,7 +94,9 @@ const CONDUCTANCE: [i32; 7] = [-2, -1, 3, 2, 0, 0, 0];
 const NONE: [i32; 7] = [0, 0, 0, 0, 0, 0, 0];
 const VOLUME_FLOW: [i32; 7] = [3, 0, -1, 0, 0, 0, 0];
 
-/// Builds a plain row; the few rows with offsets or temperature roles set those fields.
+/// Builds a plain row; the few rows with offsets or temperature roles set those fields. One
+/// argument per column of the table, so that each row reads as a line of it.
+#[allow(clippy::too_many_arguments)]
 const fn unit(
     symbols: &'static [&'static str],
     name: &'static str,
