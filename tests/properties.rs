@@ -106,7 +106,7 @@ fn out_of_range_is_refused_with_the_range() {
         "water_density(20 degC, 150 MPa)",
         "water_viscosity(400 degC, 50 MPa)",
         "saturation_pressure(700 K)",
-        "brine_density(20 degC, 20 MPa, -1 %)",
+        "brine_density(20 degC, 20 MPa, 30 %)",
         "brine_viscosity(300 degC, 0.1)",
         "air_viscosity(50 K)",
         "hydraulic_conductivity(1 D, -5 degC)",
@@ -115,6 +115,10 @@ fn out_of_range_is_refused_with_the_range() {
         assert_eq!(code, 3, "{expression}");
         assert!(stderr.contains("valid for"), "{expression}: {stderr}");
     }
+    // A mass fraction below 0 is refused by the parameter's domain, which names its bounds.
+    let (code, _, stderr) = run(&["eval", "brine_density(20 degC, 20 MPa, -1 %)"]);
+    assert_eq!(code, 3);
+    assert!(stderr.contains("must lie in [0, 1]"), "{stderr}");
 }
 
 #[test]

@@ -272,7 +272,7 @@ const OUT_OF_DOMAIN: &[(&str, &str, &str)] = &[
     (
         "brine_density",
         "brine_density(20 degC, 1 bar, -0.1)",
-        "not a fraction of 0 or more",
+        "must lie in [0, 1]",
     ),
     (
         "brine_viscosity",

@@ -560,10 +560,10 @@ fn solute_heat_capacity(a: &[f64; 6], t_c: f64, salt_total: f64) -> f64 {
 // The sheet relations
 // ---------------------------------------------------------------------------------------------
 
-/// A salt fraction: its bounds are the formulation's (0 to the fitted limit), so a refusal
-/// names the range.
+/// A salt fraction: a mass fraction in [0, 1] by its domain; the fitted limit of each salt is
+/// the formulation's, so that refusal names the fitted range.
 const fn fraction(name: &'static str, meaning: &'static str) -> Parameter {
-    Parameter::new(name, meaning, DIMENSIONLESS, Domain::Any)
+    Parameter::new(name, meaning, DIMENSIONLESS, Domain::between(0.0, 1.0, ""))
 }
 const SALINITY: Parameter = fraction("S", "the NaCl mass fraction (0.1, 10 % or 100000 ppm)");
 const W_NACL: Parameter = fraction("w_NaCl", "the NaCl mass fraction");
