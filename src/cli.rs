@@ -654,6 +654,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
                 entry.definition.name.to_string(),
                 dimension_text,
                 format!("{factor} {}", dimension.si_unit_text()),
+                system_words(entry.definition.system).to_string(),
                 entry.definition.source.to_string(),
                 entry.definition.note.to_string(),
             ]
@@ -664,6 +665,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
         "name",
         "dimension",
         "factor to SI",
+        "system",
         "source",
         "note",
     ];
@@ -681,6 +683,16 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
         )?;
     }
     Ok(())
+}
+
+/// The system of measure as the `mixed-units` warning words it; empty for none.
+fn system_words(system: crate::units::UnitSystem) -> &'static str {
+    match system {
+        crate::units::UnitSystem::Metric => "SI/metric",
+        crate::units::UnitSystem::UsCustomary => "US customary",
+        crate::units::UnitSystem::Imperial => "imperial",
+        crate::units::UnitSystem::None => "",
+    }
 }
 
 fn list_functions(

@@ -135,6 +135,10 @@ fn units_lists_and_filters_by_text_and_dimension() {
         .as_str()
         .unwrap()
         .starts_with("9.869232667160128"));
+    assert_eq!(json[0]["system"], "SI/metric");
+    let (_, stdout, _) = run(&["units", "psi", "--format", "json"]);
+    let json: serde_json::Value = serde_json::from_str(&stdout).unwrap();
+    assert_eq!(json[0]["system"], "US customary");
 }
 
 #[test]
