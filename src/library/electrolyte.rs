@@ -105,7 +105,7 @@ pub static KESTIN_PRESSURE: Formulation = Formulation {
 Correia)",
     citation: "Kestin, J., Khalifa, H. E. and Correia, R. J., 1981, Tables of the dynamic and \
 kinematic viscosity of aqueous NaCl solutions in the temperature range 20-150 °C and the \
-pressure range 0.1-35 MPa, Journal of Physical and Chemical Reference Data 10(1), 71-87 \
+pressure range 0.1-35 MPa, Journal of Physical and Chemical Reference Data 10(1), 71-88 \
 (beta = beta_w + beta_s^E beta*(m/m_s))",
     validity: "NaCl brine, 20-150 °C, 0.1-35 MPa, 0-6 mol/kg (a mass fraction of 0.2596); \
 tables within 0.5 % of the authors' measurements; the brine's factor over water's multiplies \
