@@ -49,3 +49,22 @@ fn parser_corpus_parses_or_diagnoses() {
 fn session_corpus_enters_every_line() {
     replay("session", harness::session_lines);
 }
+
+/// The fuzzing dictionary offers every built-in by name, so that runs reach every relation.
+#[test]
+fn the_dictionary_names_every_builtin() {
+    use fluxsheet::eval::Library;
+    let dictionary =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/fuzz/fluxsheet.dict"))
+            .unwrap();
+    let missing: Vec<&str> = fluxsheet::library::Builtins::standard()
+        .functions_sorted()
+        .into_iter()
+        .map(|(name, _)| name)
+        .filter(|name| !dictionary.contains(&format!("\"{name}(\"")))
+        .collect();
+    assert!(
+        missing.is_empty(),
+        "not in fuzz/fluxsheet.dict: {missing:?}"
+    );
+}
