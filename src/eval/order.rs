@@ -1,6 +1,8 @@
 //! Dependency order: which definitions must be evaluated before which, and the cycles that make
 //! an order impossible. Kahn's algorithm keeps this linear in the size of the sheet.
 
+use std::collections::HashMap;
+
 /// The result of ordering `count` definitions.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct Order {
@@ -47,30 +49,43 @@ pub fn dependency_order(dependencies: &[Vec<usize>]) -> Order {
     }
 }
 
-/// The shortest cycle through `start`, if there is one: the nodes from `start` along
-/// dependencies, each needing the next and the last needing `start` (which is not repeated).
-/// A breadth-first walk, so among cycles of equal length the one through earlier-listed
-/// dependencies is named; it visits only what `start` depends on.
-pub fn shortest_cycle_through(dependencies: &[Vec<usize>], start: usize) -> Option<Vec<usize>> {
-    let mut reached_from: Vec<Option<usize>> = vec![None; dependencies.len()];
+/// The shortest cycle through `start`, found by walking back from it: `needed_by(node, out)`
+/// puts in `out` the nodes that need `node`, and `start_needs(node)` says whether `start` needs
+/// `node`. The answer lists the nodes from `start` in dependency order (`start` needs the
+/// second, each needs the next, the last needs `start`), `start` not repeated. Node numbers are
+/// the caller's own; the walk visits only what depends on `start`, so a caller can ask before
+/// adding `start` to its graph (a session's new definition) at the cost of its dependents.
+pub fn shortest_cycle_through(
+    start: usize,
+    mut needed_by: impl FnMut(usize, &mut Vec<usize>),
+    start_needs: impl Fn(usize) -> bool,
+) -> Option<Vec<usize>> {
+    if start_needs(start) {
+        return Some(vec![start]);
+    }
+    let mut reached_from: HashMap<usize, usize> = HashMap::new();
     let mut queue = std::collections::VecDeque::from([start]);
+    let mut found = Vec::new();
     while let Some(node) = queue.pop_front() {
-        for &need in dependencies.get(node).into_iter().flatten() {
-            if need == start {
-                // Back along the walk to `start`, whose own entry is empty.
-                let mut path = vec![node];
-                let mut step = node;
-                while let Some(previous) = reached_from[step] {
-                    path.push(previous);
-                    step = previous;
+        found.clear();
+        needed_by(node, &mut found);
+        for &dependent in &found {
+            if dependent == start || reached_from.contains_key(&dependent) {
+                continue;
+            }
+            reached_from.insert(dependent, node);
+            if start_needs(dependent) {
+                // Back along the walk: `dependent` needs the node it was reached from, and so
+                // on to `start`.
+                let mut path = vec![start];
+                let mut step = dependent;
+                while step != start {
+                    path.push(step);
+                    step = reached_from[&step];
                 }
-                path.reverse();
                 return Some(path);
             }
-            if need < reached_from.len() && reached_from[need].is_none() {
-                reached_from[need] = Some(node);
-                queue.push_back(need);
-            }
+            queue.push_back(dependent);
         }
     }
     None
@@ -89,7 +104,7 @@ fn find_cycles(
         if in_reported_cycle[start] {
             continue;
         }
-        let mut position_in_path = std::collections::HashMap::new();
+        let mut position_in_path = HashMap::new();
         let mut path = Vec::new();
         let mut node = start;
         loop {
@@ -144,23 +159,30 @@ mod tests {
         assert_eq!(order.blocked, vec![0, 1, 2, 3]);
     }
 
+    /// The cycle through `start` in a graph given as needs, walked back through its inverse.
+    fn cycle_in(dependencies: &[Vec<usize>], start: usize) -> Option<Vec<usize>> {
+        shortest_cycle_through(
+            start,
+            |node, out| {
+                out.extend(
+                    (0..dependencies.len()).filter(|other| dependencies[*other].contains(&node)),
+                )
+            },
+            |node| dependencies[start].contains(&node),
+        )
+    }
+
     #[test]
     fn the_shortest_cycle_through_a_node_is_named_from_it() {
         // 0 needs 3 and 1; 1 needs 0; 3 needs 2; 2 needs 1 and 0; 4 needs nothing.
         let dependencies = [vec![3, 1], vec![0], vec![1, 0], vec![2], vec![]];
-        assert_eq!(shortest_cycle_through(&dependencies, 0), Some(vec![0, 1]));
+        assert_eq!(cycle_in(&dependencies, 0), Some(vec![0, 1]));
         // 3 -> 2 -> 0 -> 3 is shorter than the way through 1.
-        assert_eq!(
-            shortest_cycle_through(&dependencies, 3),
-            Some(vec![3, 2, 0])
-        );
-        assert_eq!(shortest_cycle_through(&dependencies, 4), None);
-        assert_eq!(shortest_cycle_through(&[vec![0]], 0), Some(vec![0]));
+        assert_eq!(cycle_in(&dependencies, 3), Some(vec![3, 2, 0]));
+        assert_eq!(cycle_in(&dependencies, 4), None);
+        assert_eq!(cycle_in(&[vec![0]], 0), Some(vec![0]));
         // A cycle elsewhere is not one through the start.
-        assert_eq!(
-            shortest_cycle_through(&[vec![1], vec![2], vec![1]], 0),
-            None
-        );
+        assert_eq!(cycle_in(&[vec![1], vec![2], vec![1]], 0), None);
     }
 
     #[test]

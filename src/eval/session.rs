@@ -854,57 +854,37 @@ impl<'l> Session<'l> {
     }
 
     /// If defining `name` with these references would close a loop, the loop as names from
-    /// `name` back to `name`. The graph handed to `order::shortest_cycle_through` is the new
-    /// definition (node 0) and the lines that depend on `name`, directly or through others:
-    /// only they can lead back to it, so the cost is nothing for a new name and no more than
-    /// the recomputation for a redefinition.
+    /// `name` back to `name`: `order::shortest_cycle_through` walks from the new definition
+    /// (a node number no line has) to the lines that depend on it, so the check costs nothing
+    /// for a new name and no more than the recomputation for a redefinition.
     fn cycle_through(&self, name: &str, references: &[String]) -> Option<Vec<String>> {
-        let mut members: Vec<usize> = Vec::new();
-        let mut node_of: HashMap<usize, usize> = HashMap::new();
-        let mut pending = vec![name];
-        while let Some(current) = pending.pop() {
-            for referrer in self.referrers.get(current).into_iter().flatten() {
-                let Some(dependent) = self.lines.get(*referrer).and_then(SessionLine::name) else {
-                    continue;
-                };
-                if dependent == name || node_of.contains_key(referrer) {
-                    continue;
-                }
-                node_of.insert(*referrer, members.len() + 1);
-                members.push(*referrer);
-                pending.push(dependent);
-            }
-        }
-        let node_named = |reference: &String| {
-            if reference == name {
-                return Some(0);
-            }
-            self.by_name
-                .get(reference.as_str())
-                .and_then(|line| node_of.get(line))
-                .copied()
+        const NEW_DEFINITION: usize = usize::MAX;
+        let name_of = |node: usize| match node {
+            NEW_DEFINITION => Some(name),
+            line => self.lines.get(line).and_then(SessionLine::name),
         };
-        let mut dependencies: Vec<Vec<usize>> =
-            vec![references.iter().filter_map(node_named).collect()];
-        for line in &members {
-            dependencies.push(
-                self.lines[*line]
-                    .references
-                    .iter()
-                    .filter_map(node_named)
-                    .collect(),
-            );
-        }
-        let cycle = shortest_cycle_through(&dependencies, 0)?;
+        let cycle = shortest_cycle_through(
+            NEW_DEFINITION,
+            |node, dependents| {
+                let Some(needed) = name_of(node) else {
+                    return;
+                };
+                for referrer in self.referrers.get(needed).into_iter().flatten() {
+                    // Only named lines can be needed in turn; the old definition of `name` is
+                    // the one being replaced.
+                    if name_of(*referrer).is_some_and(|dependent| dependent != name) {
+                        dependents.push(*referrer);
+                    }
+                }
+            },
+            |node| {
+                name_of(node)
+                    .is_some_and(|needed| references.iter().any(|reference| reference == needed))
+            },
+        )?;
         let mut path: Vec<String> = cycle
             .iter()
-            .map(|node| match node.checked_sub(1) {
-                Some(member) => self.lines[members[member]]
-                    .name()
-                    .unwrap_or_default()
-                    .to_string(),
-                None => name.to_string(),
-            })
+            .filter_map(|node| name_of(*node).map(str::to_string))
             .collect();
         path.push(name.to_string());
         Some(path)
