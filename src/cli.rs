@@ -4,7 +4,8 @@
 
 use crate::eval::warnings::deny_warnings;
 use crate::eval::{
-    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
+    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, NOTHING_TO_SAMPLE,
+    UNKNOWN_OVERRIDE,
 };
 use crate::front::limits::{FileKind, ReadLimits};
 use crate::front::streams::{error_stream, PipeSafe};
@@ -95,6 +96,54 @@ pub struct RunArgs {
     pub working: bool,
     #[command(flatten)]
     pub limits: LimitArgs,
+    #[command(flatten)]
+    pub sampling: SampleArgs,
+}
+
+/// Sampling of a sheet's distributions, shared by `run` and `report`.
+#[derive(Args, Debug, Clone)]
+pub struct SampleArgs {
+    /// Evaluate the sheet N times with its distributions sampled, and summarise each uncertain
+    /// line (mean, sd, percentiles), each check (probability of failing) and each result (which
+    /// inputs drive it)
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u64).range(1..=100_000_000))]
+    pub samples: Option<u64>,
+    /// The generator's seed: the same seed gives the same samples on any machine
+    #[arg(long, value_name = "S", default_value_t = 1, requires = "samples")]
+    pub seed: u64,
+    /// Percentiles to show, 0 to 100, separated by commas
+    #[arg(long, value_name = "P,P,…", value_delimiter = ',', requires = "samples", value_parser = percentile_argument)]
+    pub percentiles: Vec<f64>,
+    /// Threads to sample on (default: every core); the output does not depend on it
+    #[arg(long, value_name = "N", requires = "samples", value_parser = clap::value_parser!(u64).range(1..=256))]
+    pub threads: Option<u64>,
+}
+
+impl SampleArgs {
+    pub fn sampling(&self) -> Option<crate::eval::uncertainty::Sampling> {
+        let samples = usize::try_from(self.samples?).ok()?;
+        let mut sampling = crate::eval::uncertainty::Sampling::new(samples, self.seed);
+        if !self.percentiles.is_empty() {
+            sampling.percentiles = self.percentiles.clone();
+        }
+        if let Some(threads) = self
+            .threads
+            .and_then(|threads| usize::try_from(threads).ok())
+        {
+            sampling.threads = threads;
+        }
+        Some(sampling)
+    }
+}
+
+/// A percentile of `--percentiles`: a number from 0 to 100.
+fn percentile_argument(text: &str) -> Result<f64, String> {
+    match text.trim().trim_start_matches(['P', 'p']).parse::<f64>() {
+        Ok(value) if (0.0..=100.0).contains(&value) => Ok(value),
+        _ => Err(format!(
+            "`{text}` is not a percentile from 0 to 100 (e.g. `5,50,95`)"
+        )),
+    }
 }
 
 /// Limits shared by the commands that evaluate sheets.
@@ -120,6 +169,7 @@ impl LimitArgs {
             max_rows: self.max_rows,
             max_total_rows: self.max_total_rows,
             overrides: Vec::new(),
+            sampling: None,
         }
     }
 
@@ -395,6 +445,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let files = &arguments.files;
     let (allow_outside, deny) = (arguments.allow_outside, arguments.deny_warnings);
     let mut settings = arguments.limits.settings();
+    settings.sampling = arguments.sampling.sampling();
     let read_limits = arguments.limits.read_limits();
     settings.overrides = match parse_overrides(&arguments.overrides) {
         Ok(overrides) => overrides,
@@ -425,11 +476,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         let path = (file != "-").then(|| Path::new(file.as_str()));
         let (evaluation, inputs) =
             evaluate_file_reading(&source, path, allow_outside, deny, &settings, &read_limits);
-        if evaluation
-            .diagnostics
-            .iter()
-            .any(|diagnostic| diagnostic.code == Some(UNKNOWN_OVERRIDE))
-        {
+        if evaluation.diagnostics.iter().any(|diagnostic| {
+            diagnostic.code == Some(UNKNOWN_OVERRIDE) || diagnostic.code == Some(NOTHING_TO_SAMPLE)
+        }) {
             render::write_diagnostics(
                 &mut error_stream(),
                 &evaluation.sources,
@@ -467,6 +516,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             writeln!(out, "{}", source.label)?;
         }
         render::table::write_sheet(out, &evaluation, options)?;
+        if let Some(summary) = &evaluation.samples {
+            render::spread::write_summary(out, summary, options)?;
+        }
         if arguments.working {
             let working =
                 render::working::working(&evaluation, Builtins::standard(), options.digits);

@@ -324,7 +324,7 @@ impl Builder {
                 }
                 Rule::parameters => parameters = Some(self.parameters(inner)?),
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
-                Rule::ranged | Rule::file_column | Rule::solve | Rule::fit => {
+                Rule::ranged | Rule::file_column | Rule::solve | Rule::fit | Rule::distribution => {
                     expression = Some(self.line_value(inner)?)
                 }
                 _ => {}
@@ -482,6 +482,10 @@ impl Builder {
                 }),
             };
         }
+        if rule == Rule::distribution {
+            let kind = ExpressionKind::Distribution(Box::new(self.distribution(pair)?));
+            return Ok(Expression { kind, span });
+        }
         let mut expressions = Vec::new();
         let mut names = Vec::new();
         let mut path = None;
@@ -541,6 +545,73 @@ impl Builder {
             _ => return Err(internal(span.start)),
         };
         Ok(Expression { kind, span })
+    }
+
+    /// `lognormal median 1e-9 m/s factor 3 between … and … rank 0.5 with t`.
+    fn distribution(&self, pair: Pair<Rule>) -> Result<Distribution, SyntaxError> {
+        let start = self.span(&pair).start;
+        let mut inner = pair.into_inner();
+        let shape = inner.next().ok_or_else(|| internal(start))?;
+        let mut family = match shape.as_rule() {
+            Rule::normal => Family::Normal,
+            Rule::lognormal => Family::LogNormalFactor,
+            Rule::uniform => Family::Uniform,
+            Rule::loguniform => Family::LogUniform,
+            Rule::triangular => Family::Triangular,
+            _ => return Err(internal(start)),
+        };
+        let mut parameters = Vec::new();
+        for part in shape.into_inner() {
+            match part.as_rule() {
+                Rule::expression => parameters.push(self.expression(part)?),
+                Rule::log_spread => {
+                    for spread in part.into_inner() {
+                        match spread.as_rule() {
+                            Rule::sdln_keyword => family = Family::LogNormalSdLn,
+                            Rule::sdlog10_keyword => family = Family::LogNormalSdLog10,
+                            Rule::expression => parameters.push(self.expression(spread)?),
+                            _ => {}
+                        }
+                    }
+                }
+                _ => {}
+            }
+        }
+        let mut bounds = None;
+        let mut correlations = Vec::new();
+        for tail in inner {
+            let rule = tail.as_rule();
+            let mut expressions = Vec::new();
+            let mut with = None;
+            for part in tail.into_inner() {
+                match part.as_rule() {
+                    Rule::expression => expressions.push(self.expression(part)?),
+                    Rule::name => {
+                        with = Some(Name {
+                            text: part.as_str().to_string(),
+                            span: self.span(&part),
+                        })
+                    }
+                    _ => {}
+                }
+            }
+            match (rule, with) {
+                (Rule::truncation, _) => {
+                    bounds = Some(expressions.try_into().map_err(|_| internal(start))?)
+                }
+                (Rule::correlation, Some(with)) => {
+                    let rank = expressions.pop().ok_or_else(|| internal(start))?;
+                    correlations.push(Correlation { rank, with });
+                }
+                _ => return Err(internal(start)),
+            }
+        }
+        Ok(Distribution {
+            family,
+            parameters,
+            bounds,
+            correlations,
+        })
     }
 
     /// `from` and the tail `to B step S` or `to B count N [log]`.
@@ -985,6 +1056,15 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::and_keyword => "`and`",
         Rule::against_keyword => "`against`",
         Rule::axis => "`x` or `y`",
+        Rule::mean_keyword => "`mean`",
+        Rule::sd_keyword => "`sd`",
+        Rule::median_keyword | Rule::geomean_keyword => "`median` or `geomean`",
+        Rule::log_spread | Rule::factor_keyword | Rule::sdln_keyword | Rule::sdlog10_keyword => {
+            "`factor`, `sdln` or `sdlog10`"
+        }
+        Rule::likely_keyword => "`likely`",
+        Rule::with_keyword => "`with`",
+        Rule::truncation | Rule::correlation | Rule::rank_keyword => "`between` or `rank`",
         Rule::parameter | Rule::parameters => "a parameter name",
         _ => return None,
     })

@@ -64,6 +64,11 @@ pub(crate) struct Calculator<'l> {
     pub(crate) notes: HashMap<usize, String>,
     /// Data files handed to a session, by the path as written.
     pub(crate) data_by_path: HashMap<String, Result<Arc<DataTable>, String>>,
+    /// The normal scores of the block of samples being evaluated (`run --samples`); without
+    /// them a distribution gives its median.
+    pub(crate) sampling: Option<Arc<crate::eval::uncertainty::BlockScores>>,
+    /// The distributions met, in evaluation order (one per input).
+    pub(crate) uncertain: Vec<crate::eval::uncertainty::UncertainInput>,
 }
 impl<'l> Calculator<'l> {
     pub(crate) fn new(library: &'l dyn Library) -> Calculator<'l> {
@@ -80,6 +85,8 @@ impl<'l> Calculator<'l> {
             data_files: HashMap::default(),
             notes: HashMap::default(),
             data_by_path: HashMap::default(),
+            sampling: None,
+            uncertain: Vec::new(),
         }
     }
 
@@ -91,6 +98,12 @@ impl<'l> Calculator<'l> {
         scope: &dyn Scope,
     ) -> Result<Value, Failure> {
         let span = expression.span;
+        if self.sampling.is_some() {
+            if let Some(what) = not_sampled(&expression.kind) {
+                let error = EvalError::new(EvalErrorKind::NotWithSamples { what }, span);
+                return Err(error.into());
+            }
+        }
         let value = match &expression.kind {
             ExpressionKind::Quantity { digits, unit } => {
                 Value::Scalar(self.literal(digits, unit.as_ref(), span)?)
@@ -104,6 +117,9 @@ impl<'l> Calculator<'l> {
             } => self.file_column(header, path, *path_span, span)?,
             ExpressionKind::Solve(solve) => self.solve(solve, span, scope)?,
             ExpressionKind::Fit(fit) => self.fit(fit, span, scope)?,
+            ExpressionKind::Distribution(distribution) => {
+                self.distribution(distribution, span, scope)?
+            }
             ExpressionKind::Name(name) => self.name(name, span, scope)?,
             ExpressionKind::Call {
                 function,
@@ -309,6 +325,19 @@ impl<'l> Calculator<'l> {
             unit: quantity.dimension.preferred_si_unit(),
             value: quantity.value,
         })
+    }
+}
+
+/// What a sampled sheet cannot hold: columns of its own (their rows would be taken for
+/// samples) and the lines that search over inputs.
+fn not_sampled(kind: &ExpressionKind) -> Option<&'static str> {
+    match kind {
+        ExpressionKind::List { .. } => Some("a list"),
+        ExpressionKind::Range(_) => Some("a range"),
+        ExpressionKind::FileColumn { .. } => Some("a data-file column"),
+        ExpressionKind::Solve(_) => Some("a `solve` line"),
+        ExpressionKind::Fit(_) => Some("a `fit` line"),
+        _ => None,
     }
 }
 

@@ -85,6 +85,13 @@ impl<'l> Calculator<'l> {
             )
         };
         if let Some(result) = callee.call_values(&values, &mut self.provenance) {
+            // Over samples, a function of whole columns would combine the samples of a block.
+            let sampled = self.sampling.is_some()
+                && values.iter().any(|value| matches!(value, Value::Column(_)));
+            if sampled {
+                let what = "a function of whole columns (an aggregate, a table, layers, wells)";
+                return Err(EvalError::new(EvalErrorKind::NotWithSamples { what }, span).into());
+            }
             return result.map_err(|error| call_error(error).into());
         }
         let mut rows = None;
