@@ -225,11 +225,12 @@ fn joined(
     Some(all)
 }
 
-/// A line's samples ranked and summarised.
-struct Ranked {
+/// One uncertain line summarised: its spread, its ranking of the inputs, and its P50 in SI
+/// for the table.
+struct LineResultSummary {
     spread: LineSpread,
-    ranks: Vec<f64>,
-    /// P50 in SI, for the table's value.
+    /// `(input name, rank correlation)` for a result line; empty for an input.
+    ranking: Vec<(String, Option<f64>)>,
     median_si: f64,
 }
 
@@ -241,57 +242,60 @@ fn summarise(
     outcomes: &[BlockOutcome],
 ) -> SampleSummary {
     let samples = sampling.samples;
-    // The main lines whose values vary, with their samples in SI and display conversion.
-    let mut uncertain: Vec<(usize, Vec<f64>, ShownColumnShape)> = Vec::new();
-    for (index, line) in evaluation.lines.iter().enumerate() {
-        let LineResult::Value(Shown::Scalar(shown)) = &line.result else {
-            continue;
-        };
-        if let Some(values) = joined(outcomes, |outcome| outcome.columns[index].as_ref()) {
-            let shape = ShownColumnShape::of(shown);
-            uncertain.push((index, values, shape));
-        }
-    }
-    // Ranking is the costly part: lines and inputs are ranked on the threads.
-    let ranked: Vec<Ranked> =
-        in_parallel(sampling.threads, &uncertain, |(index, values, shape)| {
-            let line = &evaluation.lines[*index];
-            rank_line(line, values, shape, &sampling.percentiles, names)
-        });
-    let input_ranks: Vec<Vec<f64>> = in_parallel(
-        sampling.threads,
-        &(0..inputs.len()).collect::<Vec<_>>(),
-        |input| {
-            let scores = joined(outcomes, |outcome| outcome.scores.get(*input)).unwrap_or_default();
-            ranks(&scores).0
-        },
-    );
-    let mut lines = Vec::with_capacity(ranked.len());
-    let mut sensitivity = Vec::new();
-    for ((index, _, shape), line_ranks) in uncertain.iter().zip(&ranked) {
-        let line = &mut evaluation.lines[*index];
-        if !line_ranks.spread.is_input {
-            let mut by_input: Vec<(String, Option<f64>)> = names
-                .iter()
-                .zip(&input_ranks)
-                .map(|(name, ranks)| (name.clone(), correlation(&line_ranks.ranks, ranks)))
-                .collect();
-            by_input.sort_by(|a, b| {
-                let size = |value: &Option<f64>| value.map_or(-1.0, f64::abs);
-                size(&b.1).total_cmp(&size(&a.1))
-            });
-            if let Some(name) = &line.name {
-                sensitivity.push(Sensitivity {
-                    line: line.number,
-                    name: name.clone(),
-                    inputs: by_input,
-                });
+    // The main lines whose values vary: a single value in the median run, columns of samples
+    // in the blocks.
+    let uncertain: Vec<(usize, ShownColumnShape)> = evaluation
+        .lines
+        .iter()
+        .enumerate()
+        .filter_map(|(index, line)| match &line.result {
+            LineResult::Value(Shown::Scalar(shown))
+                if outcomes
+                    .iter()
+                    .all(|outcome| outcome.columns[index].is_some()) =>
+            {
+                Some((index, ShownColumnShape::of(shown)))
             }
+            _ => None,
+        })
+        .collect();
+    // Ranking is the costly part, so lines are ranked on the threads, one at a time each,
+    // and only their summaries kept. An input's ranks are its scores' (the transforms keep
+    // order).
+    let input_indices: Vec<usize> = (0..inputs.len()).collect();
+    let input_ranks: Vec<Vec<f64>> = in_parallel(sampling.threads, &input_indices, |input| {
+        let scores = joined(outcomes, |outcome| outcome.scores.get(*input)).unwrap_or_default();
+        ranks(&scores).0
+    });
+    let lines_view = &evaluation.lines;
+    let summaries: Vec<LineResultSummary> =
+        in_parallel(sampling.threads, &uncertain, |(index, shape)| {
+            let values =
+                joined(outcomes, |outcome| outcome.columns[*index].as_ref()).unwrap_or_default();
+            summarise_line(
+                &lines_view[*index],
+                values,
+                shape,
+                &sampling.percentiles,
+                names,
+                &input_ranks,
+            )
+        });
+    let mut lines = Vec::with_capacity(summaries.len());
+    let mut sensitivity = Vec::new();
+    for ((index, shape), summary) in uncertain.iter().zip(summaries) {
+        let line = &mut evaluation.lines[*index];
+        if let (false, Some(name)) = (summary.spread.is_input, &line.name) {
+            sensitivity.push(Sensitivity {
+                line: line.number,
+                name: name.clone(),
+                inputs: summary.ranking,
+            });
         }
         // The table shows the sampled P50, and says so.
-        line.result = LineResult::Value(Shown::Scalar(shape.shown(line_ranks.median_si)));
+        line.result = LineResult::Value(Shown::Scalar(shape.shown(summary.median_si)));
         line.note = Some(format!("P50 of {samples} samples; the spread is below"));
-        lines.push(line_ranks.spread.clone());
+        lines.push(summary.spread);
     }
     let checks = join_checks(evaluation, outcomes, samples);
     SampleSummary {
@@ -302,6 +306,61 @@ fn summarise(
         lines,
         checks,
         sensitivity,
+    }
+}
+
+/// Quantiles kept per line for charts: P0, P0.1, …, P100.
+const CHART_QUANTILES: usize = 1001;
+
+fn summarise_line(
+    line: &LineOutcome,
+    values: Vec<f64>,
+    shape: &ShownColumnShape,
+    percentiles: &[f64],
+    names: &[String],
+    input_ranks: &[Vec<f64>],
+) -> LineResultSummary {
+    let (line_ranks, mut sorted) = ranks(&values);
+    drop(values);
+    let is_input = line.name.as_ref().is_some_and(|name| names.contains(name));
+    let mut ranking: Vec<(String, Option<f64>)> = Vec::new();
+    if !is_input {
+        ranking = names
+            .iter()
+            .zip(input_ranks)
+            .map(|(name, ranks)| (name.clone(), correlation(&line_ranks, ranks)))
+            .collect();
+        ranking.sort_by(|a, b| {
+            let size = |value: &Option<f64>| value.map_or(-1.0, f64::abs);
+            size(&b.1).total_cmp(&size(&a.1))
+        });
+    }
+    drop(line_ranks);
+    let median_si = percentile(&sorted, 50.0);
+    // Display units are increasing functions of SI, so the sorted order holds.
+    for value in sorted.iter_mut() {
+        *value = shape.in_unit(*value);
+    }
+    let (mean, sd) = mean_and_sd(&sorted);
+    let step = 100.0 / (CHART_QUANTILES - 1) as f64;
+    LineResultSummary {
+        spread: LineSpread {
+            line: line.number,
+            name: line.name.clone(),
+            unit: shape.template.unit.clone(),
+            is_input,
+            mean,
+            sd,
+            percentiles: percentiles
+                .iter()
+                .map(|p| percentile(&sorted, *p))
+                .collect(),
+            quantiles: (0..CHART_QUANTILES)
+                .map(|index| percentile(&sorted, index as f64 * step))
+                .collect(),
+        },
+        ranking,
+        median_si,
     }
 }
 
@@ -336,36 +395,6 @@ impl ShownColumnShape {
         shown.quantity.value = si;
         shown.value = self.in_unit(si);
         shown
-    }
-}
-
-fn rank_line(
-    line: &LineOutcome,
-    values: &[f64],
-    shape: &ShownColumnShape,
-    percentiles: &[f64],
-    names: &[String],
-) -> Ranked {
-    let (line_ranks, sorted_si) = ranks(values);
-    let sorted: Vec<f64> = sorted_si.iter().map(|si| shape.in_unit(*si)).collect();
-    let (mean, sd) = mean_and_sd(&sorted);
-    let is_input = line.name.as_ref().is_some_and(|name| names.contains(name));
-    Ranked {
-        spread: LineSpread {
-            line: line.number,
-            name: line.name.clone(),
-            unit: shape.template.unit.clone(),
-            is_input,
-            mean,
-            sd,
-            percentiles: percentiles
-                .iter()
-                .map(|p| percentile(&sorted, *p))
-                .collect(),
-            sorted: Arc::new(sorted),
-        },
-        ranks: line_ranks,
-        median_si: percentile(&sorted_si, 50.0),
     }
 }
 

@@ -76,8 +76,8 @@ pub struct LineSpread {
     pub sd: f64,
     /// The asked percentiles, in the order of `SampleSummary::percentiles`.
     pub percentiles: Vec<f64>,
-    /// Every sample in the display unit, sorted (for charts).
-    pub sorted: Arc<Vec<f64>>,
+    /// The percentiles 0, 0.1, 0.2, … 100 in the display unit (1001 values), for charts.
+    pub quantiles: Vec<f64>,
 }
 
 /// How often a check line failed over the samples.
