@@ -76,9 +76,12 @@ pub fn write_summary(
     }
     if !summary.sensitivity.is_empty() {
         writeln!(out)?;
+        let noise = noise_level(summary.samples);
         writeln!(
             out,
-            "What drives each result (Spearman rank correlation with each input, largest first):"
+            "What drives each result (Spearman rank correlation with each input, largest first; \
+             inputs below {}, within the sampling noise of zero, left out):",
+            format_significant(noise, 2)
         )?;
         let header = ["line", "result", "inputs by rank correlation"];
         let rows: Vec<Vec<String>> = summary
@@ -88,16 +91,19 @@ pub fn write_summary(
                 let ranking: Vec<String> = result
                     .inputs
                     .iter()
-                    .map(|(name, rank)| match rank {
-                        Some(rank) => format!("{name} {}", signed(*rank)),
-                        None => format!("{name} –"),
+                    .filter_map(|(name, rank)| match rank {
+                        Some(rank) if rank.abs() >= noise => {
+                            Some(format!("{name} {}", signed(*rank)))
+                        }
+                        _ => None,
                     })
                     .collect();
-                vec![
-                    result.line.to_string(),
-                    result.name.clone(),
-                    ranking.join(", "),
-                ]
+                let ranking = if ranking.is_empty() {
+                    "(none: the result follows no input)".to_string()
+                } else {
+                    ranking.join(", ")
+                };
+                vec![result.line.to_string(), result.name.clone(), ranking]
             })
             .collect();
         write_block(out, format, &header, &rows, header.len())?;
@@ -118,6 +124,12 @@ pub fn probability_text(check: &CheckSpread) -> String {
             format_significant(check.standard_error() * 100.0, 2)
         ),
     }
+}
+
+/// Three standard errors of a rank correlation of independent samples, 3 / sqrt(n − 1): a
+/// smaller one cannot be told from zero.
+pub fn noise_level(samples: usize) -> f64 {
+    3.0 / (samples.saturating_sub(1).max(1) as f64).sqrt()
 }
 
 /// A rank correlation with its sign, two decimals: `+0.87`, `-0.12`.
