@@ -198,6 +198,121 @@ fn write_block<S: AsRef<str>>(
     }
 }
 
+/// The report's part for a sampled run: the three tables, then for each final result (one
+/// that no other uncertain line uses) its exceedance curve and its tornado chart.
+pub fn report_blocks(
+    summary: &SampleSummary,
+    evaluation: &crate::eval::Evaluation,
+    digits: u32,
+) -> Vec<super::report::Block> {
+    use super::report::{Block, Figure};
+    let mut blocks = vec![
+        Block::Heading(format!(
+            "Uncertainty: {} samples, seed {}",
+            summary.samples, summary.seed
+        )),
+        Block::Prose(format!(
+            "The sheet's distributions were sampled {} times (generator: {}). The values above \
+             are the P50 of the samples; each uncertain line's spread follows, in its unit.",
+            summary.samples, summary.generator
+        )),
+    ];
+    let mut header = vec![
+        "line".to_string(),
+        "name".to_string(),
+        "mean".to_string(),
+        "sd".to_string(),
+    ];
+    header.extend(summary.percentiles.iter().map(|p| percentile_label(*p)));
+    header.push("unit".to_string());
+    blocks.push(Block::Columns {
+        header,
+        rows: summary
+            .lines
+            .iter()
+            .map(|line| {
+                let mut row = vec![
+                    line.line.to_string(),
+                    line.name.clone().unwrap_or_default(),
+                    format_significant(line.mean, digits),
+                    format_significant(line.sd, digits),
+                ];
+                row.extend(
+                    line.percentiles
+                        .iter()
+                        .map(|value| format_significant(*value, digits)),
+                );
+                row.push(if line.unit == "1" {
+                    String::new()
+                } else {
+                    line.unit.clone()
+                });
+                row
+            })
+            .collect(),
+    });
+    if !summary.checks.is_empty() {
+        blocks.push(Block::Columns {
+            header: ["line", "check", "failing samples", "probability of failing"]
+                .map(str::to_string)
+                .to_vec(),
+            rows: summary
+                .checks
+                .iter()
+                .map(|check| {
+                    vec![
+                        check.line.to_string(),
+                        check.text.clone(),
+                        format!("{} of {}", check.failed, check.samples),
+                        probability_text(check),
+                    ]
+                })
+                .collect(),
+        });
+    }
+    let noise = noise_level(summary.samples);
+    // A final result: no other uncertain line's expression names it.
+    let is_final = |name: &str| {
+        !evaluation.lines.iter().any(|line| {
+            line.name.as_deref() != Some(name)
+                && summary
+                    .lines
+                    .iter()
+                    .any(|spread| spread.line == line.number)
+                && line
+                    .expression
+                    .split(|c: char| !(c.is_alphanumeric() || c == '_'))
+                    .any(|word| word == name)
+        })
+    };
+    for result in &summary.sensitivity {
+        if !is_final(&result.name) {
+            continue;
+        }
+        if let Some(spread) = summary.lines.iter().find(|line| line.line == result.line) {
+            match super::spread_chart::exceedance_svg(spread) {
+                Ok(svg) => blocks.push(Block::Figure(Figure {
+                    caption: format!("Probability that {} is exceeded", result.name),
+                    svg: svg.replacen(" xmlns=\"http://www.w3.org/2000/svg\"", "", 1),
+                })),
+                Err(error) => blocks.push(Block::Prose(format!(
+                    "The exceedance chart of {} cannot be drawn: {error}",
+                    result.name
+                ))),
+            }
+        }
+        blocks.push(Block::Figure(Figure {
+            caption: format!(
+                "Inputs that drive {} (rank correlations of {} or more in size)",
+                result.name,
+                format_significant(noise, 2)
+            ),
+            svg: super::spread_chart::tornado_svg(result, noise),
+        }));
+    }
+    blocks
+}
+
 /// `samples` in the JSON of `run --samples N`.
 #[derive(Serialize)]
 pub struct SamplesJson {

@@ -80,6 +80,67 @@ pub(super) fn sample(
     evaluation.samples = Some(Box::new(summary));
 }
 
+/// Without `--samples`, a check that depends on a distribution is decided at the inputs'
+/// medians: its message says so, so that a pass is not read as a pass of every case.
+pub(super) fn note_checks_at_medians(prepared: &Prepared, evaluation: &mut Evaluation) {
+    let main = &prepared.lines[..prepared.main_lines];
+    let mut uncertain: Vec<&str> = prepared
+        .lines
+        .iter()
+        .filter_map(|line| match &line.kind {
+            LineKind::Definition(definition)
+                if matches!(
+                    definition.expression.kind,
+                    crate::syntax::ExpressionKind::Distribution(_)
+                ) =>
+            {
+                Some(definition.name.text.as_str())
+            }
+            _ => None,
+        })
+        .collect();
+    // Names that depend on an uncertain name, to a fixed point (sheets are small).
+    loop {
+        let before = uncertain.len();
+        for line in &prepared.lines {
+            if let LineKind::Definition(definition) = &line.kind {
+                let name = definition.name.text.as_str();
+                if uncertain.contains(&name) {
+                    continue;
+                }
+                let mut depends = false;
+                definition
+                    .expression
+                    .for_each_name(&mut |used, _| depends |= uncertain.contains(&used));
+                if depends {
+                    uncertain.push(name);
+                }
+            }
+        }
+        if uncertain.len() == before {
+            break;
+        }
+    }
+    for (line, outcome) in main.iter().zip(evaluation.lines.iter_mut()) {
+        let (LineKind::Check(check), LineResult::Check(result)) = (&line.kind, &mut outcome.result)
+        else {
+            continue;
+        };
+        let mut depends = false;
+        for side in [&check.left, &check.right] {
+            side.for_each_name(&mut |used, _| depends |= uncertain.contains(&used));
+        }
+        if depends {
+            let note =
+                "decided at the inputs' medians; `--samples N` gives the probability of failing";
+            result.message = Some(match &result.message {
+                Some(message) => format!("{message} ({note})"),
+                None => note.to_string(),
+            });
+        }
+    }
+}
+
 /// The line name of each input (by the start of its expression, or of its `--set` value).
 fn input_names(prepared: &Prepared, inputs: &[UncertainInput]) -> Vec<String> {
     inputs
@@ -206,7 +267,12 @@ fn evaluate_blocks(
             .collect();
         workers
             .into_iter()
-            .flat_map(|worker| worker.join().unwrap_or_default())
+            .flat_map(|worker| {
+                // A panic in a block is a bug: passed on, never a summary of fewer samples.
+                worker
+                    .join()
+                    .unwrap_or_else(|panic| std::panic::resume_unwind(panic))
+            })
             .collect()
     });
     done.sort_by_key(|(block, _)| *block);
@@ -416,7 +482,12 @@ fn in_parallel<T: Sync, R: Send>(
             .collect();
         workers
             .into_iter()
-            .flat_map(|worker| worker.join().unwrap_or_default())
+            .flat_map(|worker| {
+                // A panic in a block is a bug: passed on, never a summary of fewer samples.
+                worker
+                    .join()
+                    .unwrap_or_else(|panic| std::panic::resume_unwind(panic))
+            })
             .collect()
     })
 }

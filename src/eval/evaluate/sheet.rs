@@ -76,10 +76,14 @@ pub fn evaluate_with(
             .diagnostics
             .sort_by_key(|diagnostic| diagnostic.span.start);
     }
-    if let Some(sampling) = &settings.sampling {
-        if !evaluation.has_errors() {
+    match &settings.sampling {
+        Some(sampling) if !evaluation.has_errors() => {
             super::sampled::sample(&prepared, library, settings, sampling, &mut evaluation);
         }
+        None if !evaluation.uncertain.is_empty() => {
+            super::sampled::note_checks_at_medians(&prepared, &mut evaluation);
+        }
+        _ => {}
     }
     evaluation.sources = prepared.sources;
     evaluation
