@@ -387,6 +387,11 @@ pub(super) fn written_unit<'e>(
     match &expression.kind {
         ExpressionKind::Quantity { unit, .. } | ExpressionKind::List { unit, .. } => unit.as_ref(),
         ExpressionKind::Range(range) => written_unit(&range.from, None, scope),
+        // A distribution shows in its first parameter's unit (`normal mean 0.9 m …` in m).
+        ExpressionKind::Distribution(distribution) => distribution
+            .parameters
+            .first()
+            .and_then(|first| written_unit(first, None, scope)),
         ExpressionKind::Call { function, .. } => scope
             .sheet_function(&function.text)
             .flatten()
