@@ -1118,6 +1118,20 @@ mod tests {
                 shape(&solve.lower),
                 shape(&solve.upper)
             ),
+            ExpressionKind::Distribution(distribution) => {
+                let mut parts: Vec<String> = distribution.parameters.iter().map(shape).collect();
+                if let Some([low, high]) = &distribution.bounds {
+                    parts.push(format!("between {} and {}", shape(low), shape(high)));
+                }
+                for correlation in &distribution.correlations {
+                    parts.push(format!(
+                        "rank {} with {}",
+                        shape(&correlation.rank),
+                        correlation.with.text
+                    ));
+                }
+                format!("{:?}({})", distribution.family, parts.join(","))
+            }
             ExpressionKind::Call {
                 function,
                 arguments,
@@ -1171,6 +1185,60 @@ mod tests {
         check("30 %", "30[%]");
         check("f(1 mD, ρ, 2)", "f(1[mD],ρ,2)");
         check("250mD", "250[mD]");
+    }
+
+    /// The value of a named line, as a shape.
+    fn line_value(text: &str) -> String {
+        match parse_line(text, 1, 0).map(|line| line.kind) {
+            Ok(LineKind::Definition(definition)) => shape(&definition.expression),
+            other => panic!("{text}: {other:?}"),
+        }
+    }
+
+    #[test]
+    fn distributions_with_their_parameters_bounds_and_correlations() {
+        for (text, expected) in [
+            ("x = normal mean 0.9 m sd 0.05 m", "Normal(0.9[m],0.05[m])"),
+            ("x = normal mean 0.35 sd 0.05", "Normal(0.35,0.05)"),
+            (
+                "K = lognormal median 1e-9 m/s factor 3",
+                "LogNormalFactor(1e-9[m/s],3)",
+            ),
+            (
+                "K = lognormal geomean 1e-9 m/s sdln 1.1",
+                "LogNormalSdLn(1e-9[m/s],1.1)",
+            ),
+            (
+                "K = lognormal median 2 * k sdlog10 0.5",
+                "LogNormalSdLog10((2*k),0.5)",
+            ),
+            ("n = uniform 0.3 to 0.45", "Uniform(0.3,0.45)"),
+            (
+                "k = loguniform 1 mD to 1 darcy",
+                "LogUniform(1[mD],1[darcy])",
+            ),
+            (
+                "h = triangular 0.1 m to 0.6 m likely 0.3 m",
+                "Triangular(0.1[m],0.6[m],0.3[m])",
+            ),
+            (
+                "n = normal mean 0.35 sd 0.1 between 0 and 1 rank -0.5 with K rank 0.2 with t",
+                "Normal(0.35,0.1,between 0 and 1,rank -0.5 with K,rank 0.2 with t)",
+            ),
+        ] {
+            assert_eq!(line_value(text), expected, "{text}");
+        }
+        // A name that happens to be a family's word is still a name.
+        assert_eq!(line_value("y = normal * 2"), "(normal*2)");
+        assert_eq!(line_value("y = uniform"), "uniform");
+        // A family without its words is a syntax error that names them.
+        let error = parse_line("x = normal mean 1 m", 1, 0).unwrap_err();
+        assert!(error.to_string().contains("`sd`"), "{error}");
+        let error = parse_line("x = lognormal median 1 m 3", 1, 0).unwrap_err();
+        assert!(
+            error.to_string().contains("`factor`, `sdln` or `sdlog10`"),
+            "{error}"
+        );
     }
 
     #[test]
