@@ -84,18 +84,16 @@ pub fn tornado_svg(result: &Sensitivity, noise: f64) -> String {
         let y = top + TORNADO_ROW * row as f64 + 5.0;
         let (from, to) = (x_of(0.0), x_of(*rank));
         let colour = if *rank >= 0.0 { "#c0504d" } else { "#4f81bd" };
+        // The name and the value sit in the left margin, clear of bars that reach -1.
         let _ = write!(
             svg,
-            r#"<rect x="{}" y="{y}" width="{}" height="{}" fill="{colour}"/><text x="{}" y="{}" text-anchor="end">{}</text><text x="{}" y="{}" text-anchor="{}">{rank:+.2}</text>"#,
+            r#"<rect x="{}" y="{y}" width="{}" height="{}" fill="{colour}"/><text x="{}" y="{}" text-anchor="end">{}  {rank:+.2}</text>"#,
             from.min(to),
             (to - from).abs(),
             TORNADO_ROW - 10.0,
-            left - 10.0,
+            left - 12.0,
             y + 17.0,
             escape(name),
-            if *rank >= 0.0 { to + 6.0 } else { to - 6.0 },
-            y + 17.0,
-            if *rank >= 0.0 { "start" } else { "end" },
         );
     }
     if bars.is_empty() {
