@@ -84,15 +84,12 @@ impl<'l> Calculator<'l> {
             let is_distribution = scope.definition(&other.text).is_some_and(|definition| {
                 matches!(definition.expression.kind, ExpressionKind::Distribution(_))
             });
-            if !is_distribution || definition_span(scope, &other.text) == Some(span.start) {
-                let message = if is_distribution {
-                    format!(
-                        "`{}` is this input itself: a correlation is with another input",
-                        other.text
-                    )
-                } else {
-                    format!("`{}` is not a distribution: a rank correlation is between two uncertain inputs", other.text)
-                };
+            // A correlation with the line itself is refused earlier, as a circular definition.
+            if !is_distribution {
+                let message = format!(
+                    "`{}` is not a distribution: a rank correlation is between two uncertain inputs",
+                    other.text
+                );
                 return Err(refuse(message, other.span));
             }
             correlations.push((other.text.clone(), rank.value, correlation.rank.span));
@@ -152,13 +149,6 @@ impl<'l> Calculator<'l> {
             origin: std::sync::Arc::from(""),
         }))
     }
-}
-
-/// The start of the value expression of line `name`.
-fn definition_span(scope: &dyn Scope, name: &str) -> Option<usize> {
-    scope
-        .definition(name)
-        .map(|definition| definition.expression.span.start)
 }
 
 /// The law of a family from its checked parameters; an error names the parameter at fault.
