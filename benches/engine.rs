@@ -450,7 +450,7 @@ fn liner_hand_loop(samples: usize, seed: u64) -> (Vec<Vec<f64>>, [usize; 2]) {
             high - ((1.0 - u) * (high - low) * (high - likely)).sqrt()
         }
     };
-    let mut lines: Vec<Vec<f64>> = vec![Vec::with_capacity(samples); 13];
+    let mut lines: Vec<Vec<f64>> = (0..13).map(|_| Vec::with_capacity(samples)).collect();
     let mut failed = [0usize; 2];
     for block in 0..samples.div_ceil(BLOCK) {
         let len = BLOCK.min(samples - block * BLOCK);
@@ -463,6 +463,7 @@ fn liner_hand_loop(samples: usize, seed: u64) -> (Vec<Vec<f64>>, [usize; 2]) {
                     .collect()
             })
             .collect();
+        #[allow(clippy::needless_range_loop)] // one row across five columns of scores
         for row in 0..len {
             let k_lab = 2e-10 * (3f64.ln() * scores[0][row]).exp();
             let u = kept.0 + (kept.1 - kept.0) * normal_cdf(scores[1][row]);

@@ -22,7 +22,7 @@ pub struct SheetJson<'e> {
     /// With `--samples N`: the spread of each uncertain line, each check's probability of
     /// failing, and the inputs that drive each result.
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub samples: Option<crate::render::spread::SamplesJson>,
+    pub samples: Option<Box<crate::render::spread::SamplesJson>>,
 }
 
 #[derive(Serialize)]
@@ -249,7 +249,7 @@ pub fn sheet_json<'e>(
         samples: evaluation
             .samples
             .as_deref()
-            .map(crate::render::spread::samples_json),
+            .map(|summary| Box::new(crate::render::spread::samples_json(summary))),
         formulations: evaluation
             .provenance
             .formulations()

@@ -52,7 +52,7 @@ impl<'l> Calculator<'l> {
                     same_kind(&central, bound, "a bound", at)
                         .map_err(|(message, at)| refuse(message, at))?;
                 }
-                if !(low_value.value < high_value.value) {
+                if low_value.value >= high_value.value || low_value.value.is_nan() {
                     let message = "the lower bound must be below the upper one".to_string();
                     return Err(refuse(message, low.span.to(high.span)));
                 }
@@ -75,7 +75,8 @@ impl<'l> Calculator<'l> {
         let mut correlations = Vec::with_capacity(distribution.correlations.len());
         for correlation in &distribution.correlations {
             let rank = self.scalar(&correlation.rank, "a rank correlation", scope)?;
-            if !rank.dimension.is_dimensionless() || !(rank.value.abs() < 1.0) {
+            if !rank.dimension.is_dimensionless() || rank.value.abs() >= 1.0 || rank.value.is_nan()
+            {
                 let message =
                     "a rank correlation is a plain number strictly between -1 and 1".to_string();
                 return Err(refuse(message, correlation.rank.span));
@@ -221,7 +222,7 @@ fn law_of(family: Family, values: &[Quantity], spans: &[Span]) -> Result<Law, (S
                 same_kind(&central, value, "every value", *span)?;
             }
             let (low, high) = (central.value, values[1].value);
-            if !(low < high) {
+            if low >= high || low.is_nan() {
                 return Err((
                     format!("`{name}` goes from the lower value to the higher: the first must be below the second"),
                     central_span.to(spans[1]),

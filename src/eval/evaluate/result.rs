@@ -29,8 +29,6 @@ pub struct Evaluation {
     /// Named values defined in included sheets, `(name, value)`, so the working of a line that
     /// uses them can show their values.
     pub included_values: Vec<(String, Shown)>,
-    /// The distributions the sheet's inputs follow (main sheet and includes), as evaluated.
-    pub uncertain: Vec<crate::eval::uncertainty::UncertainInput>,
     /// With `run --samples N`: the spread of every uncertain line, the failure probability of
     /// each check and the ranking of the inputs. The uncertain lines' values are then their
     /// sampled P50.

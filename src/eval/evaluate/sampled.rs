@@ -42,9 +42,9 @@ pub(super) fn sample(
     library: &dyn Library,
     settings: &Settings,
     sampling: &Sampling,
+    mut inputs: Vec<UncertainInput>,
     evaluation: &mut Evaluation,
 ) {
-    let mut inputs = evaluation.uncertain.clone();
     if inputs.is_empty() || sampling.samples == 0 {
         let message = if sampling.samples == 0 {
             "`--samples` must be at least 1".to_string()
@@ -224,7 +224,7 @@ fn evaluate_blocks(
                 .map(|(input, scores)| (input.key, scores.clone()))
                 .collect(),
         };
-        let evaluation =
+        let (evaluation, _) =
             evaluate_prepared(prepared, library, settings, Some(Arc::new(block_scores)));
         let errors: Vec<Diagnostic> = evaluation
             .diagnostics

@@ -63,7 +63,7 @@ pub fn evaluate_with(
     settings: &Settings,
 ) -> Evaluation {
     let prepared = prepare(label, source, loader, settings);
-    let mut evaluation = evaluate_prepared(&prepared, library, settings, None);
+    let (mut evaluation, uncertain) = evaluate_prepared(&prepared, library, settings, None);
     // Warnings only on a sheet without errors: an error can hide a use or a value.
     if !evaluation.has_errors() {
         let warnings = crate::eval::warnings::sheet_warnings(
@@ -78,9 +78,17 @@ pub fn evaluate_with(
     }
     match &settings.sampling {
         Some(sampling) if !evaluation.has_errors() => {
-            super::sampled::sample(&prepared, library, settings, sampling, &mut evaluation);
+            let inputs = uncertain;
+            super::sampled::sample(
+                &prepared,
+                library,
+                settings,
+                sampling,
+                inputs,
+                &mut evaluation,
+            );
         }
-        None if !evaluation.uncertain.is_empty() => {
+        None if !uncertain.is_empty() => {
             super::sampled::note_checks_at_medians(&prepared, &mut evaluation);
         }
         _ => {}
@@ -151,14 +159,15 @@ pub(super) fn prepare(
     }
 }
 
-/// One evaluation of a prepared sheet; with `block`, its distributions give that block's
-/// samples. The evaluation's `sources` are left empty for the caller to fill.
+/// One evaluation of a prepared sheet, with the distributions it met; with `block`, its
+/// distributions give that block's samples. The evaluation's `sources` are left empty for the
+/// caller to fill.
 pub(super) fn evaluate_prepared(
     prepared: &Prepared,
     library: &dyn Library,
     settings: &Settings,
     block: Option<std::sync::Arc<crate::eval::uncertainty::BlockScores>>,
-) -> Evaluation {
+) -> (Evaluation, Vec<crate::eval::uncertainty::UncertainInput>) {
     let mut evaluator = Evaluator::new(&prepared.sources, &prepared.lines, library);
     evaluator.calculator.max_rows = settings.max_rows;
     evaluator.calculator.row_budget = crate::eval::columns::RowBudget::new(settings.max_total_rows);
@@ -173,7 +182,8 @@ pub(super) fn evaluate_prepared(
     }
     evaluator.overrides = &prepared.overrides;
     evaluator.run();
-    evaluator.finish(prepared.main_lines)
+    let uncertain = std::mem::take(&mut evaluator.calculator.uncertain);
+    (evaluator.finish(prepared.main_lines), uncertain)
 }
 /// The state of a definition during evaluation.
 #[derive(Debug, Clone)]
@@ -777,7 +787,6 @@ impl<'a> Evaluator<'a> {
             calls: self.calculator.calls,
             fields,
             included_values,
-            uncertain: self.calculator.uncertain,
             samples: None,
         }
     }

@@ -107,7 +107,7 @@ impl Spread {
             Some((low, high)) => (law.cdf(low), law.cdf(high)),
         };
         let share = kept.1 - kept.0;
-        if !(share >= SMALLEST_KEPT_SHARE) {
+        if share < SMALLEST_KEPT_SHARE || share.is_nan() {
             return Err(BoundsError::NothingInside { share });
         }
         Ok(Spread { law, bounds, kept })
