@@ -673,7 +673,10 @@ fn liner_leakage_uncertainty_pins() {
     let json = run_json(&path);
     let water = |celsius: f64| {
         let pressure_mpa = 0.101325;
-        (pt(pressure_mpa, celsius, (OD, 1)), pt(pressure_mpa, celsius, (ODV, 1)))
+        (
+            pt(pressure_mpa, celsius, (OD, 1)),
+            pt(pressure_mpa, celsius, (ODV, 1)),
+        )
     };
     let ((rho_lab, mu_lab), (rho_site, mu_site)) = (water(20.0), water(11.0));
     let k_site = 2e-10 * (rho_site / rho_lab) * (mu_lab / mu_site);

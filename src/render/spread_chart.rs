@@ -141,7 +141,8 @@ mod tests {
         assert!(parsed.is_ok(), "{svg}");
         // The background and two bars.
         assert_eq!(svg.matches("<rect").count(), 3, "{svg}");
-        assert!(svg.find(">K<") < svg.find(">n<"));
-        assert!(!svg.contains(">t<") && svg.contains("Q&lt;"));
+        let (k, n) = (svg.find(">K  +0.90<"), svg.find(">n  -0.30<"));
+        assert!(k.is_some() && n.is_some() && k < n, "{svg}");
+        assert!(!svg.contains(">t  ") && svg.contains("Q&lt;"), "{svg}");
     }
 }

@@ -62,8 +62,10 @@ pub fn evaluate_with(
     loader: &mut dyn IncludeLoader,
     settings: &Settings,
 ) -> Evaluation {
-    let prepared = prepare(label, source, loader, settings);
+    let mut prepared = prepare(label, source, loader, settings);
     let (mut evaluation, uncertain) = evaluate_prepared(&prepared, library, settings, None);
+    // The evaluation holds the sources (warnings quote them); sampling borrows them back.
+    std::mem::swap(&mut evaluation.sources, &mut prepared.sources);
     // Warnings only on a sheet without errors: an error can hide a use or a value.
     if !evaluation.has_errors() {
         let warnings = crate::eval::warnings::sheet_warnings(
@@ -78,22 +80,22 @@ pub fn evaluate_with(
     }
     match &settings.sampling {
         Some(sampling) if !evaluation.has_errors() => {
-            let inputs = uncertain;
+            std::mem::swap(&mut evaluation.sources, &mut prepared.sources);
             super::sampled::sample(
                 &prepared,
                 library,
                 settings,
                 sampling,
-                inputs,
+                uncertain,
                 &mut evaluation,
             );
+            std::mem::swap(&mut evaluation.sources, &mut prepared.sources);
         }
         None if !uncertain.is_empty() => {
             super::sampled::note_checks_at_medians(&prepared, &mut evaluation);
         }
         _ => {}
     }
-    evaluation.sources = prepared.sources;
     evaluation
 }
 
