@@ -164,6 +164,7 @@ const BAD_INPUTS: &[(&str, i32, &str)] = &[
     ("x = uniform 0 to 1 between 2 and 3", 3, "too little to sample"),
     ("x = uniform 0 to 1 rank 0.5 with x", 3, "circular definition"),
     ("T = normal mean 20 degC sd 1 degC", 3, "difference"),
+    ("K = lognormal(1e-9 m/s, 3)", 3, "write it as `lognormal median 1e-9 m/s factor 3`"),
     ("$run|doubling.fxs|--samples|100", 2, "no distributions"),
     ("$run|doubling.fxs|--seed|2", 2, "--samples"),
     ("$run|doubling.fxs|--samples|0", 2, "0"),

@@ -20,7 +20,7 @@ pub fn write_summary(
     writeln!(out)?;
     writeln!(
         out,
-        "Sampled {} times, seed {} (generator: {}):",
+        "Sampled {} times, seed {}.\nGenerator: {}.",
         summary.samples, summary.seed, summary.generator
     )?;
     let mut header = vec![

@@ -483,6 +483,9 @@ impl Builder {
             };
         }
         if rule == Rule::distribution {
+            // The rule's last repetition takes the spaces before a comment: not part of it.
+            let trimmed = pair.as_str().trim_end().len();
+            let span = Span::new(span.start, span.start + trimmed);
             let kind = ExpressionKind::Distribution(Box::new(self.distribution(pair)?));
             return Ok(Expression { kind, span });
         }

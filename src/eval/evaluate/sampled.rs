@@ -360,7 +360,7 @@ fn summarise(
         }
         // The table shows the sampled P50, and says so.
         line.result = LineResult::Value(Shown::Scalar(shape.shown(summary.median_si)));
-        line.note = Some(format!("P50 of {samples} samples; the spread is below"));
+        line.note = Some(format!("P50 of {samples} samples"));
         lines.push(summary.spread);
     }
     let checks = join_checks(evaluation, outcomes, samples);

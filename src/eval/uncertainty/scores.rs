@@ -12,7 +12,8 @@ use std::sync::Arc;
 pub const BLOCK: usize = 8192;
 
 /// The generator, as stated in the output.
-pub const GENERATOR: &str = "ChaCha8 (rand_chacha), one stream per block of 8192 samples; normal scores by rand_distr's StandardNormal";
+pub const GENERATOR: &str =
+    "ChaCha8 (rand_chacha 0.9), one stream per block of 8192 samples; StandardNormal (rand_distr 0.5)";
 
 /// The lower Cholesky factor of the correlation of the inputs' normal scores; `None` when
 /// no two inputs are correlated.
