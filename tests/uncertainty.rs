@@ -419,3 +419,39 @@ fn sampling_refuses_what_it_cannot_do() {
         );
     }
 }
+
+/// `report --samples N` adds the summary, and for each final result its exceedance curve and
+/// tornado chart (as SVG read back here); Markdown carries the tables.
+#[test]
+fn a_sampled_report_carries_the_summary_and_its_charts() {
+    let folder = tempfile::tempdir().unwrap();
+    let sheet = folder.path().join("liner.fxs");
+    std::fs::write(
+        &sheet,
+        "K = lognormal median 1e-9 m/s factor 3\nh = uniform 0.1 m to 0.5 m\nq [mm/yr] = liner_leakage(K, h, 0.9 m)\ncheck q <= 60 mm/yr\n",
+    )
+    .unwrap();
+    let html = folder.path().join("r.html");
+    let arguments = ["report", "--samples", "5000", "-o"];
+    let (code, _, stderr) = crate::util::outcome(
+        crate::util::fluxsheet().args(arguments).arg(&html).arg(&sheet),
+    );
+    assert_eq!(code, 1, "{stderr}"); // some samples fail the check
+    let page = std::fs::read_to_string(&html).unwrap();
+    assert!(page.contains("Uncertainty: 5000 samples, seed 1"), "{page}");
+    assert!(page.contains("probability of failing"));
+    assert!(page.contains("Exceedance of q") && page.contains("What drives q"));
+    let figures = page.matches("<svg").count();
+    assert_eq!(figures, 2, "one exceedance curve and one tornado for the one final result");
+    for svg in page.split("<svg").skip(1) {
+        let end = svg.find("</svg>").unwrap();
+        let document = format!("<svg xmlns=\"http://www.w3.org/2000/svg\"{}</svg>", &svg[..end]);
+        assert!(roxmltree::Document::parse(&document).is_ok(), "{document}");
+    }
+    let markdown = folder.path().join("r.md");
+    let (_, _, stderr) = crate::util::outcome(
+        crate::util::fluxsheet().args(arguments).arg(&markdown).arg(&sheet),
+    );
+    let text = std::fs::read_to_string(&markdown).unwrap_or_else(|_| panic!("{stderr}"));
+    assert!(text.contains("| line | name | mean | sd | P5 | P50 | P95 | unit |"), "{text}");
+}
