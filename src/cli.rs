@@ -106,7 +106,7 @@ pub struct SampleArgs {
     /// Evaluate the sheet N times with its distributions sampled, and summarise each uncertain
     /// line (mean, sd, percentiles), each check (probability of failing) and each result (which
     /// inputs drive it)
-    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u64).range(1..=100_000_000))]
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u64).range(2..=100_000_000))]
     pub samples: Option<u64>,
     /// The generator's seed: the same seed gives the same samples on any machine
     #[arg(long, value_name = "S", default_value_t = 1, requires = "samples")]

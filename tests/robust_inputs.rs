@@ -168,6 +168,7 @@ const BAD_INPUTS: &[(&str, i32, &str)] = &[
     ("$run|doubling.fxs|--samples|100", 2, "no distributions"),
     ("$run|doubling.fxs|--seed|2", 2, "--samples"),
     ("$run|doubling.fxs|--samples|0", 2, "0"),
+    ("$run|doubling.fxs|--set|k=uniform 1 m to 2 m|--samples|2000|--max-total-rows|1000", 3, "--max-total-rows"),
     ("$run|doubling.fxs|--set|k=uniform 1 m to 2 m|--samples|10|--percentiles|101", 2, "percentile"),
     ("$run|list.fxs|--set|y=uniform 1 m to 2 m|--samples|10", 3, "cannot be sampled"),
     // session

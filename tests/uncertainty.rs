@@ -434,7 +434,10 @@ fn a_sampled_report_carries_the_summary_and_its_charts() {
     let html = folder.path().join("r.html");
     let arguments = ["report", "--samples", "5000", "-o"];
     let (code, _, stderr) = crate::util::outcome(
-        crate::util::fluxsheet().args(arguments).arg(&html).arg(&sheet),
+        crate::util::fluxsheet()
+            .args(arguments)
+            .arg(&html)
+            .arg(&sheet),
     );
     assert_eq!(code, 1, "{stderr}"); // some samples fail the check
     let page = std::fs::read_to_string(&html).unwrap();
@@ -442,16 +445,28 @@ fn a_sampled_report_carries_the_summary_and_its_charts() {
     assert!(page.contains("probability of failing"));
     assert!(page.contains("Exceedance of q") && page.contains("What drives q"));
     let figures = page.matches("<svg").count();
-    assert_eq!(figures, 2, "one exceedance curve and one tornado for the one final result");
+    assert_eq!(
+        figures, 2,
+        "one exceedance curve and one tornado for the one final result"
+    );
     for svg in page.split("<svg").skip(1) {
         let end = svg.find("</svg>").unwrap();
-        let document = format!("<svg xmlns=\"http://www.w3.org/2000/svg\"{}</svg>", &svg[..end]);
+        let document = format!(
+            "<svg xmlns=\"http://www.w3.org/2000/svg\"{}</svg>",
+            &svg[..end]
+        );
         assert!(roxmltree::Document::parse(&document).is_ok(), "{document}");
     }
     let markdown = folder.path().join("r.md");
     let (_, _, stderr) = crate::util::outcome(
-        crate::util::fluxsheet().args(arguments).arg(&markdown).arg(&sheet),
+        crate::util::fluxsheet()
+            .args(arguments)
+            .arg(&markdown)
+            .arg(&sheet),
     );
     let text = std::fs::read_to_string(&markdown).unwrap_or_else(|_| panic!("{stderr}"));
-    assert!(text.contains("| line | name | mean | sd | P5 | P50 | P95 | unit |"), "{text}");
+    assert!(
+        text.contains("| line | name | mean | sd | P5 | P50 | P95 | unit |"),
+        "{text}"
+    );
 }

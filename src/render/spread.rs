@@ -99,7 +99,7 @@ pub fn write_summary(
                     })
                     .collect();
                 let ranking = if ranking.is_empty() {
-                    "(none: the result follows no input)".to_string()
+                    "(none beyond the sampling noise)".to_string()
                 } else {
                     ranking.join(", ")
                 };

@@ -56,6 +56,23 @@ pub(super) fn sample(
         evaluation.diagnostics.push(diagnostic);
         return;
     }
+    // Every uncertain line keeps all its samples: a bound on memory like any column's.
+    let value_lines = evaluation
+        .lines
+        .iter()
+        .filter(|line| matches!(line.result, LineResult::Value(_)))
+        .count();
+    let held = sampling.samples.saturating_mul(value_lines.max(1));
+    if held > settings.max_total_rows {
+        let message = format!(
+            "`--samples {}` over the sheet's {value_lines} lines would hold {held} sample values, over the limit of {} (raise it with `--max-total-rows`)",
+            sampling.samples, settings.max_total_rows
+        );
+        evaluation
+            .diagnostics
+            .push(Diagnostic::error(message, Span::new(0, 0)));
+        return;
+    }
     inputs.sort_by_key(|input| input.key);
     let names = input_names(prepared, &inputs);
     let mixing = match mixing(&inputs, &names) {
