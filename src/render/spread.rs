@@ -55,7 +55,8 @@ pub fn write_summary(
             row
         })
         .collect();
-    write_block(out, format, &header, &rows, 2)?;
+    let numbers = 2..header.len() - 1;
+    write_block(out, format, &header, &rows, numbers)?;
     if !summary.checks.is_empty() {
         writeln!(out)?;
         writeln!(out, "Checks over the samples:")?;
@@ -72,7 +73,7 @@ pub fn write_summary(
                 ]
             })
             .collect();
-        write_block(out, format, &header, &rows, 2)?;
+        write_block(out, format, &header, &rows, 2..4)?;
     }
     if !summary.sensitivity.is_empty() {
         writeln!(out)?;
@@ -106,7 +107,7 @@ pub fn write_summary(
                 vec![result.line.to_string(), result.name.clone(), ranking]
             })
             .collect();
-        write_block(out, format, &header, &rows, header.len())?;
+        write_block(out, format, &header, &rows, 0..0)?;
     }
     Ok(())
 }
@@ -137,13 +138,13 @@ pub fn signed(rank: f64) -> String {
     format!("{rank:+.2}")
 }
 
-/// A table in the output's format; the columns from `first_number` on are right-aligned.
+/// A table in the output's format; the `numbers` columns are right-aligned.
 fn write_block<S: AsRef<str>>(
     out: &mut dyn Write,
     format: Format,
     header: &[S],
     rows: &[Vec<String>],
-    first_number: usize,
+    numbers: std::ops::Range<usize>,
 ) -> io::Result<()> {
     match format {
         Format::Csv => {
@@ -159,7 +160,7 @@ fn write_block<S: AsRef<str>>(
             writeln!(out, "| {} |", cells.join(" | "))?;
             let rule: Vec<&str> = (0..cells.len())
                 .map(|column| {
-                    if column >= first_number && column + 1 < cells.len() || column == 0 {
+                    if numbers.contains(&column) || column == 0 {
                         "---:"
                     } else {
                         "---"
@@ -177,7 +178,7 @@ fn write_block<S: AsRef<str>>(
         Format::Table | Format::Json => {
             let aligns: Vec<Align> = (0..header.len())
                 .map(|column| {
-                    if column >= first_number {
+                    if numbers.contains(&column) {
                         Align::Right
                     } else {
                         Align::Left
