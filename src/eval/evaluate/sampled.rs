@@ -403,11 +403,16 @@ fn summarise_line(
     names: &[String],
     input_ranks: &[Vec<f64>],
 ) -> LineResultSummary {
-    let (line_ranks, mut sorted) = ranks(&values);
-    drop(values);
     let is_input = line.name.as_ref().is_some_and(|name| names.contains(name));
     let mut ranking: Vec<(String, Option<f64>)> = Vec::new();
-    if !is_input {
+    let mut sorted = if is_input {
+        // An input's ranks come from its scores; its values need only sorting.
+        let mut values = values;
+        values.sort_unstable_by(f64::total_cmp);
+        values
+    } else {
+        let (line_ranks, sorted) = ranks(&values);
+        drop(values);
         ranking = names
             .iter()
             .zip(input_ranks)
@@ -417,8 +422,8 @@ fn summarise_line(
             let size = |value: &Option<f64>| value.map_or(-1.0, f64::abs);
             size(&b.1).total_cmp(&size(&a.1))
         });
-    }
-    drop(line_ranks);
+        sorted
+    };
     let median_si = percentile(&sorted, 50.0);
     // Display units are increasing functions of SI, so the sorted order holds.
     for value in sorted.iter_mut() {
