@@ -470,3 +470,52 @@ fn a_sampled_report_carries_the_summary_and_its_charts() {
         "{text}"
     );
 }
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig { cases: 300, ..proptest::prelude::ProptestConfig::default() })]
+
+    /// Distribution lines with any parameters (signs, zeros, huge and tiny numbers, units that
+    /// do not match, bounds, correlations), sampled: a summary or diagnostics, never a panic,
+    /// and every summary number finite.
+    #[test]
+    fn sampled_distributions_summarise_or_diagnose(
+        family in 0usize..6,
+        a in proptest::prop_oneof![proptest::prelude::Just(0.0), -1e3..1e3f64, proptest::prelude::Just(1e300), proptest::prelude::Just(1e-300)],
+        b in proptest::prop_oneof![proptest::prelude::Just(0.0), -1e3..1e3f64, proptest::prelude::Just(1e300)],
+        c in -1e3..1e3f64,
+        unit in proptest::sample::select(vec!["m", "s", "degC", "K", "", "mD"]),
+        bounded in proptest::bool::ANY,
+        rank in -1.5..1.5f64,
+    ) {
+        let with_unit = |value: f64| format!("{value:e} {unit}").trim().to_string();
+        let (a, b, c) = (with_unit(a), with_unit(b), with_unit(c));
+        let value = match family {
+            0 => format!("normal mean {a} sd {b}"),
+            1 => format!("lognormal median {a} factor {}", c.split(' ').next().unwrap_or("2")),
+            2 => format!("uniform {a} to {b}"),
+            3 => format!("loguniform {a} to {b}"),
+            4 => format!("triangular {a} to {b} likely {c}"),
+            _ => format!("lognormal median {a} sdlog10 0.5"),
+        };
+        let bounds = if bounded { format!(" between {c} and {b}") } else { String::new() };
+        let sheet = format!("x = {value}{bounds}\ny = uniform 0 to 1 rank {rank} with x\nz = x * y\ncheck z <= 1 {unit}\n");
+        let mut sampling = fluxsheet::eval::uncertainty::Sampling::new(300, 4);
+        sampling.threads = 2;
+        let settings = fluxsheet::eval::Settings { sampling: Some(sampling), ..fluxsheet::eval::Settings::default() };
+        let evaluation = fluxsheet::eval::evaluate_with(
+            "<prop>",
+            &sheet,
+            fluxsheet::library::Builtins::standard(),
+            &mut fluxsheet::eval::NoIncludes,
+            &settings,
+        );
+        if let Some(summary) = &evaluation.samples {
+            for line in &summary.lines {
+                proptest::prop_assert!(line.mean.is_finite() && line.sd.is_finite(), "{sheet}: {} {}", line.mean, line.sd);
+                proptest::prop_assert!(line.percentiles.iter().all(|p| p.is_finite()), "{sheet}");
+            }
+        } else {
+            proptest::prop_assert!(evaluation.has_errors(), "{sheet}: neither summary nor error");
+        }
+    }
+}

@@ -1,18 +1,27 @@
 //! Summary statistics of samples: mean, standard deviation, percentiles and Spearman's rank
 //! correlation, on plain `f64`.
 
-/// The mean and the sample standard deviation (n − 1), in two passes for accuracy.
+/// The mean and the sample standard deviation (n − 1), in two passes for accuracy, on values
+/// scaled by the largest magnitude so that neither the sum nor the squares overflow.
 pub fn mean_and_sd(values: &[f64]) -> (f64, f64) {
     let count = values.len() as f64;
     if values.is_empty() {
         return (f64::NAN, f64::NAN);
     }
-    let mean = values.iter().sum::<f64>() / count;
+    let largest = values
+        .iter()
+        .fold(0.0f64, |largest, x| largest.max(x.abs()));
+    let scale = if largest > 0.0 && largest.is_finite() {
+        largest
+    } else {
+        1.0
+    };
+    let mean = values.iter().map(|x| x / scale).sum::<f64>() / count;
     if values.len() < 2 {
-        return (mean, 0.0);
+        return (mean * scale, 0.0);
     }
-    let squares: f64 = values.iter().map(|x| (x - mean) * (x - mean)).sum();
-    (mean, (squares / (count - 1.0)).sqrt())
+    let squares: f64 = values.iter().map(|x| (x / scale - mean).powi(2)).sum();
+    (mean * scale, (squares / (count - 1.0)).sqrt() * scale)
 }
 
 /// The `p`-th percentile (0 to 100) of sorted values, linear between the closest ranks:
@@ -25,7 +34,12 @@ pub fn percentile(sorted: &[f64], p: f64) -> f64 {
     let h = last as f64 * (p / 100.0).clamp(0.0, 1.0);
     let below = h.floor() as usize;
     let above = (below + 1).min(last);
-    sorted[below] + (h - below as f64) * (sorted[above] - sorted[below])
+    // Weighted, not `a + t (b − a)`: the difference of two large values could overflow.
+    let fraction = h - below as f64;
+    if fraction == 0.0 {
+        return sorted[below];
+    }
+    sorted[below] * (1.0 - fraction) + sorted[above] * fraction
 }
 
 /// Each value's rank (1-based), ties sharing their mean rank, and the values sorted.
@@ -82,6 +96,17 @@ mod tests {
         assert!((percentile(&values, 10.0) - 1.4).abs() < 1e-15);
         assert_eq!(percentile(&values, 100.0), 5.0);
         assert_eq!(percentile(&values, 0.0), 1.0);
+    }
+
+    /// Values near the largest double: no sum or square overflows.
+    #[test]
+    fn huge_values_keep_a_finite_spread() {
+        let values = [1e308, -1e308, 5e307, 1.7e308];
+        let (mean, sd) = mean_and_sd(&values);
+        assert!(mean.is_finite() && sd.is_finite(), "{mean} {sd}");
+        assert!((mean - 0.3e308).abs() < 1e293, "{mean}");
+        let sorted = [-1.7e308, 1.7e308];
+        assert_eq!(percentile(&sorted, 50.0), 0.0);
     }
 
     #[test]
