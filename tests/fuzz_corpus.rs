@@ -53,7 +53,6 @@ fn session_corpus_enters_every_line() {
 /// The fuzzing dictionary offers every built-in by name, so that runs reach every relation.
 #[test]
 fn the_dictionary_names_every_builtin() {
-    use fluxsheet::eval::Library;
     let dictionary =
         std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/fuzz/fluxsheet.dict"))
             .unwrap();
