@@ -37,7 +37,6 @@ pub mod transport;
 pub mod water;
 pub mod wells;
 
-use crate::eval::function::RowKernel;
 use crate::eval::{
     CallError, Constant, Formulation, Function, Library, Provenance, Quantity, Value,
 };
@@ -51,9 +50,6 @@ pub type Body = fn(&[Quantity], &mut Provenance) -> Result<Quantity, CallError>;
 /// call to the row-by-row body (`min(a, b)` of two values, say).
 pub type ColumnBody = fn(&[Value], &mut Provenance) -> Option<Result<Value, CallError>>;
 
-/// Builds the row kernel of a function for arguments shaped like the first row.
-pub type KernelMaker = fn(&[Quantity]) -> Option<RowKernel<'static>>;
-
 /// A built-in polymorphic in dimension (`sqrt`, `min`, an aggregate): the escape hatch for what
 /// a `Relation`, with one dimension per parameter, cannot say. Its body checks its arguments.
 pub struct Builtin {
@@ -63,7 +59,6 @@ pub struct Builtin {
     pub body: Body,
     /// Set for functions of whole columns; `body` then serves scalar calls only.
     pub column_body: Option<ColumnBody>,
-    pub kernel: Option<KernelMaker>,
     /// Takes absolute temperatures from offset scales (see `Function::takes_absolute_temperature`).
     pub takes_temperature: bool,
 }
@@ -76,7 +71,6 @@ impl Builtin {
             formulations: &[],
             body,
             column_body: None,
-            kernel: None,
             takes_temperature: false,
         }
     }
@@ -91,12 +85,6 @@ impl Builtin {
         let mut builtin = Builtin::new(signature, summary, scalar_body);
         builtin.column_body = Some(column_body);
         builtin
-    }
-
-    /// Adds a fast path for the rows of a column after the first.
-    pub const fn with_kernel(mut self, kernel: KernelMaker) -> Builtin {
-        self.kernel = Some(kernel);
-        self
     }
 
     /// Accepts absolute temperatures such as `20 degC` (a property, a mean, a lookup).
@@ -139,10 +127,6 @@ impl Function for Builtin {
     ) -> Option<Result<Value, CallError>> {
         self.column_body
             .and_then(|body| body(arguments, provenance))
-    }
-
-    fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
-        self.kernel.and_then(|make| make(first_row))
     }
 
     fn takes_absolute_temperature(&self) -> bool {
