@@ -20,6 +20,7 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
+mod in_order;
 mod output_file;
 mod plots;
 mod properties;

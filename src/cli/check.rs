@@ -271,10 +271,9 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
     let targets = targets(&arguments.paths);
     let json = options.format == Format::Json;
     let color = !json && io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
-    let mut reports = Vec::with_capacity(targets.len());
-    for target in &targets {
+    let check_one = |target: &Target| {
         let read = read_target(target, &arguments.limits.read_limits());
-        let report = match read {
+        match read {
             Err(message) => SheetReport {
                 label: target.label.clone(),
                 evaluation: None,
@@ -352,21 +351,33 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     code,
                 }
             }
-        };
-        if !json {
+        }
+    };
+    // Each sheet's report is printed (or turned into its JSON) as soon as the sheets before
+    // it are done, then dropped: only its counts stay.
+    let mut summaries = Vec::with_capacity(targets.len());
+    let mut sheets_json = Vec::new();
+    super::in_order::map_in_order(&targets, check_one, |report: SheetReport| {
+        if json {
+            sheets_json.push(sheet_json(&report));
+        } else {
             write_text(out, &report, options, color, tolerance)?;
         }
-        reports.push(report);
-    }
-    let worst = reports
+        summaries.push(Summary {
+            code: report.code,
+            counts: report.counts(),
+        });
+        Ok(())
+    })?;
+    let worst = summaries
         .iter()
-        .map(|report| report.code)
+        .map(|summary| summary.code)
         .max()
         .unwrap_or(exit::OK);
-    let total = Total::of(&reports);
+    let total = Total::of(&summaries);
     if json {
         let document = CheckDocument {
-            sheets: reports.iter().map(sheet_json).collect(),
+            sheets: sheets_json,
             total,
             exit_code: worst,
         };
@@ -379,6 +390,12 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
         writeln!(out, "{}", total.line(earlier.is_some()))?;
     }
     Ok(worst)
+}
+
+/// What stays of a sheet's report once it is printed.
+struct Summary {
+    code: u8,
+    counts: Counts,
 }
 
 fn write_text(
@@ -555,18 +572,18 @@ struct Total {
 }
 
 impl Total {
-    fn of(reports: &[SheetReport]) -> Total {
+    fn of(summaries: &[Summary]) -> Total {
         let mut total = Total {
-            sheets: reports.len(),
+            sheets: summaries.len(),
             ..Total::default()
         };
-        for report in reports {
-            match report.code {
+        for summary in summaries {
+            match summary.code {
                 exit::OK => total.ok += 1,
                 exit::CHECK_FAILED => total.failed += 1,
                 _ => total.with_errors += 1,
             }
-            let counts = report.counts();
+            let counts = summary.counts;
             total.errors += counts.errors;
             total.warnings += counts.warnings;
             total.failed_checks += counts.checks - counts.passed;
