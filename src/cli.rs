@@ -629,7 +629,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
     let rows: Vec<Vec<String>> = catalog_entries()
         .iter()
         .filter(|entry| match (dimension_filter, &text_filter) {
-            (Some(dimension), _) => entry.unit.dimension == dimension,
+            (Some(dimension), _) => entry.unit().dimension == dimension,
             (None, Some(text)) => {
                 entry.definition.name.to_lowercase().contains(text)
                     || entry
@@ -641,12 +641,12 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
             (None, None) => true,
         })
         .map(|entry| {
-            let dimension = entry.unit.dimension;
+            let dimension = entry.unit().dimension;
             let dimension_text = match dimension.quantity_name() {
                 Some(name) => format!("{name} ({dimension})"),
                 None => dimension.to_string(),
             };
-            let mut factor = entry.unit.factor.describe();
+            let mut factor = entry.unit().factor.describe();
             if let Some(offset) = entry.definition.offset.filter(|offset| *offset != "0") {
                 factor = format!("(x + {offset}) * {factor}");
             }

@@ -31,7 +31,7 @@ use crate::syntax::{
     Expression, ExpressionKind, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
 use crate::units::Dimension;
-use std::collections::{HashMap, HashSet};
+use rustc_hash::{FxHashMap as HashMap, FxHashSet as HashSet};
 
 /// Porosity is a fraction of the bulk volume (common practice).
 pub const PLAUSIBLE_POROSITY: (f64, f64) = (0.0, 1.0);
@@ -115,7 +115,7 @@ pub fn sheet_warnings(
 }
 
 fn unused_lines(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec<Diagnostic>) {
-    let mut used: HashSet<&str> = HashSet::new();
+    let mut used: HashSet<&str> = HashSet::default();
     for line in lines {
         if let LineKind::Plot(plot) = &line.kind {
             for name in plot.series.iter().chain([&plot.against]) {
@@ -398,7 +398,7 @@ fn angles_in_radians(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec
         })
         .collect();
     let full_turn = std::f64::consts::TAU;
-    let mut seen: HashSet<Span> = HashSet::new();
+    let mut seen: HashSet<Span> = HashSet::default();
     for expression in lines.iter().flat_map(Line::expressions) {
         expression.for_each_subexpression(&mut |node| {
             let ExpressionKind::Call {
@@ -412,7 +412,7 @@ fn angles_in_radians(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec
                 return;
             };
             if !TRIGONOMETRY.contains(&function.text.as_str())
-                || writes_angle_unit(argument, &definitions, &mut HashSet::new())
+                || writes_angle_unit(argument, &definitions, &mut HashSet::default())
             {
                 return;
             }

@@ -40,7 +40,7 @@ pub mod wells;
 use crate::eval::{
     CallError, Constant, Formulation, Function, Library, Provenance, Quantity, Value,
 };
-use std::collections::HashMap;
+use rustc_hash::FxHashMap;
 use std::sync::OnceLock;
 
 /// A function body: arguments in SI with dimensions, the provenance to record into.
@@ -166,8 +166,8 @@ fn all_builtins() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
 
 /// The standard library handed to the evaluator.
 pub struct Builtins {
-    functions: HashMap<&'static str, &'static dyn Function>,
-    constants: HashMap<&'static str, &'static Constant>,
+    functions: FxHashMap<&'static str, &'static dyn Function>,
+    constants: FxHashMap<&'static str, &'static Constant>,
 }
 
 impl Builtins {
@@ -175,7 +175,8 @@ impl Builtins {
     pub fn standard() -> &'static Builtins {
         static BUILTINS: OnceLock<Builtins> = OnceLock::new();
         BUILTINS.get_or_init(|| {
-            let mut functions: HashMap<&'static str, &'static dyn Function> = HashMap::new();
+            let mut functions: FxHashMap<&'static str, &'static dyn Function> =
+                FxHashMap::default();
             for relation in all_relations() {
                 functions.insert(relation.name, relation);
             }
