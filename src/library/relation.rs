@@ -941,6 +941,24 @@ mod tests {
             &[permeability, first_t],
             &[None, Some(&boiling)],
         );
+        // Brine on IF97 water: at 1 atm through boiling, and at 2 bar with a salinity column.
+        let salinity = vec![0.1; boiling.len()];
+        let brine = [first_t, first_p, Quantity::dimensionless(0.1)];
+        kernel_matches_calls(
+            "brine_density",
+            &brine,
+            &[Some(&boiling), None, Some(&salinity)],
+        );
+        let two_bar = [
+            first_t,
+            Quantity::new(2e5, PRESSURE),
+            Quantity::dimensionless(0.1),
+        ];
+        kernel_matches_calls(
+            "brine_density",
+            &two_bar,
+            &[Some(&boiling), None, Some(&salinity)],
+        );
         // Pressures around p_sat at 90 °C (70.18 kPa), within a few units in the last place.
         let p_sat = super::super::water::saturation_pressure_pa(363.15);
         let near: Vec<f64> = [-1.0, 0.0, 1.0, 4.0, 1e6, -3.0]
