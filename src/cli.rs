@@ -288,6 +288,7 @@ fn finish(result: io::Result<u8>, out: &mut dyn Write) -> u8 {
 }
 
 /// A sheet's text and the name to show for it.
+#[derive(Clone)]
 pub(crate) struct SheetSource {
     pub label: String,
     pub text: String,

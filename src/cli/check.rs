@@ -271,8 +271,22 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
     let targets = targets(&arguments.paths);
     let json = options.format == Format::Json;
     let color = !json && io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
-    let check_one = |target: &Target| {
-        let read = read_target(target, &arguments.limits.read_limits());
+    // Standard input is read here, in argument order, so that a second `-` still finds it empty
+    // whichever thread gets to it first.
+    let items: Vec<(&Target, Option<Result<SheetSource, String>>)> = targets
+        .iter()
+        .map(|target| {
+            let from_stdin = target.path.is_none() && target.problem.is_none();
+            let read = from_stdin.then(|| read_target(target, &arguments.limits.read_limits()));
+            (target, read)
+        })
+        .collect();
+    let check_one = |(target, read_before): &(&Target, Option<Result<SheetSource, String>>)| {
+        let target: &Target = target;
+        let read = match read_before {
+            Some(read) => read.clone(),
+            None => read_target(target, &arguments.limits.read_limits()),
+        };
         match read {
             Err(message) => SheetReport {
                 label: target.label.clone(),
@@ -357,7 +371,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
     // it are done, then dropped: only its counts stay.
     let mut summaries = Vec::with_capacity(targets.len());
     let mut sheets_json = Vec::new();
-    super::in_order::map_in_order(&targets, check_one, |report: SheetReport| {
+    super::in_order::map_in_order(&items, check_one, |report: SheetReport| {
         if json {
             sheets_json.push(sheet_json(&report));
         } else {

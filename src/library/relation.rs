@@ -917,7 +917,7 @@ mod tests {
 
     /// The saturation-pressure check proven once per span from its hottest row refuses exactly
     /// the rows that the check on every row refused: steam at one atmosphere from 99.97 °C
-    /// (IF97 region 4: p_sat(372.756 K) = 101 325 Pa, from the release's eq. 30), columns of
+    /// (at 1 atm water boils at 373.124 K, 99.974 °C, by IF97 region 4; from memory), columns of
     /// pressures falling through p_sat, rows just either side of it, and defaults.
     #[test]
     fn water_columns_refuse_steam_exactly_where_rows_did() {

@@ -312,9 +312,9 @@ pub(super) fn unit_span(function: &FunctionDefinition) -> Span {
         .map_or(function.name.span, |unit| unit.span)
 }
 
-/// Columns shorter than this are computed on one thread. Starting a thread and joining it
-/// costs about as much as a few thousand rows of the cheapest relations (see DEVELOPERS.md,
-/// Performance); above it each core takes one contiguous span.
+/// The fewest rows a thread of a column kernel takes: a column is split across the cores only
+/// from twice this many rows. Starting a thread and joining it costs far less than 20 000 rows
+/// of even the cheapest relation (see DEVELOPERS.md, Performance).
 pub(crate) const PARALLEL_ROWS: usize = 20_000;
 
 /// The cores this process may use, asked once (the answer reads the cgroup limits).
