@@ -269,17 +269,11 @@ fn unit_systems(unit: &UnitExpression, systems: &mut Systems) {
 }
 
 fn mixed_units(line: &Line, warnings: &mut Vec<Diagnostic>) {
-    let (expression, declared, label) = match &line.kind {
-        LineKind::Definition(definition) => (
-            &definition.expression,
-            definition.display_unit.is_some(),
-            format!("`{}`", definition.name.text),
-        ),
-        LineKind::Display(display) => (
-            &display.expression,
-            display.display_unit.is_some(),
-            "this line".to_string(),
-        ),
+    let (expression, declared) = match &line.kind {
+        LineKind::Definition(definition) => {
+            (&definition.expression, definition.display_unit.is_some())
+        }
+        LineKind::Display(display) => (&display.expression, display.display_unit.is_some()),
         _ => return,
     };
     if declared {
@@ -288,6 +282,10 @@ fn mixed_units(line: &Line, warnings: &mut Vec<Diagnostic>) {
     let mut systems = Systems::default();
     collect_systems(expression, &mut systems);
     if systems.metric && systems.us_customary {
+        let label = match &line.kind {
+            LineKind::Definition(definition) => format!("`{}`", definition.name.text),
+            _ => "this line".to_string(),
+        };
         let hint = match &line.kind {
             LineKind::Definition(definition) => format!("`{} [unit] = …`", definition.name.text),
             _ => "`… [unit]`".to_string(),
