@@ -120,7 +120,7 @@ impl LimitArgs {
         Settings {
             max_rows: self.max_rows,
             max_total_rows: self.max_total_rows,
-            overrides: Vec::new(),
+            ..Settings::default()
         }
     }
 

@@ -5,7 +5,7 @@
 use super::against::{added_names, compare, compare_inputs, Earlier, InputChange, Moved};
 use super::{exit, exit_code_for, read_sheet, unreadable_json, SheetSource};
 use crate::eval::warnings::warning_count;
-use crate::eval::{Evaluation, LineResult, Severity};
+use crate::eval::{Evaluation, LineResult, Settings, Severity};
 use crate::front::limits::{FileKind, ReadLimits};
 use crate::render::json::{
     diagnostics_json, fields_json, inputs_json, value_json, CheckJson, DiagnosticJson, FieldJson,
@@ -281,6 +281,12 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
             (target, read)
         })
         .collect();
+    // The sheets share the cores: each gets its share for its own parse and long columns.
+    let cores = crate::eval::available_cores();
+    let settings = Settings {
+        threads: (cores / items.len().clamp(1, cores)).max(1),
+        ..arguments.limits.settings()
+    };
     let check_one = |(target, read_before): &(&Target, Option<Result<SheetSource, String>>)| {
         let target: &Target = target;
         let read = match read_before {
@@ -307,7 +313,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     target.path.as_deref(),
                     arguments.allow_outside,
                     arguments.deny_warnings,
-                    &arguments.limits.settings(),
+                    &settings,
                     &arguments.limits.read_limits(),
                 );
                 let inputs = super::all_inputs(&source, &read);

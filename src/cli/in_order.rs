@@ -23,9 +23,7 @@ where
     T: Sync,
     R: Send,
 {
-    let workers = std::thread::available_parallelism()
-        .map_or(1, usize::from)
-        .min(items.len());
+    let workers = crate::eval::available_cores().min(items.len());
     if workers <= 1 {
         for item in items {
             consume(work(item))?;

@@ -33,6 +33,12 @@ pub fn parse_sheet(source: &str) -> ParsedSheet {
 /// Parses a sheet whose text starts at byte `base` of a larger offset space (an included
 /// sheet laid after the one that includes it).
 pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
+    let cores = std::thread::available_parallelism().map_or(1, usize::from);
+    parse_sheet_with(source, base, cores)
+}
+
+/// `parse_sheet_at` on at most `threads` threads (a long sheet's lines are split between them).
+pub fn parse_sheet_with(source: &str, base: usize, threads: usize) -> ParsedSheet {
     let mut raw_lines = Vec::new();
     // Editors on some systems start a UTF-8 file with a byte-order mark; it is not text.
     let (source, mut offset) = match source.strip_prefix(BYTE_ORDER_MARK) {
@@ -60,9 +66,7 @@ pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
         })
     };
     // Lines parse independently, so a long sheet is split across the machine's cores.
-    let workers = std::thread::available_parallelism()
-        .map_or(1, usize::from)
-        .min(8);
+    let workers = threads.min(8);
     let results: Vec<Result<Line, (Line, SyntaxError)>> =
         if workers > 1 && raw_lines.len() >= PARALLEL_PARSE_LINES {
             let chunk = raw_lines.len().div_ceil(workers);

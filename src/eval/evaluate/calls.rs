@@ -158,7 +158,7 @@ impl<'l> Calculator<'l> {
             Some(kernel) => {
                 let mut results = vec![0.0; rows];
                 results[0] = shape.value;
-                match rows_in_parallel(kernel.as_ref(), &columns, &mut results) {
+                match rows_in_parallel(kernel.as_ref(), &columns, &mut results, self.threads) {
                     None => Ok(results),
                     Some(failure) => Err(failure),
                 }
@@ -317,23 +317,18 @@ pub(super) fn unit_span(function: &FunctionDefinition) -> Span {
 /// of even the cheapest relation (see DEVELOPERS.md, Performance).
 pub(crate) const PARALLEL_ROWS: usize = 20_000;
 
-/// The cores this process may use, asked once (the answer reads the cgroup limits).
-fn cores() -> usize {
-    static CORES: std::sync::OnceLock<usize> = std::sync::OnceLock::new();
-    *CORES.get_or_init(|| std::thread::available_parallelism().map_or(1, usize::from))
-}
-
 /// Rows 1.. of a call through its kernel into `results` (row 0 holds the first row's value),
-/// split into one contiguous span per core when the column is long. Every span stops at its
+/// split into one contiguous span per thread (at most `threads`) when the column is long. Every span stops at its
 /// own first failure, so the first failing span's failure is the column's first failing row,
 /// the one a row-by-row loop would report.
 fn rows_in_parallel(
     kernel: &dyn ColumnKernel,
     arguments: &[Rows<'_>],
     results: &mut [f64],
+    threads: usize,
 ) -> Option<RowFailure> {
     let rest = &mut results[1..];
-    let threads = cores().min(rest.len() / PARALLEL_ROWS.max(1)).max(1);
+    let threads = threads.min(rest.len() / PARALLEL_ROWS.max(1)).max(1);
     if threads == 1 {
         return kernel.rows(arguments, 1, rest).err();
     }

@@ -25,6 +25,9 @@ pub struct Settings {
     pub max_total_rows: usize,
     /// `(name, value text)`: the value replaces the line `name` for this run.
     pub overrides: Vec<(String, String)>,
+    /// Threads the sheet may use to parse and to compute long columns: every core by default,
+    /// one when `check` already runs a sheet on each core.
+    pub threads: usize,
 }
 
 impl Default for Settings {
@@ -33,8 +36,15 @@ impl Default for Settings {
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
             max_total_rows: crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
             overrides: Vec::new(),
+            threads: available_cores(),
         }
     }
+}
+
+/// The cores this process may use, asked once (the answer reads the cgroup limits).
+pub fn available_cores() -> usize {
+    static CORES: std::sync::OnceLock<usize> = std::sync::OnceLock::new();
+    *CORES.get_or_init(|| std::thread::available_parallelism().map_or(1, usize::from))
 }
 
 /// The code of the diagnostic for a `--set` that names no line (a command-line error).
@@ -60,6 +70,7 @@ pub fn evaluate_with(
 ) -> Evaluation {
     let mut loaded = Loaded {
         max_rows: settings.max_rows,
+        threads: settings.threads,
         ..Loaded::default()
     };
     let main = loaded.sources.add(label, source);
@@ -89,6 +100,7 @@ pub fn evaluate_with(
     } = loaded;
     let mut evaluator = Evaluator::new(&sources, &lines, library);
     evaluator.calculator.max_rows = settings.max_rows;
+    evaluator.calculator.threads = settings.threads;
     evaluator.calculator.row_budget = crate::eval::columns::RowBudget::new(settings.max_total_rows);
     evaluator.calculator.data_files = data_files;
     evaluator
