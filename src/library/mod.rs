@@ -5,7 +5,7 @@
 //!
 //! A relation is one declarative entry (`relation::Relation`): its parameters with dimensions
 //! and domains, its result, its formulations and a body over checked SI numbers; everything
-//! else (checks, provenance, signature, row kernel) follows from the entry. The few built-ins
+//! else (checks, provenance, signature, column kernel) follows from the entry. The few built-ins
 //! that are polymorphic in dimension (`sqrt`, `min`, `max`, `kelvin`, the aggregates) are a
 //! `Builtin`, the escape hatch, whose body checks its own arguments.
 //!

@@ -4,8 +4,8 @@
 //!
 //! Everything around the body is done here, once, from the entry: the argument count, each
 //! dimension, each domain, each validity range, the provenance record, the signature shown in
-//! listings and hints, and the row kernel of the column fast path (the body itself, with the
-//! same checks on every row). A body therefore never checks a single parameter; it checks only
+//! listings and hints, and the column kernel of the fast path (the body itself, with the same
+//! checks on every row, made over whole column spans first). A body therefore never checks a single parameter; it checks only
 //! what involves several (a radius of influence beyond the well, a head that falls) and returns
 //! the value.
 //!

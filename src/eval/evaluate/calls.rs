@@ -318,9 +318,9 @@ pub(super) fn unit_span(function: &FunctionDefinition) -> Span {
 pub(crate) const PARALLEL_ROWS: usize = 20_000;
 
 /// Rows 1.. of a call through its kernel into `results` (row 0 holds the first row's value),
-/// split into one contiguous span per thread (at most `threads`) when the column is long. Every span stops at its
-/// own first failure, so the first failing span's failure is the column's first failing row,
-/// the one a row-by-row loop would report.
+/// split into one contiguous span per thread (at most `threads`) when the column is long.
+/// Every span stops at its own first failure, so the first failing span's failure is the
+/// column's first failing row, the one a row-by-row loop would report.
 fn rows_in_parallel(
     kernel: &dyn ColumnKernel,
     arguments: &[Rows<'_>],
