@@ -4,7 +4,8 @@
 
 use crate::eval::warnings::deny_warnings;
 use crate::eval::{
-    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
+    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, NOTHING_TO_SAMPLE,
+    UNKNOWN_OVERRIDE,
 };
 use crate::front::limits::{FileKind, ReadLimits};
 use crate::front::streams::{error_stream, PipeSafe};
@@ -25,6 +26,9 @@ mod output_file;
 mod plots;
 mod properties;
 mod report;
+mod sample_args;
+
+pub use sample_args::SampleArgs;
 
 /// Exit codes, as documented in the README.
 pub use crate::front::exit;
@@ -96,6 +100,8 @@ pub struct RunArgs {
     pub working: bool,
     #[command(flatten)]
     pub limits: LimitArgs,
+    #[command(flatten)]
+    pub sampling: SampleArgs,
 }
 
 /// Limits shared by the commands that evaluate sheets.
@@ -397,6 +403,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let files = &arguments.files;
     let (allow_outside, deny) = (arguments.allow_outside, arguments.deny_warnings);
     let mut settings = arguments.limits.settings();
+    settings.sampling = arguments.sampling.sampling();
     let read_limits = arguments.limits.read_limits();
     settings.overrides = match parse_overrides(&arguments.overrides) {
         Ok(overrides) => overrides,
@@ -427,11 +434,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         let path = (file != "-").then(|| Path::new(file.as_str()));
         let (evaluation, inputs) =
             evaluate_file_reading(&source, path, allow_outside, deny, &settings, &read_limits);
-        if evaluation
-            .diagnostics
-            .iter()
-            .any(|diagnostic| diagnostic.code == Some(UNKNOWN_OVERRIDE))
-        {
+        if evaluation.diagnostics.iter().any(|diagnostic| {
+            diagnostic.code == Some(UNKNOWN_OVERRIDE) || diagnostic.code == Some(NOTHING_TO_SAMPLE)
+        }) {
             render::write_diagnostics(
                 &mut error_stream(),
                 &evaluation.sources,
@@ -469,6 +474,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             writeln!(out, "{}", source.label)?;
         }
         render::table::write_sheet(out, &evaluation, options)?;
+        if let Some(summary) = &evaluation.samples {
+            render::spread::write_summary(out, summary, options)?;
+        }
         if arguments.working {
             let working =
                 render::working::working(&evaluation, Builtins::standard(), options.digits);
