@@ -137,9 +137,9 @@ databook for geothermal energy utilization, LBL-12810",
     validity: "NaCl brine, published for 20-330 °C, held here to 20-150 °C (see below), NaCl \
 to a mass fraction of 0.26 (about 6 mol/kg); the ratio multiplies IAPWS 2011 water at (T, p), \
 so at S = 0 the value is IAPWS; the publication states about 2 % (from memory); measured here \
-1.2 % above the Ozbek & Phillips data point at 50 °C, 20 MPa, 2 mol/kg. Public transcriptions \
+1.2 % above the Ozbek & Phillips data point at 50 °C, 20 MPa, 2 mol/kg. Public copies \
 of the coefficients differ in the sign of the T^2 S^2 term: at most 0.4 % apart up to 150 °C, \
-1.8 % at 330 °C, hence the lower limit",
+1.8 % at 330 °C, hence the limit of 150 °C",
     ranges: &[ValidRange {
         parameter: "T",
         low: 293.15,
@@ -522,7 +522,7 @@ pub fn nacl_thermal_conductivity(
     let water_conductivity = water::thermal_conductivity(t, p)?;
     let s = 100.0 * w;
     let linear = 2.3434e-3 - 7.924e-6 * t_c + 3.924e-8 * t_c * t_c;
-    // Public transcriptions differ on the sign of the last term; the plus sign is the one
+    // Public copies differ on the sign of the last term; the plus sign is the one
     // recalled from the databook (from memory). The two readings differ by 2 x 1.2e-10 t^2 S^2:
     // 0.4 % of the ratio at 150 °C and S = 26 %, 1.8 % at 330 °C, so T is held to 150 °C.
     let quadratic = 1.06e-5 - 2.0e-8 * t_c + 1.2e-10 * t_c * t_c;

@@ -11,7 +11,7 @@
 //! authors generated their tables and which they state reproduce their measurements within
 //! 0.5 % over 20-150 °C, 0.1-35 MPa and 0-6 mol/kg. The equations are re-typed below from the
 //! paper's equations for mu_0(T, m) and beta(T, m) (checked against two public
-//! transcriptions), independently of the model code; the model uses only beta.
+//! copies), independently of the model code; the model uses only beta.
 //!
 //! Single measured points: 50 °C, 20 MPa, 2 mol/kg NaCl, as quoted in the brine test input of
 //! the MOOSE framework (`modules/fluid_properties/test/tests/brine`): density 1068.52 kg/m^3
