@@ -135,7 +135,7 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
                 if unit.is_absolute_temperature() && value < 0.0 {
                     return Err(format!(
                         "{where_}: `{text}` is below absolute zero ({} K)",
-                        crate::eval::error::short_number(value)
+                        crate::numeric::message_number(value)
                     ));
                 }
                 values.push(value);

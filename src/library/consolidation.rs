@@ -11,7 +11,7 @@ use super::dimensions::{
     VELOCITY,
 };
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
-use super::three_figures;
+use crate::numeric::message_number;
 use crate::eval::function::CallError;
 use crate::eval::Formulation;
 use std::f64::consts::PI;
@@ -353,7 +353,7 @@ fn constrained_modulus(values: &[f64]) -> Result<f64, CallError> {
             message: format!(
                 "`nu` is {}: a Poisson's ratio of 0.5 or more has no finite constrained modulus \
 (it must lie in [0, 0.5))",
-                three_figures(poisson)
+                message_number(poisson)
             ),
         });
     }
@@ -372,8 +372,8 @@ fn volume_compressibility_from_oedometer(values: &[f64]) -> Result<f64, CallErro
             argument: Some(1),
             message: format!(
                 "`e1` = {} is above `e0` = {}: the void ratio must fall under a load increment",
-                three_figures(end),
-                three_figures(initial)
+                message_number(end),
+                message_number(initial)
             ),
         });
     }

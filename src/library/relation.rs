@@ -79,7 +79,7 @@ impl Parameter {
         let default = match self.default {
             Some(value) => format!(
                 "; {} {} when left out",
-                crate::eval::error::short_number(value),
+                crate::numeric::message_number(value),
                 self.dimension.preferred_si_unit()
             ),
             None => String::new(),
@@ -282,11 +282,11 @@ fn domain_error(index: usize, parameter: &Parameter) -> CallError {
 /// "`d10` = 5 mm is outside 0.1 to 3 mm, the range of Hazen's rule, K = C d10^2".
 fn outside_range_message(value: f64, range: &ValidRange, formulation: &Formulation) -> String {
     let in_unit = |si: f64| Unit::lookup(range.unit).map_or(si, |unit| unit.from_si(si));
-    let bound = |si: f64| crate::eval::error::short_number(in_unit(si));
+    let bound = |si: f64| crate::numeric::message_number(in_unit(si));
     format!(
         "`{}` = {} {} is outside {} to {} {}, the range of {}",
         range.parameter,
-        super::three_figures(in_unit(value)),
+        crate::numeric::message_number(in_unit(value)),
         range.unit,
         bound(range.low),
         bound(range.high),

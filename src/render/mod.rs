@@ -2,7 +2,6 @@
 //! source snippets. Everything writes into a writer it is handed; nothing here opens files.
 
 pub mod json;
-pub mod number;
 pub mod plot;
 pub mod report;
 pub mod snippet;
@@ -10,7 +9,7 @@ pub mod table;
 pub mod text_table;
 pub mod working;
 
-pub use number::format_significant;
+pub use crate::numeric::{format_significant, write_significant};
 pub use snippet::write_diagnostics;
 
 /// Output formats of `--format`.

@@ -1,0 +1,272 @@
+//! Numbers as text: a fixed number of significant figures, rounded half away from zero on the
+//! decimal the user would see (the shortest text that reads back as the same double), so that
+//! 0.125 to two figures is 0.13 as in a hand calculation, not 0.12.
+//!
+//! The rounding works on the digits of that shortest text directly: they are an exact decimal,
+//! so rounding them is exact, with no decimal arithmetic and no allocation beyond the text
+//! written. This is the one formatter of the program: tables, CSV, JSON display fields and
+//! messages (`message_number`) all go through it.
+
+use std::fmt::Write as _;
+
+/// Significant figures of a number in a message ("T = 268.15 K is below …"): enough that a
+/// value converted back to the user's scale reads as they wrote it.
+pub const MESSAGE_DIGITS: u32 = 6;
+
+/// Formats `value` to `digits` significant figures; plain notation for magnitudes from 1e-3
+/// up to 1e6, scientific (`1.234e-9`) outside.
+pub fn format_significant(value: f64, digits: u32) -> String {
+    let mut text = String::with_capacity(12);
+    write_significant(&mut text, value, digits);
+    text
+}
+
+/// A number for a message: `MESSAGE_DIGITS` significant figures, trailing zeros dropped.
+pub fn message_number(value: f64) -> String {
+    format_significant(value, MESSAGE_DIGITS)
+}
+
+/// Appends `value` to `out` as `format_significant` spells it, so that a writer of many cells
+/// can reuse one buffer.
+pub fn write_significant(out: &mut String, value: f64, digits: u32) {
+    let digits = digits.clamp(1, 17) as usize;
+    if value == 0.0 {
+        out.push('0');
+        return;
+    }
+    if !value.is_finite() {
+        let _ = write!(out, "{value}");
+        return;
+    }
+    // `{:e}` is the shortest round-trip text, e.g. `-1.2334818375475199e3`: at most 17
+    // digits, so it fits the buffer.
+    let mut shortest = StackText::default();
+    let _ = write!(shortest, "{:e}", value.abs());
+    let text = shortest.as_str();
+    let (mantissa, exponent_text) = text.split_once('e').unwrap_or((text, "0"));
+    let mut exponent: i32 = exponent_text.parse().unwrap_or(0);
+    // The mantissa's digits without the point: `d` or `d.ddd`.
+    let mut figures = [0u8; 17];
+    let mut count = 0;
+    for byte in mantissa.bytes().filter(u8::is_ascii_digit) {
+        if count < figures.len() {
+            figures[count] = byte - b'0';
+            count += 1;
+        }
+    }
+    // Half away from zero on the exact decimal: the first dropped digit decides.
+    if count > digits {
+        let round_up = figures[digits] >= 5;
+        count = digits;
+        if round_up {
+            let mut index = digits;
+            loop {
+                if index == 0 {
+                    // 9.99… became 10: one figure, one decade up.
+                    figures[0] = 1;
+                    count = 1;
+                    exponent += 1;
+                    break;
+                }
+                index -= 1;
+                if figures[index] == 9 {
+                    figures[index] = 0;
+                } else {
+                    figures[index] += 1;
+                    break;
+                }
+            }
+        }
+    }
+    while count > 1 && figures[count - 1] == 0 {
+        count -= 1;
+    }
+    let figures = &figures[..count];
+    if value < 0.0 {
+        out.push('-');
+    }
+    let digit = |figure: &u8| char::from(b'0' + figure);
+    if (-3..6).contains(&exponent) {
+        if exponent < 0 {
+            out.push_str("0.");
+            for _ in 0..(-exponent - 1) {
+                out.push('0');
+            }
+            out.extend(figures.iter().map(digit));
+        } else {
+            let whole = exponent as usize + 1;
+            for index in 0..whole.max(count) {
+                if index == whole {
+                    out.push('.');
+                }
+                out.push(figures.get(index).map_or('0', digit));
+            }
+        }
+    } else {
+        out.push(digit(&figures[0]));
+        if count > 1 {
+            out.push('.');
+            out.extend(figures[1..].iter().map(digit));
+        }
+        let _ = write!(out, "e{exponent}");
+    }
+}
+
+/// A small text buffer on the stack for the shortest round-trip text of a double.
+struct StackText {
+    bytes: [u8; 32],
+    length: usize,
+}
+
+impl Default for StackText {
+    fn default() -> Self {
+        StackText {
+            bytes: [0; 32],
+            length: 0,
+        }
+    }
+}
+
+impl StackText {
+    fn as_str(&self) -> &str {
+        std::str::from_utf8(&self.bytes[..self.length]).unwrap_or("")
+    }
+}
+
+impl std::fmt::Write for StackText {
+    fn write_str(&mut self, text: &str) -> std::fmt::Result {
+        let end = self.length + text.len();
+        if end > self.bytes.len() {
+            return Err(std::fmt::Error);
+        }
+        self.bytes[self.length..end].copy_from_slice(text.as_bytes());
+        self.length = end;
+        Ok(())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::{format_significant, message_number};
+    use rust_decimal::{Decimal, RoundingStrategy};
+    use std::str::FromStr;
+
+    fn check(value: f64, digits: u32, expected: &str) {
+        assert_eq!(
+            format_significant(value, digits),
+            expected,
+            "{value} to {digits}"
+        );
+    }
+
+    #[test]
+    fn significant_figures() {
+        check(1233.48183754752, 15, "1233.48183754752");
+        check(1233.48183754752, 4, "1233");
+        check(0.125, 2, "0.13");
+        check(-0.125, 2, "-0.13");
+        check(9.869233e-13, 4, "9.869e-13");
+        check(999.96, 4, "1000");
+        check(9999.6, 4, "10000");
+        check(999999.7, 4, "1e6");
+        check(26.85, 4, "26.85");
+        check(0.001234567, 3, "0.00123");
+        check(0.0001234567, 3, "1.23e-4");
+        check(0.0, 4, "0");
+        check(-0.0, 4, "0");
+        check(100.0, 4, "100");
+        check(1.5e6, 4, "1.5e6");
+        check(0.00099996, 4, "0.001");
+        check(f64::INFINITY, 4, "inf");
+        check(f64::MIN_POSITIVE, 3, "2.23e-308");
+        check(5e-324, 17, "5e-324");
+        check(f64::MAX, 17, "1.7976931348623157e308");
+    }
+
+    #[test]
+    fn messages_use_six_figures() {
+        assert_eq!(message_number(-5.0 + 273.15), "268.15");
+        assert_eq!(message_number(0.1 + 0.2), "0.3");
+        assert_eq!(message_number(101_325.0), "101325");
+        assert_eq!(message_number(1.234e-7), "1.234e-7");
+        assert_eq!(message_number(0.0512), "0.0512");
+        assert_eq!(message_number(-5.000_000_000_1), "-5");
+    }
+
+    /// The formatter this one replaced: exact decimal arithmetic on the shortest text. Kept
+    /// here as the reference the digit rounding must agree with.
+    fn exact_reference(value: f64, digits: u32) -> String {
+        let digits = digits.clamp(1, 17);
+        if value == 0.0 {
+            return "0".to_string();
+        }
+        if !value.is_finite() {
+            return value.to_string();
+        }
+        let shortest = format!("{value:e}");
+        let (mantissa_text, exponent_text) = shortest.split_once('e').unwrap_or((&shortest, "0"));
+        let mut exponent: i32 = exponent_text.parse().unwrap_or(0);
+        let Ok(mantissa) = Decimal::from_str(mantissa_text) else {
+            return format!("{value:.*e}", (digits - 1) as usize);
+        };
+        let mut rounded =
+            mantissa.round_dp_with_strategy(digits - 1, RoundingStrategy::MidpointAwayFromZero);
+        if rounded.abs() >= Decimal::TEN {
+            rounded /= Decimal::TEN;
+            exponent += 1;
+        }
+        if (-3..6).contains(&exponent) {
+            let mut scaled = rounded;
+            for _ in 0..exponent.unsigned_abs() {
+                scaled = if exponent > 0 {
+                    scaled * Decimal::TEN
+                } else {
+                    scaled / Decimal::TEN
+                };
+            }
+            let decimals = (i64::from(digits) - 1 - i64::from(exponent)).max(0) as u32;
+            return scaled.round_dp(decimals).normalize().to_string();
+        }
+        format!("{}e{exponent}", rounded.normalize())
+    }
+
+    /// A small deterministic generator (SplitMix64), so a failure names a reproducible case.
+    fn next(state: &mut u64) -> u64 {
+        *state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
+        let mut mixed = *state;
+        mixed = (mixed ^ (mixed >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+        mixed = (mixed ^ (mixed >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+        mixed ^ (mixed >> 31)
+    }
+
+    #[test]
+    fn agrees_with_exact_decimal_rounding_on_random_values() {
+        let mut state = 20_261_202;
+        let mut compared = 0;
+        for case in 0..400_000 {
+            let bits = next(&mut state);
+            let value = match case % 4 {
+                // Any double at all.
+                0 => f64::from_bits(bits),
+                // Engineering magnitudes, 1e-15 to 1e15.
+                1 => (bits as f64 / u64::MAX as f64 * 30.0 - 15.0).exp2() * 1.7,
+                // Short decimals, where ties (…5) are common: 0.125, 26.85, 1.0005.
+                2 => (bits % 2_000_001) as f64 / 10f64.powi((bits >> 40) as i32 % 9),
+                // Numbers near a power of ten, where rounding carries: 9.9996, 999.96.
+                _ => 10f64.powi((bits % 31) as i32 - 15) * (1.0 - (bits >> 33) as f64 * 1e-12),
+            };
+            let value = if bits & (1 << 63) != 0 { -value } else { value };
+            let digits = 1 + (next(&mut state) % 17) as u32;
+            if !value.is_finite() {
+                continue;
+            }
+            assert_eq!(
+                format_significant(value, digits),
+                exact_reference(value, digits),
+                "{value:e} to {digits} figures"
+            );
+            compared += 1;
+        }
+        assert!(compared > 200_000, "only {compared} values compared");
+    }
+}
