@@ -209,8 +209,33 @@ impl OutputArgs {
             (None, Format::Csv) => FULL_PRECISION_DIGITS,
             (None, _) => DEFAULT_DIGITS,
         };
-        RenderOptions { format, digits }
+        let width = (format == Format::Table).then(table_width);
+        RenderOptions {
+            format,
+            digits,
+            width,
+        }
     }
+}
+
+/// The width terminal tables are fitted to when standard output is not a terminal (a pipe or
+/// a file, usually read later in a terminal or an editor).
+pub const WIDTH_WITHOUT_TERMINAL: usize = 100;
+
+/// The width of terminal tables: `COLUMNS` when it holds a number, else the terminal's own
+/// width when standard output is one, else `WIDTH_WITHOUT_TERMINAL`.
+pub fn table_width() -> usize {
+    let from_environment = std::env::var("COLUMNS")
+        .ok()
+        .and_then(|text| text.trim().parse::<usize>().ok())
+        .filter(|columns| *columns > 0);
+    from_environment
+        .or_else(|| {
+            terminal_size::terminal_size_of(io::stdout())
+                .map(|(terminal_size::Width(columns), _)| usize::from(columns))
+        })
+        .unwrap_or(WIDTH_WITHOUT_TERMINAL)
+        .max(crate::render::text_table::NARROWEST)
 }
 
 /// The expression of `eval`, which may start with one minus sign. A leading `--word` is a

@@ -1,6 +1,7 @@
 //! Output: a sheet's results as a terminal table, Markdown, CSV or JSON, and diagnostics as
 //! source snippets. Everything writes into a writer it is handed; nothing here opens files.
 
+pub mod csv;
 pub mod json;
 pub mod plot;
 pub mod report;
@@ -27,6 +28,9 @@ pub struct RenderOptions {
     pub format: Format,
     /// Significant figures of displayed values.
     pub digits: u32,
+    /// Columns of text a terminal table may use (`None`: as wide as its contents). Markdown,
+    /// CSV and JSON always carry whole texts.
+    pub width: Option<usize>,
 }
 
 /// The caution that goes with every report and the README.
