@@ -20,6 +20,7 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
+mod functions;
 mod output_file;
 mod plots;
 mod properties;
@@ -164,10 +165,13 @@ pub enum Command {
     },
     /// Print a table of fluid properties versus temperature
     Properties(properties::PropertiesArgs),
-    /// List built-in functions and constants
-    #[command(after_help = "Examples:\n  fluxsheet functions\n  fluxsheet functions sqrt")]
+    /// List built-in functions and constants, or show one (or a formulation by its id) in full
+    #[command(
+        after_help = "Examples:\n  fluxsheet functions\n  fluxsheet functions darcy\n  fluxsheet functions water_viscosity\n  fluxsheet functions iapws-2008-viscosity"
+    )]
     Functions {
-        /// Show only entries whose name contains this text
+        /// Show only entries whose name contains this text; an exact name or formulation id
+        /// shows that entry in full
         filter: Option<String>,
     },
     /// Start an interactive session (also `fluxsheet` with no command)
@@ -277,7 +281,7 @@ pub fn run(command_line: CommandLine) -> u8 {
             list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK)
         }
         Command::Functions { filter } => {
-            list_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK)
+            functions::write_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK)
         }
         Command::Properties(arguments) => {
             properties::run(&mut out, arguments, &command_line.output)
@@ -678,7 +682,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
                 entry.definition.symbols.join(" "),
                 entry.definition.name.to_string(),
                 dimension_text,
-                format!("{factor} {}", dimension.si_unit_text()),
+                format!("{factor} {}", dimension.preferred_si_unit()),
                 entry.definition.source.to_string(),
                 entry.definition.note.to_string(),
             ]
@@ -708,44 +712,8 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
     Ok(())
 }
 
-fn list_functions(
-    out: &mut dyn Write,
-    filter: Option<&str>,
-    options: RenderOptions,
-) -> io::Result<()> {
-    let library = Builtins::standard();
-    let keep = |name: &str| filter.is_none_or(|text| name.contains(text));
-    let mut rows: Vec<Vec<String>> = Vec::new();
-    for (name, builtin) in library.functions_sorted() {
-        if keep(name) {
-            let sources: Vec<String> = builtin
-                .formulations()
-                .iter()
-                .map(|formulation| {
-                    format!("{} [valid: {}]", formulation.citation, formulation.validity)
-                })
-                .collect();
-            rows.push(vec![
-                builtin.signature(),
-                "function".to_string(),
-                builtin.summary().to_string(),
-                sources.join("; "),
-            ]);
-        }
-    }
-    for constant in library.constants_sorted() {
-        if keep(constant.name) {
-            let value = render::format_significant(constant.quantity.value, 12);
-            rows.push(vec![
-                constant.name.to_string(),
-                format!("constant = {value} {}", constant.unit),
-                constant.summary.to_string(),
-                constant.source.to_string(),
-            ]);
-        }
-    }
-    write_listing(out, &["name", "kind", "summary", "source"], &rows, options)
-}
+/// The narrowest a listing's column is drawn before its cells wrap.
+const LISTING_FLOOR: usize = 14;
 
 /// A plain listing in any format.
 fn write_listing(
@@ -801,13 +769,21 @@ fn write_listing(
             Ok(())
         }
         Format::Table => {
-            let mut table = comfy_table::Table::new();
-            table.load_preset(comfy_table::presets::UTF8_FULL_CONDENSED);
-            table.set_header(header.to_vec());
+            let mut table = render::text_table::TextTable::new(header, &[]);
             for row in rows {
-                table.add_row(row.to_vec());
+                table.measure(row);
             }
-            writeln!(out, "{table}")
+            // Every column may wrap, the widest first; a short one keeps its width.
+            let widths = table.widths().to_vec();
+            for (index, width) in widths.iter().enumerate() {
+                table.set_floor(index, (*width).min(LISTING_FLOOR));
+            }
+            table.fit(options.width);
+            table.write_header(out, header)?;
+            for row in rows {
+                table.write_row(out, row)?;
+            }
+            Ok(())
         }
     }
 }

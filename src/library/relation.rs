@@ -77,11 +77,13 @@ impl Parameter {
             Domain::AbsoluteTemperature => ", absolute",
         };
         let default = match self.default {
-            Some(value) => format!(
-                "; {} {} when left out",
-                crate::numeric::message_number(value),
-                self.dimension.preferred_si_unit()
-            ),
+            Some(value) => match self.dimension.preferred_si_unit().as_str() {
+                "1" => format!("; {} when left out", crate::numeric::message_number(value)),
+                unit => format!(
+                    "; {} {unit} when left out",
+                    crate::numeric::message_number(value)
+                ),
+            },
             None => String::new(),
         };
         format!(

@@ -276,12 +276,18 @@ mod tests {
                 assert!(line.width() <= width, "{width}: `{line}`\n{text}");
             }
             // The expression loses no character to the wrapping.
-            let expression_column = text.lines().next().map_or(0, |header| {
-                header.find("expression").unwrap_or(0)
-            });
+            // The last column starts where the rule under the header starts its last run.
+            let rule: Vec<char> = text
+                .lines()
+                .find(|line| line.starts_with('─'))
+                .unwrap_or("")
+                .chars()
+                .collect();
+            let expression_column = rule.iter().rposition(|c| *c == ' ').map_or(0, |at| at + 1);
             let kept: String = text
                 .lines()
-                .skip(3)
+                .skip_while(|line| !line.starts_with("── "))
+                .skip(1)
                 .flat_map(|line| line.chars().skip(expression_column))
                 .filter(|character| !character.is_whitespace())
                 .collect();
