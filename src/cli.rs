@@ -259,6 +259,31 @@ fn expression_argument(text: &str) -> Result<String, String> {
     }
 }
 
+/// Why `--format` (a global option) cannot apply to `command`, so that no flag is accepted and
+/// silently ignored.
+fn refused_format(command: &Command, format: Format) -> Option<String> {
+    let name = match format {
+        Format::Table => return None,
+        Format::Markdown => "markdown",
+        Format::Csv => "csv",
+        Format::Json => "json",
+    };
+    match (command, format) {
+        (Command::Check(_), Format::Markdown | Format::Csv) => Some(format!(
+            "`check` writes a summary (the default) or `--format json`, not `{name}`: for the \
+             values of a sheet as {name}, use `fluxsheet run --format {name}`"
+        )),
+        (Command::Report(_), _) => Some(format!(
+            "`report` takes its format from the output file's name (*.md or *.html), not from \
+             `--format {name}`: for JSON, use `fluxsheet run --format json`"
+        )),
+        (Command::Repl { .. } | Command::Completions { .. } | Command::Manual, _) => {
+            Some(format!("`--format {name}` does not apply to this command"))
+        }
+        _ => None,
+    }
+}
+
 /// Runs a parsed command line and returns the process exit code. Standard output tolerates a
 /// closed pipe (`run bad.fxs | head -1`): the commands finish and the exit code is still the
 /// sheet's.
@@ -272,6 +297,10 @@ pub fn run(command_line: CommandLine) -> u8 {
     let Some(command) = &command_line.command else {
         return finish(crate::repl::run(None, options, &mut out), &mut out);
     };
+    if let Some(message) = refused_format(command, options.format) {
+        crate::stderr_line!("error: {message}");
+        return exit::USAGE;
+    }
     let result = match command {
         Command::Run(arguments) => run_files(&mut out, arguments, options),
         Command::Check(arguments) => check::run(&mut out, arguments, options),
@@ -626,6 +655,9 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
                 )?;
             } else {
                 match shown {
+                    Shown::Scalar(_) if options.format != Format::Table => {
+                        render::table::write_sheet(out, &evaluation, options)?
+                    }
                     Shown::Scalar(shown) => {
                         let value = render::format_significant(shown.value, options.digits);
                         match shown.unit.as_str() {
