@@ -113,6 +113,18 @@ pub struct LimitArgs {
     /// Largest data file (`column … from`), in bytes
     #[arg(long, value_name = "BYTES", default_value_t = crate::front::limits::DEFAULT_MAX_DATA_BYTES)]
     pub max_data_bytes: u64,
+    /// The cell separator of data files, when the header line does not make it plain (by
+    /// default each file's own: a first line `sep=;`, or the commonest of `,` `;` tab in its
+    /// header)
+    #[arg(long, value_enum, value_name = "SEPARATOR")]
+    pub data_delimiter: Option<DelimiterArg>,
+}
+
+#[derive(ValueEnum, Debug, Clone, Copy, PartialEq, Eq)]
+pub enum DelimiterArg {
+    Comma,
+    Semicolon,
+    Tab,
 }
 
 impl LimitArgs {
@@ -121,6 +133,11 @@ impl LimitArgs {
             max_rows: self.max_rows,
             max_total_rows: self.max_total_rows,
             overrides: Vec::new(),
+            data_delimiter: self.data_delimiter.map(|delimiter| match delimiter {
+                DelimiterArg::Comma => b',',
+                DelimiterArg::Semicolon => b';',
+                DelimiterArg::Tab => b'\t',
+            }),
         }
     }
 

@@ -25,6 +25,8 @@ pub struct Settings {
     pub max_total_rows: usize,
     /// `(name, value text)`: the value replaces the line `name` for this run.
     pub overrides: Vec<(String, String)>,
+    /// The cell separator of every data file (`--data-delimiter`); `None` finds each file's.
+    pub data_delimiter: Option<u8>,
 }
 
 impl Default for Settings {
@@ -33,6 +35,7 @@ impl Default for Settings {
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
             max_total_rows: crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
             overrides: Vec::new(),
+            data_delimiter: None,
         }
     }
 }
@@ -60,6 +63,7 @@ pub fn evaluate_with(
 ) -> Evaluation {
     let mut loaded = Loaded {
         max_rows: settings.max_rows,
+        data_delimiter: settings.data_delimiter,
         ..Loaded::default()
     };
     let main = loaded.sources.add(label, source);
