@@ -249,8 +249,3 @@ impl Library for Builtins {
     }
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-}

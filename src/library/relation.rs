@@ -700,7 +700,7 @@ mod tests {
             .to_string();
         assert_eq!(
             message,
-            "`d10` = 0.0500 mm is outside 0.1 to 3 mm, the range of Hazen's rule, K = C d10^2"
+            "`d10` = 0.05 mm is outside 0.1 to 3 mm, the range of Hazen's rule, K = C d10^2"
         );
     }
 

@@ -807,7 +807,7 @@ mod tests {
         );
         let message = result.expect_err("refused").to_string();
         assert!(
-            message.starts_with("u = r^2 S / (4 T t) = 0.250 is above 0.05"),
+            message.starts_with("u = r^2 S / (4 T t) = 0.25 is above 0.05"),
             "{message}"
         );
         assert!(message.contains("at least 500 s"), "{message}");
