@@ -340,7 +340,7 @@ fn csv_of_values_and_columns_of_different_lengths_is_one_table() {
     let path = folder.path().join("mixed.fxs");
     std::fs::write(
         &path,
-        "k = 420 mD\nT = 10 degC to 30 degC step 10 K\nd = {1, 2} m\nlabel = 2 * k\ncheck k > 1 mD\n",
+        "k = 420 mD\nT = 10 degC to 30 degC step 10 K\nd = {1, 2} m\nlabel [mD] = 2 * k\ncheck k > 1 mD\n",
     )
     .unwrap();
     let (code, csv_text, _) = run(&["run", "--format", "csv", path.to_str().unwrap()]);
