@@ -748,15 +748,15 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
     write_listing(out, &header, &rows, options)?;
     if options.format == Format::Table && filter.is_none() {
         let symbols: Vec<&str> = prefixes().iter().map(|(symbol, _)| *symbol).collect();
-        writeln!(
-            out,
-            "\nSI prefixes (on units marked in DEVELOPERS.md as prefixable): {}",
+        let notes = format!(
+            "SI prefixes (on units marked in DEVELOPERS.md as prefixable): {}\nA degree inside \
+             a compound unit (W/(m*degC)) is a temperature difference.",
             symbols.join(" ")
-        )?;
-        writeln!(
-            out,
-            "A degree inside a compound unit (W/(m*degC)) is a temperature difference."
-        )?;
+        );
+        writeln!(out)?;
+        for line in render::text_table::wrap(&notes, options.width.unwrap_or(usize::MAX)) {
+            writeln!(out, "{line}")?;
+        }
     }
     Ok(())
 }

@@ -3,7 +3,7 @@
 
 use super::text_table::{Align, TextTable};
 use super::{format_significant, write_significant, Format, RenderOptions};
-use crate::eval::{CheckOutcome, Evaluation, LineOutcome, LineResult, Shown};
+use crate::eval::{CheckOutcome, Evaluation, Formulation, LineOutcome, LineResult, Shown};
 use std::io::{self, Write};
 use unicode_width::UnicodeWidthStr;
 
@@ -455,7 +455,16 @@ fn write_sources(
     evaluation: &Evaluation,
     options: RenderOptions,
 ) -> io::Result<()> {
-    let used = evaluation.provenance.formulations();
+    write_formulations(out, evaluation.provenance.formulations(), options)
+}
+
+/// The "Formulations used" footer of `run` and `properties`: id and title on one line each in
+/// the terminal, the full citation in Markdown.
+pub fn write_formulations(
+    out: &mut dyn Write,
+    used: &[&Formulation],
+    options: RenderOptions,
+) -> io::Result<()> {
     if used.is_empty() {
         return Ok(());
     }
