@@ -818,7 +818,20 @@ fn write_listing(
             Ok(())
         }
         Format::Table => {
-            let mut table = render::text_table::TextTable::new(header, &[]);
+            // Columns of numbers are right-aligned, so that their digits line up.
+            let aligns: Vec<render::text_table::Align> = (0..header.len())
+                .map(|index| {
+                    let numeric = rows.iter().all(|row| {
+                        row.get(index).is_some_and(|cell| cell.parse::<f64>().is_ok())
+                    });
+                    if numeric && !rows.is_empty() {
+                        render::text_table::Align::Right
+                    } else {
+                        render::text_table::Align::Left
+                    }
+                })
+                .collect();
+            let mut table = render::text_table::TextTable::new(header, &aligns);
             for row in rows {
                 table.measure(row);
             }

@@ -383,13 +383,18 @@ fn write_column_table(
         }
         let mut part = drawn.select(block);
         part.fit(options.width);
+        let whole = block.len() == header.len();
         let pick = |all: &[String]| -> Vec<String> {
             block.iter().map(|index| all[*index].clone()).collect()
         };
         part.write_header(out, &pick(&header))?;
         for row in 0..table.rows {
             table.cells_into(row, options.digits, &mut cells);
-            part.write_row(out, &pick(&cells))?;
+            if whole {
+                part.write_row(out, &cells)?;
+            } else {
+                part.write_row(out, &pick(&cells))?;
+            }
         }
     }
     Ok(())
@@ -432,17 +437,23 @@ fn write_column_markdown(out: &mut dyn Write, table: &ColumnTable, digits: u32) 
             .join(" | ")
     )?;
     writeln!(out, "|{}", "---:|".repeat(header.len()))?;
+    let mut cells = Vec::new();
+    let mut line = String::new();
     for row in 0..table.rows {
-        let cells = table.cells(row, digits);
-        writeln!(
-            out,
-            "| {} |",
-            cells
-                .iter()
-                .map(|cell| markdown_cell(cell))
-                .collect::<Vec<_>>()
-                .join(" | ")
-        )?;
+        table.cells_into(row, digits, &mut cells);
+        line.clear();
+        line.push('|');
+        for cell in &cells {
+            line.push(' ');
+            if cell.contains('|') {
+                line.push_str(&markdown_cell(cell));
+            } else {
+                line.push_str(cell);
+            }
+            line.push_str(" |");
+        }
+        line.push('\n');
+        out.write_all(line.as_bytes())?;
     }
     Ok(())
 }

@@ -145,6 +145,13 @@ impl TextTable {
     /// One row; a cell wider than its column, or holding line breaks, wraps onto as many lines
     /// as it needs. Trailing spaces are not written.
     pub fn write_row<S: AsRef<str>>(&self, out: &mut dyn Write, cells: &[S]) -> io::Result<()> {
+        let fits = |(cell, width): (&S, &usize)| {
+            let cell = cell.as_ref();
+            !cell.contains('\n') && (cell.len() <= *width || cell.width() <= *width)
+        };
+        if cells.len() == self.widths.len() && cells.iter().zip(&self.widths).all(fits) {
+            return self.write_line(out, cells.iter().map(AsRef::as_ref));
+        }
         let wrapped: Vec<Vec<String>> = self
             .widths
             .iter()
@@ -159,31 +166,51 @@ impl TextTable {
             })
             .collect();
         let height = wrapped.iter().map(Vec::len).max().unwrap_or(1).max(1);
-        let mut line = String::new();
         for line_index in 0..height {
-            line.clear();
-            for (column, width) in self.widths.iter().enumerate() {
-                if column > 0 {
-                    line.push_str("  ");
-                }
-                let text = wrapped[column]
-                    .get(line_index)
-                    .map_or("", String::as_str);
-                let padding = width.saturating_sub(text.width());
-                match self.aligns[column] {
-                    Align::Left => {
-                        line.push_str(text);
-                        line.extend(std::iter::repeat_n(' ', padding));
-                    }
-                    Align::Right => {
-                        line.extend(std::iter::repeat_n(' ', padding));
-                        line.push_str(text);
-                    }
-                }
-            }
-            writeln!(out, "{}", line.trim_end())?;
+            let texts = wrapped
+                .iter()
+                .map(|lines| lines.get(line_index).map_or("", String::as_str));
+            self.write_line(out, texts)?;
         }
         Ok(())
+    }
+
+    /// One line of text, each cell already no wider than its column.
+    fn write_line<'t>(
+        &self,
+        out: &mut dyn Write,
+        texts: impl Iterator<Item = &'t str>,
+    ) -> io::Result<()> {
+        const SPACES: &str = "                                                                ";
+        let pad = |line: &mut String, mut count: usize| {
+            while count > 0 {
+                let step = count.min(SPACES.len());
+                line.push_str(&SPACES[..step]);
+                count -= step;
+            }
+        };
+        let mut line = String::with_capacity(self.total_width() + 1);
+        for (column, (text, width)) in texts.zip(&self.widths).enumerate() {
+            if column > 0 {
+                line.push_str("  ");
+            }
+            let text_width = if text.is_ascii() { text.len() } else { text.width() };
+            let padding = width.saturating_sub(text_width);
+            match self.aligns[column] {
+                Align::Left => {
+                    line.push_str(text);
+                    pad(&mut line, padding);
+                }
+                Align::Right => {
+                    pad(&mut line, padding);
+                    line.push_str(text);
+                }
+            }
+        }
+        let kept = line.trim_end().len();
+        line.truncate(kept);
+        line.push('\n');
+        out.write_all(line.as_bytes())
     }
 }
 
