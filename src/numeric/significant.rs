@@ -2,9 +2,9 @@
 //! decimal the user would see (the shortest text that reads back as the same double), so that
 //! 0.125 to two figures is 0.13 as in a hand calculation, not 0.12.
 //!
-//! The rounding works on the digits of that shortest text directly: they are an exact decimal,
-//! so rounding them is exact, with no decimal arithmetic and no allocation beyond the text
-//! written. This is the one formatter of the program: tables, CSV, JSON display fields and
+//! The rounding works on the digits of that shortest text (from `ryu`) directly: they are an
+//! exact decimal, so rounding them is exact, with no decimal arithmetic and no allocation
+//! beyond the text written. This is the one formatter of the program: tables, CSV, JSON display fields and
 //! messages (`message_number`) all go through it.
 
 use std::fmt::Write as _;
@@ -38,22 +38,50 @@ pub fn write_significant(out: &mut String, value: f64, digits: u32) {
         let _ = write!(out, "{value}");
         return;
     }
-    // `{:e}` is the shortest round-trip text, e.g. `-1.2334818375475199e3`: at most 17
-    // digits, so it fits the buffer.
-    let mut shortest = StackText::default();
-    let _ = write!(shortest, "{:e}", value.abs());
-    let text = shortest.as_str();
-    let (mantissa, exponent_text) = text.split_once('e').unwrap_or((text, "0"));
-    let mut exponent: i32 = exponent_text.parse().unwrap_or(0);
-    // The mantissa's digits without the point: `d` or `d.ddd`.
+    // The shortest round-trip text (`1233.4818375475199`, `1e-7`, `1.2345678901234568e20`),
+    // read as its digits without leading or trailing zeros and the decimal exponent of the
+    // first of them.
+    let mut shortest = ryu::Buffer::new();
+    let mut text = shortest.format_finite(value.abs());
+    // Seventeen digits may end in a tie between two shortest texts, which ryu and the
+    // standard library break differently; the standard library's choice is the one shown.
+    let mut standard = String::new();
+    if text.bytes().filter(u8::is_ascii_digit).count() >= 17 {
+        let _ = write!(standard, "{:e}", value.abs());
+        text = &standard;
+    }
+    let (mantissa, written_exponent) = match text.split_once('e') {
+        Some((mantissa, exponent)) => (mantissa, exponent.parse::<i32>().unwrap_or(0)),
+        None => (text, 0),
+    };
     let mut figures = [0u8; 17];
     let mut count = 0;
-    for byte in mantissa.bytes().filter(u8::is_ascii_digit) {
+    // Digits before the point, counted to place the decimal exponent.
+    let mut whole_digits: i32 = 0;
+    let mut leading_zeros: i32 = 0;
+    let mut after_point = false;
+    for byte in mantissa.bytes() {
+        if byte == b'.' {
+            after_point = true;
+            continue;
+        }
+        let figure = byte.wrapping_sub(b'0');
+        if figure > 9 {
+            continue;
+        }
+        if !after_point {
+            whole_digits += 1;
+        }
+        if count == 0 && figure == 0 {
+            leading_zeros += 1;
+            continue;
+        }
         if count < figures.len() {
-            figures[count] = byte - b'0';
+            figures[count] = figure;
             count += 1;
         }
     }
+    let mut exponent = written_exponent + whole_digits - leading_zeros - 1;
     // Half away from zero on the exact decimal: the first dropped digit decides.
     if count > digits {
         let round_up = figures[digits] >= 5;
@@ -109,39 +137,6 @@ pub fn write_significant(out: &mut String, value: f64, digits: u32) {
             out.extend(figures[1..].iter().map(digit));
         }
         let _ = write!(out, "e{exponent}");
-    }
-}
-
-/// A small text buffer on the stack for the shortest round-trip text of a double.
-struct StackText {
-    bytes: [u8; 32],
-    length: usize,
-}
-
-impl Default for StackText {
-    fn default() -> Self {
-        StackText {
-            bytes: [0; 32],
-            length: 0,
-        }
-    }
-}
-
-impl StackText {
-    fn as_str(&self) -> &str {
-        std::str::from_utf8(&self.bytes[..self.length]).unwrap_or("")
-    }
-}
-
-impl std::fmt::Write for StackText {
-    fn write_str(&mut self, text: &str) -> std::fmt::Result {
-        let end = self.length + text.len();
-        if end > self.bytes.len() {
-            return Err(std::fmt::Error);
-        }
-        self.bytes[self.length..end].copy_from_slice(text.as_bytes());
-        self.length = end;
-        Ok(())
     }
 }
 

@@ -248,6 +248,9 @@ pub fn write_sheet(
     if options.format == Format::Csv {
         return super::csv::write_sheet(out, evaluation, options.digits);
     }
+    // Standard output is line-buffered: rows go out in large blocks instead.
+    let mut buffered = io::BufWriter::with_capacity(1 << 16, out);
+    let out: &mut dyn Write = &mut buffered;
     let entries = entries(evaluation, options.digits);
     match options.format {
         Format::Markdown => write_markdown(out, &entries),
@@ -260,7 +263,8 @@ pub fn write_sheet(
             _ => write_column_table(out, &table, options),
         }?;
     }
-    write_sources(out, evaluation, options)
+    write_sources(out, evaluation, options)?;
+    buffered.flush()
 }
 
 /// The sheet's table, measured over every entry, fitted to the width, then written row by row.
