@@ -822,7 +822,8 @@ fn write_listing(
             let aligns: Vec<render::text_table::Align> = (0..header.len())
                 .map(|index| {
                     let numeric = rows.iter().all(|row| {
-                        row.get(index).is_some_and(|cell| cell.parse::<f64>().is_ok())
+                        row.get(index)
+                            .is_some_and(|cell| cell.parse::<f64>().is_ok())
                     });
                     if numeric && !rows.is_empty() {
                         render::text_table::Align::Right

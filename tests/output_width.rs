@@ -99,7 +99,10 @@ fn long_texts_wrap_and_wide_column_tables_come_in_blocks() {
     assert_eq!(code, 0, "{table}");
     assert_fits(80, "wide sheet", &table);
     // Two blocks of the column table, each headed by the row numbers.
-    let headers = table.lines().filter(|line| line.starts_with("row ")).count();
+    let headers = table
+        .lines()
+        .filter(|line| line.starts_with("row "))
+        .count();
     assert_eq!(headers, 2, "{table}");
     let (_, markdown) = at_width(80, &["run", "--format", "markdown", path]);
     assert!(markdown.contains(long), "{markdown}");

@@ -156,7 +156,10 @@ pub fn read_table_with(
         let origin: Arc<str> = Arc::from("");
         for (row, text) in texts.iter().enumerate() {
             if let Some(problem) = censored(text) {
-                return Err(format!("{}: {problem}", at_line(lines[row], index, &header)));
+                return Err(format!(
+                    "{}: {problem}",
+                    at_line(lines[row], index, &header)
+                ));
             }
         }
         let numbers = NumberStyle::of(&texts, decimal_comma);
@@ -240,9 +243,8 @@ enum NumberStyle {
 impl NumberStyle {
     /// Decimal commas when the file may hold them and a cell of the column writes one.
     fn of(texts: &[String], comma_allowed: bool) -> NumberStyle {
-        let writes_comma = |text: &String| {
-            text.contains(',') && text.replace(',', ".").parse::<f64>().is_ok()
-        };
+        let writes_comma =
+            |text: &String| text.contains(',') && text.replace(',', ".").parse::<f64>().is_ok();
         if comma_allowed && texts.iter().any(writes_comma) {
             NumberStyle::Comma
         } else {
@@ -316,7 +318,16 @@ fn censored(text: &str) -> Option<String> {
         });
     }
     let lower = text.to_ascii_lowercase();
-    let not_detected = ["nd", "n.d.", "n/d", "bdl", "<dl", "<lod", "<loq", "not detected"];
+    let not_detected = [
+        "nd",
+        "n.d.",
+        "n/d",
+        "bdl",
+        "<dl",
+        "<lod",
+        "<loq",
+        "not detected",
+    ];
     not_detected.contains(&lower.as_str()).then(|| {
         format!("`{text}` reads as \"not detected\", a value below a detection limit: {how}")
     })
@@ -404,10 +415,13 @@ mod tests {
         .expect("reads");
         assert_eq!(column(&table, "T"), vec![293.15, 281.4]);
         let k = column(&table, "k");
-        assert!((k[0] / (40.5 * 9.869233e-16) - 1.0).abs() < 5e-7, "{}", k[0]);
+        assert!(
+            (k[0] / (40.5 * 9.869233e-16) - 1.0).abs() < 5e-7,
+            "{}",
+            k[0]
+        );
         // The same with the spreadsheet's delimiter line, and with tabs.
-        let declared =
-            read_table("lab.csv", "sep=;\nx [m];y [m]\n1,5;2\n", 100).expect("reads");
+        let declared = read_table("lab.csv", "sep=;\nx [m];y [m]\n1,5;2\n", 100).expect("reads");
         assert_eq!(column(&declared, "x"), vec![1.5]);
         let tabs = read_table("lab.tsv", "x [m]\ty [m]\n1,5\t2\n", 100).expect("reads");
         assert_eq!(column(&tabs, "x"), vec![1.5]);
@@ -419,7 +433,10 @@ mod tests {
     #[test]
     fn ambiguous_separators_are_refused_with_a_hint() {
         let quoted = read_table("d.csv", "x [m],y [m]\n\"1,5\",2\n", 100).unwrap_err();
-        assert!(quoted.contains("decimal comma in a comma-separated file"), "{quoted}");
+        assert!(
+            quoted.contains("decimal comma in a comma-separated file"),
+            "{quoted}"
+        );
         assert!(quoted.contains("sep=;"), "{quoted}");
         let point = read_table("d.csv", "x [m];y [m]\n1,5;2\n1.250;3\n", 100).unwrap_err();
         assert!(point.starts_with("`d.csv` line 3, column 1"), "{point}");

@@ -573,4 +573,3 @@ fn unit_is_angle(unit: &UnitExpression) -> bool {
         UnitExpressionKind::Power { base, .. } => unit_is_angle(base),
     }
 }
-

@@ -36,8 +36,8 @@ use super::formulation::{Formulation, OutOfRange};
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
 use super::water;
 use super::water::{check_liquid_pressure, check_temperature, out_of_range};
-use crate::numeric::message_number;
 use crate::eval::function::CallError;
+use crate::numeric::message_number;
 
 const BATZLE_WANG_CITATION: &str = "Batzle, M. and Wang, Z., 1992, Seismic properties of pore \
 fluids, Geophysics 57(11), 1396-1408";

@@ -11,9 +11,9 @@ use super::dimensions::{
     VELOCITY,
 };
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
-use crate::numeric::message_number;
 use crate::eval::function::CallError;
 use crate::eval::Formulation;
+use crate::numeric::message_number;
 use std::f64::consts::PI;
 
 const TERZAGHI_1925: &str = "Terzaghi, K., 1925, Erdbaumechanik auf bodenphysikalischer \

@@ -41,8 +41,8 @@ use super::formulation::{refused, Formulation, OutOfRange};
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
 use super::water;
 use super::water::out_of_range;
-use crate::numeric::message_number;
 use crate::eval::function::CallError;
+use crate::numeric::message_number;
 
 const LALIBERTE_2009: &str = "Laliberté, M., 2009, A model for calculating the heat capacity \
 of aqueous solutions, with updated density and viscosity data, Journal of Chemical & \

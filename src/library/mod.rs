@@ -248,4 +248,3 @@ impl Library for Builtins {
             .collect()
     }
 }
-

@@ -8,9 +8,9 @@
 
 use super::dimensions::{AREA_PER_TIME, DIMENSIONLESS, LENGTH, TIME, VOLUME_FLOW_RATE};
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
-use crate::numeric::message_number;
 use crate::eval::function::CallError;
 use crate::eval::Formulation;
+use crate::numeric::message_number;
 use std::f64::consts::PI;
 
 const THEIS_1935: &str = "Theis, C. V., 1935, The relation between the lowering of the \

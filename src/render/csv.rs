@@ -73,7 +73,9 @@ pub fn write_sheet(out: &mut dyn Write, evaluation: &Evaluation, digits: u32) ->
             record.push_str(row_number.format(index + 1));
             record.push(',');
             match column {
-                Shown::Column(values) => write_significant(&mut record, values.shown(index), digits),
+                Shown::Column(values) => {
+                    write_significant(&mut record, values.shown(index), digits)
+                }
                 Shown::Labels(labels) => record.push_str(&quoted(&labels.texts[index])),
                 Shown::Scalar(scalar) => write_significant(&mut record, scalar.value, digits),
             }
@@ -91,9 +93,8 @@ pub fn write_sheet(out: &mut dyn Write, evaluation: &Evaluation, digits: u32) ->
 /// A field as RFC 4180 writes it: in double quotes, with its quotes doubled, when it holds a
 /// comma, a quote or a line break (or starts or ends with a space, which readers may trim).
 fn quoted(field: &str) -> Cow<'_, str> {
-    let needs_quotes = field.contains([',', '"', '\n', '\r'])
-        || field.starts_with(' ')
-        || field.ends_with(' ');
+    let needs_quotes =
+        field.contains([',', '"', '\n', '\r']) || field.starts_with(' ') || field.ends_with(' ');
     if needs_quotes {
         Cow::Owned(format!("\"{}\"", field.replace('"', "\"\"")))
     } else {
@@ -108,7 +109,10 @@ mod tests {
     #[test]
     fn fields_are_quoted_only_when_a_reader_needs_it() {
         assert_eq!(quoted("4.05e-6"), "4.05e-6");
-        assert_eq!(quoted("hydraulic_conductivity(k, T)"), "\"hydraulic_conductivity(k, T)\"");
+        assert_eq!(
+            quoted("hydraulic_conductivity(k, T)"),
+            "\"hydraulic_conductivity(k, T)\""
+        );
         assert_eq!(quoted("say \"hi\""), "\"say \"\"hi\"\"\"");
         assert_eq!(quoted("two\nlines"), "\"two\nlines\"");
         assert_eq!(quoted(""), "");

@@ -280,7 +280,13 @@ fn write_table(out: &mut dyn Write, entries: &[Entry], width: Option<usize>) -> 
     };
     let mut table = TextTable::new(
         &HEADER,
-        &[Align::Right, Align::Left, Align::Right, Align::Left, Align::Left],
+        &[
+            Align::Right,
+            Align::Left,
+            Align::Right,
+            Align::Left,
+            Align::Left,
+        ],
     );
     for entry in entries {
         if let Entry::Row(row) = entry {

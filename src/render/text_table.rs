@@ -194,7 +194,11 @@ impl TextTable {
             if column > 0 {
                 line.push_str("  ");
             }
-            let text_width = if text.is_ascii() { text.len() } else { text.width() };
+            let text_width = if text.is_ascii() {
+                text.len()
+            } else {
+                text.width()
+            };
             let padding = width.saturating_sub(text_width);
             match self.aligns[column] {
                 Align::Left => {

@@ -399,7 +399,9 @@ pub(super) fn present(
         .filter(|text| dimension.is_some_and(|dimension| *text != dimension.preferred_si_unit()));
     let trade_unit = trade_text.as_ref().and_then(|text| {
         let expression = crate::syntax::parse_unit(text).ok()?;
-        resolve_unit(&expression).ok().map(|unit| (unit, text.as_str()))
+        resolve_unit(&expression)
+            .ok()
+            .map(|unit| (unit, text.as_str()))
     });
     let unit = match (&own_scale, &trade_unit) {
         (Some((unit, text)), _) => Some((unit, *text)),
@@ -581,7 +583,9 @@ mod tests {
             let mut powers = [0i32; 7];
             // Luminous intensity has no unit in the catalog (no sheet needs candela).
             for power in powers.iter_mut().take(6) {
-                state = state.wrapping_mul(6_364_136_223_846_793_005).wrapping_add(1);
+                state = state
+                    .wrapping_mul(6_364_136_223_846_793_005)
+                    .wrapping_add(1);
                 *power = ((state >> 33) % 7) as i32 - 3;
             }
             let dimension = Dimension::from_integers(powers);

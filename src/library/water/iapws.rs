@@ -20,8 +20,8 @@ use uom::si::specific_heat_capacity::joule_per_kilogram_kelvin;
 use uom::si::thermal_conductivity::watt_per_meter_kelvin;
 use uom::si::thermodynamic_temperature::kelvin;
 
-use crate::numeric::message_number;
 use crate::library::formulation::{Formulation, OutOfRange};
+use crate::numeric::message_number;
 
 const IF97_CITATION: &str = "IAPWS R7-97(2012), Revised Release on the IAPWS Industrial \
 Formulation 1997 for the Thermodynamic Properties of Water and Steam, International Association \
@@ -434,7 +434,11 @@ pub(crate) fn check_temperature(
     if t_k > hi {
         return Err(out_of_range(
             formulation,
-            format!("T = {} is above {} K", temperature_text(t_k), message_number(hi)),
+            format!(
+                "T = {} is above {} K",
+                temperature_text(t_k),
+                message_number(hi)
+            ),
         ));
     }
     Ok(())
@@ -552,10 +556,13 @@ fn check_density(
     Ok(())
 }
 
-
 /// `393.15 K (120 °C)`.
 pub(crate) fn temperature_text(t_k: f64) -> String {
-    format!("{} K ({} °C)", message_number(t_k), message_number(t_k - 273.15))
+    format!(
+        "{} K ({} °C)",
+        message_number(t_k),
+        message_number(t_k - 273.15)
+    )
 }
 
 /// A pressure in the unit that reads best: Pa, kPa or MPa.
