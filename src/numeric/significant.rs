@@ -21,6 +21,54 @@ pub fn format_significant(value: f64, digits: u32) -> String {
     text
 }
 
+/// The significant digits of a decimal text (`0.00125`, `1233.5`, `1.25e-7`), without leading
+/// zeros, with the decimal exponent of the first digit: one pass, no searching.
+fn decimal_digits(text: &[u8]) -> ([u8; 17], usize, i32) {
+    let mut figures = [0u8; 17];
+    let mut count = 0;
+    // Digits before the point and zeros before the first significant digit place the exponent.
+    let mut whole_digits: i32 = 0;
+    let mut leading_zeros: i32 = 0;
+    let mut after_point = false;
+    let mut written_exponent: i32 = 0;
+    for (index, byte) in text.iter().enumerate() {
+        match byte {
+            b'.' => after_point = true,
+            b'0'..=b'9' => {
+                let figure = byte - b'0';
+                if !after_point {
+                    whole_digits += 1;
+                }
+                if count == 0 && figure == 0 {
+                    leading_zeros += 1;
+                } else if count < figures.len() {
+                    figures[count] = figure;
+                    count += 1;
+                }
+            }
+            b'e' | b'E' => {
+                let rest = &text[index + 1..];
+                let (negative, digits) = match rest.split_first() {
+                    Some((b'-', digits)) => (true, digits),
+                    Some((b'+', digits)) => (false, digits),
+                    _ => (false, rest),
+                };
+                let magnitude = digits
+                    .iter()
+                    .fold(0i32, |total, digit| total * 10 + i32::from(digit - b'0'));
+                written_exponent = if negative { -magnitude } else { magnitude };
+                break;
+            }
+            _ => {}
+        }
+    }
+    (
+        figures,
+        count,
+        written_exponent + whole_digits - leading_zeros - 1,
+    )
+}
+
 /// A number for a message: `MESSAGE_DIGITS` significant figures, trailing zeros dropped.
 pub fn message_number(value: f64) -> String {
     format_significant(value, MESSAGE_DIGITS)
@@ -39,49 +87,17 @@ pub fn write_significant(out: &mut String, value: f64, digits: u32) {
         return;
     }
     // The shortest round-trip text (`1233.4818375475199`, `1e-7`, `1.2345678901234568e20`),
-    // read as its digits without leading or trailing zeros and the decimal exponent of the
-    // first of them.
+    // as its digits and the decimal exponent of the first of them.
     let mut shortest = ryu::Buffer::new();
-    let mut text = shortest.format_finite(value.abs());
+    let (mut figures, mut count, mut exponent) =
+        decimal_digits(shortest.format_finite(value.abs()).as_bytes());
     // Seventeen digits may end in a tie between two shortest texts, which ryu and the
     // standard library break differently; the standard library's choice is the one shown.
-    let mut standard = String::new();
-    if text.bytes().filter(u8::is_ascii_digit).count() >= 17 {
+    if count >= 17 {
+        let mut standard = String::new();
         let _ = write!(standard, "{:e}", value.abs());
-        text = &standard;
+        (figures, count, exponent) = decimal_digits(standard.as_bytes());
     }
-    let (mantissa, written_exponent) = match text.split_once('e') {
-        Some((mantissa, exponent)) => (mantissa, exponent.parse::<i32>().unwrap_or(0)),
-        None => (text, 0),
-    };
-    let mut figures = [0u8; 17];
-    let mut count = 0;
-    // Digits before the point, counted to place the decimal exponent.
-    let mut whole_digits: i32 = 0;
-    let mut leading_zeros: i32 = 0;
-    let mut after_point = false;
-    for byte in mantissa.bytes() {
-        if byte == b'.' {
-            after_point = true;
-            continue;
-        }
-        let figure = byte.wrapping_sub(b'0');
-        if figure > 9 {
-            continue;
-        }
-        if !after_point {
-            whole_digits += 1;
-        }
-        if count == 0 && figure == 0 {
-            leading_zeros += 1;
-            continue;
-        }
-        if count < figures.len() {
-            figures[count] = figure;
-            count += 1;
-        }
-    }
-    let mut exponent = written_exponent + whole_digits - leading_zeros - 1;
     // Half away from zero on the exact decimal: the first dropped digit decides.
     if count > digits {
         let round_up = figures[digits] >= 5;
