@@ -58,6 +58,14 @@ pub fn write_functions(
             ]);
         }
     }
+    if let (Some(text), true) = (filter, rows.is_empty()) {
+        let names = library.names();
+        let hint = match crate::suggest::closest(text, names.iter().copied(), 0.8) {
+            Some(name) => format!(": did you mean `{name}`?"),
+            None => String::new(),
+        };
+        crate::stderr_line!("no built-in function or constant matches `{text}`{hint}");
+    }
     if options.format != Format::Table {
         return write_listing(out, &["name", "kind", "summary", "source"], &rows, options);
     }

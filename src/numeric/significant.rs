@@ -126,34 +126,51 @@ pub fn write_significant(out: &mut String, value: f64, digits: u32) {
         count -= 1;
     }
     let figures = &figures[..count];
+    // Laid out in bytes on the stack, then appended once: at most a sign, `0.00`, 17 digits,
+    // a point and `e-324`.
+    let mut text = [0u8; 32];
+    let mut length = 0;
+    let mut put = |byte: u8| {
+        text[length] = byte;
+        length += 1;
+    };
     if value < 0.0 {
-        out.push('-');
+        put(b'-');
     }
-    let digit = |figure: &u8| char::from(b'0' + figure);
     if (-3..6).contains(&exponent) {
         if exponent < 0 {
-            out.push_str("0.");
+            put(b'0');
+            put(b'.');
             for _ in 0..(-exponent - 1) {
-                out.push('0');
+                put(b'0');
             }
-            out.extend(figures.iter().map(digit));
+            figures.iter().for_each(|figure| put(b'0' + figure));
         } else {
             let whole = exponent as usize + 1;
             for index in 0..whole.max(count) {
                 if index == whole {
-                    out.push('.');
+                    put(b'.');
                 }
-                out.push(figures.get(index).map_or('0', digit));
+                put(b'0' + figures.get(index).copied().unwrap_or(0));
             }
         }
     } else {
-        out.push(digit(&figures[0]));
+        put(b'0' + figures[0]);
         if count > 1 {
-            out.push('.');
-            out.extend(figures[1..].iter().map(digit));
+            put(b'.');
+            figures[1..].iter().for_each(|figure| put(b'0' + figure));
         }
-        let _ = write!(out, "e{exponent}");
+        put(b'e');
+        if exponent < 0 {
+            put(b'-');
+        }
+        let mut power = itoa::Buffer::new();
+        power
+            .format(exponent.unsigned_abs())
+            .bytes()
+            .for_each(&mut put);
     }
+    out.push_str(std::str::from_utf8(&text[..length]).unwrap_or_default());
 }
 
 #[cfg(test)]
