@@ -21,9 +21,10 @@ pub(super) enum Entry {
     Row(Row),
 }
 
-/// Longest expression text the terminal table shows (wrapped over a few lines); longer text
-/// is cut with an ellipsis. Markdown, CSV and JSON carry the whole text.
-const LONGEST_EXPRESSION: usize = 160;
+/// Longest expression text the terminal table shows, wrapped over several lines (a fit's
+/// report of two parameters is about 250 characters); longer text is cut with an ellipsis.
+/// Markdown, CSV and JSON carry the whole text.
+const LONGEST_EXPRESSION: usize = 480;
 
 /// `text` cut to `longest` characters, the last one an ellipsis when anything was cut.
 pub fn shortened(text: &str, longest: usize) -> String {
