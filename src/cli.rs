@@ -294,7 +294,11 @@ fn refused_format(command: &Command, format: Format) -> Option<String> {
             "`report` takes its format from the output file's name (*.md or *.html), not from \
              `--format {name}`: for JSON, use `fluxsheet run --format json`"
         )),
-        (Command::Repl { .. } | Command::Completions { .. } | Command::Manual, _) => {
+        (Command::Repl { .. }, _) => Some(format!(
+            "the interactive session shows values as it goes; `--format {name}` does not \
+             apply to it (`fluxsheet run --format {name} FILE` writes a sheet as {name})"
+        )),
+        (Command::Completions { .. } | Command::Manual, _) => {
             Some(format!("`--format {name}` does not apply to this command"))
         }
         _ => None,
@@ -311,13 +315,17 @@ pub fn run(command_line: CommandLine) -> u8 {
     }
     let options = command_line.output.options();
     let mut out = PipeSafe::new(io::stdout().lock());
-    let Some(command) = &command_line.command else {
-        return finish(crate::repl::run(None, options, &mut out), &mut out);
+    let refusal = match &command_line.command {
+        Some(command) => refused_format(command, options.format),
+        None => refused_format(&Command::Repl { file: None }, options.format),
     };
-    if let Some(message) = refused_format(command, options.format) {
+    if let Some(message) = refusal {
         crate::stderr_line!("error: {message}");
         return exit::USAGE;
     }
+    let Some(command) = &command_line.command else {
+        return finish(crate::repl::run(None, options, &mut out), &mut out);
+    };
     let result = match command {
         Command::Run(arguments) => run_files(&mut out, arguments, options),
         Command::Check(arguments) => check::run(&mut out, arguments, options),

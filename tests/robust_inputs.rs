@@ -128,6 +128,8 @@ const BAD_INPUTS: &[(&str, i32, &str)] = &[
     ("$run|semicolons.fxs|--data-delimiter|pipe", 2, "invalid value 'pipe'"),
     ("$check|list.fxs|--format|csv", 2, "`check` writes a summary"),
     ("$report|list.fxs|-o|r.md|--format|json", 2, "takes its format from the output"),
+    ("$repl|--format|csv", 2, "does not apply to it"),
+    ("$completions|bash|--format|json", 2, "does not apply to this command"),
     ("x = column zz from \"cores.csv\"", 3, "has no column `zz`"),
     (
         "x = column sample from \"cores.csv\"\ny = x * 2",
