@@ -21,6 +21,134 @@ pub fn format_significant(value: f64, digits: u32) -> String {
     text
 }
 
+/// The digits of `value` (positive, finite) rounded to `digits` figures the exact way: the
+/// shortest round-trip text, rounded half away from zero on its digits.
+fn rounded_shortest_digits(value: f64, digits: usize) -> ([u8; 17], usize, i32) {
+    // The shortest round-trip text (`1233.4818375475199`, `1e-7`, `1.2345678901234568e20`),
+    // as its digits and the decimal exponent of the first of them.
+    let mut shortest = ryu::Buffer::new();
+    let (mut figures, mut count, mut exponent) =
+        decimal_digits(shortest.format_finite(value).as_bytes());
+    // Where the exact value of the double is a short decimal ending in 5 (…152.25), two
+    // shortest texts are equally close, and ryu and the standard library break the tie
+    // differently; the standard library's choice is the one shown.
+    if tie_possible(value) {
+        let mut standard = String::new();
+        let _ = write!(standard, "{value:e}");
+        (figures, count, exponent) = decimal_digits(standard.as_bytes());
+    }
+    // Half away from zero on the exact decimal: the first dropped digit decides.
+    if count > digits {
+        let round_up = figures[digits] >= 5;
+        count = digits;
+        if round_up {
+            let mut index = digits;
+            loop {
+                if index == 0 {
+                    // 9.99… became 10: one figure, one decade up.
+                    figures[0] = 1;
+                    count = 1;
+                    exponent += 1;
+                    break;
+                }
+                index -= 1;
+                if figures[index] == 9 {
+                    figures[index] = 0;
+                } else {
+                    figures[index] += 1;
+                    break;
+                }
+            }
+        }
+    }
+    (figures, count, exponent)
+}
+
+/// Whether the exact value of `value` (positive, finite) is a decimal of at most 18
+/// significant digits: only then can two shortest texts tie. A double is m·2^e; with m odd,
+/// its decimal digits are those of m·2^e (e ≥ 0) or of m·5^-e (e < 0).
+fn tie_possible(value: f64) -> bool {
+    let bits = value.to_bits();
+    let biased = ((bits >> 52) & 0x7ff) as i32;
+    let fraction = bits & ((1u64 << 52) - 1);
+    let (mut mantissa, mut exponent) = if biased == 0 {
+        (fraction, -1074)
+    } else {
+        (fraction | (1u64 << 52), biased - 1075)
+    };
+    if mantissa == 0 {
+        return false;
+    }
+    let zeros = mantissa.trailing_zeros();
+    mantissa >>= zeros;
+    exponent += zeros as i32;
+    const EIGHTEEN_DIGITS: u128 = 1_000_000_000_000_000_000;
+    let exact = if exponent >= 0 {
+        (exponent < 64).then(|| u128::from(mantissa) << exponent)
+    } else {
+        5u128
+            .checked_pow(exponent.unsigned_abs())
+            .and_then(|power| power.checked_mul(u128::from(mantissa)))
+    };
+    exact.is_some_and(|digits| digits < EIGHTEEN_DIGITS)
+}
+
+/// Powers of ten a double holds exactly.
+const EXACT_POWERS_OF_TEN: [f64; 23] = [
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
+    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
+
+/// The fast path of `rounded_shortest_digits`, for up to 15 figures: `value` scaled by an
+/// exact power of ten to a number of `digits` whole digits and rounded. The scaling rounds
+/// once, and the shortest text lies within half a unit in the last place of `value`, so the
+/// result is the exact one unless the fraction is within a few units in the last place of a
+/// half; then, or when no exact power of ten fits, `None` sends it to the exact path.
+fn scaled_digits(value: f64, digits: usize) -> Option<([u8; 17], usize, i32)> {
+    if digits > 15 {
+        return None;
+    }
+    let mut exponent = value.log10().floor() as i32;
+    for _ in 0..2 {
+        let shift = digits as i32 - 1 - exponent;
+        let power = *EXACT_POWERS_OF_TEN.get(shift.unsigned_abs() as usize)?;
+        let scaled = if shift >= 0 {
+            value * power
+        } else {
+            value / power
+        };
+        let low = EXACT_POWERS_OF_TEN[digits - 1];
+        if scaled < low {
+            exponent -= 1;
+            continue;
+        }
+        if scaled >= low * 10.0 {
+            exponent += 1;
+            continue;
+        }
+        let whole = scaled.floor();
+        let fraction = scaled - whole;
+        // Four units in the last place of `scaled` cover its rounding and the distance from
+        // `value` to its shortest text.
+        let margin = 4.0 * f64::EPSILON * scaled;
+        if (fraction - 0.5).abs() <= margin {
+            return None;
+        }
+        let mut integer = whole as u64 + u64::from(fraction > 0.5);
+        if integer == 10u64.pow(digits as u32) {
+            integer /= 10;
+            exponent += 1;
+        }
+        let mut figures = [0u8; 17];
+        for index in (0..digits).rev() {
+            figures[index] = (integer % 10) as u8;
+            integer /= 10;
+        }
+        return Some((figures, digits, exponent));
+    }
+    None
+}
+
 /// The significant digits of a decimal text (`0.00125`, `1233.5`, `1.25e-7`), without leading
 /// zeros, with the decimal exponent of the first digit: one pass, no searching.
 fn decimal_digits(text: &[u8]) -> ([u8; 17], usize, i32) {
@@ -86,42 +214,10 @@ pub fn write_significant(out: &mut String, value: f64, digits: u32) {
         let _ = write!(out, "{value}");
         return;
     }
-    // The shortest round-trip text (`1233.4818375475199`, `1e-7`, `1.2345678901234568e20`),
-    // as its digits and the decimal exponent of the first of them.
-    let mut shortest = ryu::Buffer::new();
-    let (mut figures, mut count, mut exponent) =
-        decimal_digits(shortest.format_finite(value.abs()).as_bytes());
-    // Seventeen digits may end in a tie between two shortest texts, which ryu and the
-    // standard library break differently; the standard library's choice is the one shown.
-    if count >= 17 {
-        let mut standard = String::new();
-        let _ = write!(standard, "{:e}", value.abs());
-        (figures, count, exponent) = decimal_digits(standard.as_bytes());
-    }
-    // Half away from zero on the exact decimal: the first dropped digit decides.
-    if count > digits {
-        let round_up = figures[digits] >= 5;
-        count = digits;
-        if round_up {
-            let mut index = digits;
-            loop {
-                if index == 0 {
-                    // 9.99… became 10: one figure, one decade up.
-                    figures[0] = 1;
-                    count = 1;
-                    exponent += 1;
-                    break;
-                }
-                index -= 1;
-                if figures[index] == 9 {
-                    figures[index] = 0;
-                } else {
-                    figures[index] += 1;
-                    break;
-                }
-            }
-        }
-    }
+    let (figures, mut count, exponent) = match scaled_digits(value.abs(), digits) {
+        Some(found) => found,
+        None => rounded_shortest_digits(value.abs(), digits),
+    };
     while count > 1 && figures[count - 1] == 0 {
         count -= 1;
     }
@@ -209,6 +305,10 @@ mod tests {
         check(f64::MIN_POSITIVE, 3, "2.23e-308");
         check(5e-324, 17, "5e-324");
         check(f64::MAX, 17, "1.7976931348623157e308");
+        // Exactly 664743399286152.25: two 16-digit shortest texts tie; the standard
+        // library's (…523) is the one shown, as before.
+        check(6.647433992861523e14, 16, "6.647433992861523e14");
+        check(6.647433992861523e14, 15, "6.64743399286152e14");
     }
 
     #[test]
