@@ -25,18 +25,17 @@ pub fn format_significant(value: f64, digits: u32) -> String {
 /// shortest round-trip text, rounded half away from zero on its digits.
 fn rounded_shortest_digits(value: f64, digits: usize) -> ([u8; 17], usize, i32) {
     // The shortest round-trip text (`1233.4818375475199`, `1e-7`, `1.2345678901234568e20`),
-    // as its digits and the decimal exponent of the first of them.
-    let mut shortest = ryu::Buffer::new();
-    let (mut figures, mut count, mut exponent) =
-        decimal_digits(shortest.format_finite(value).as_bytes());
-    // Where the exact value of the double is a short decimal ending in 5 (…152.25), two
-    // shortest texts are equally close, and ryu and the standard library break the tie
-    // differently; the standard library's choice is the one shown.
-    if tie_possible(value) {
+    // as its digits and the decimal exponent of the first of them. Where the exact value of
+    // the double is a short decimal ending in 5 (…152.25), two shortest texts are equally
+    // close, and ryu and the standard library break the tie differently; the standard
+    // library's choice is the one shown.
+    let (mut figures, mut count, mut exponent) = if tie_possible(value) {
         let mut standard = String::new();
         let _ = write!(standard, "{value:e}");
-        (figures, count, exponent) = decimal_digits(standard.as_bytes());
-    }
+        decimal_digits(standard.as_bytes())
+    } else {
+        decimal_digits(ryu::Buffer::new().format_finite(value).as_bytes())
+    };
     // Half away from zero on the exact decimal: the first dropped digit decides.
     if count > digits {
         let round_up = figures[digits] >= 5;
@@ -128,9 +127,10 @@ fn scaled_digits(value: f64, digits: usize) -> Option<([u8; 17], usize, i32)> {
         }
         let whole = scaled.floor();
         let fraction = scaled - whole;
-        // Four units in the last place of `scaled` cover its rounding and the distance from
-        // `value` to its shortest text.
-        let margin = 4.0 * f64::EPSILON * scaled;
+        // The scaling is off by at most half an epsilon of `scaled`, and the shortest text
+        // lies within half an epsilon of `value`: together at most one epsilon of `scaled`,
+        // with room to spare.
+        let margin = 1.5 * f64::EPSILON * scaled;
         if (fraction - 0.5).abs() <= margin {
             return None;
         }
