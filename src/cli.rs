@@ -4,7 +4,8 @@
 
 use crate::eval::warnings::deny_warnings;
 use crate::eval::{
-    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
+    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, NOTHING_TO_SAMPLE,
+    UNKNOWN_OVERRIDE,
 };
 use crate::front::limits::{FileKind, ReadLimits};
 use crate::front::streams::{error_stream, PipeSafe};
@@ -21,10 +22,14 @@ use std::path::{Path, PathBuf};
 mod against;
 mod check;
 mod functions;
+mod in_order;
 mod output_file;
 mod plots;
 mod properties;
 mod report;
+mod sample_args;
+
+pub use sample_args::SampleArgs;
 
 /// Exit codes, as documented in the README.
 pub use crate::front::exit;
@@ -96,6 +101,8 @@ pub struct RunArgs {
     pub working: bool,
     #[command(flatten)]
     pub limits: LimitArgs,
+    #[command(flatten)]
+    pub sampling: SampleArgs,
 }
 
 /// Limits shared by the commands that evaluate sheets.
@@ -132,12 +139,12 @@ impl LimitArgs {
         Settings {
             max_rows: self.max_rows,
             max_total_rows: self.max_total_rows,
-            overrides: Vec::new(),
             data_delimiter: self.data_delimiter.map(|delimiter| match delimiter {
                 DelimiterArg::Comma => b',',
                 DelimiterArg::Semicolon => b';',
                 DelimiterArg::Tab => b'\t',
             }),
+            ..Settings::default()
         }
     }
 
@@ -370,6 +377,7 @@ fn finish(result: io::Result<u8>, out: &mut dyn Write) -> u8 {
 }
 
 /// A sheet's text and the name to show for it.
+#[derive(Clone)]
 pub(crate) struct SheetSource {
     pub label: String,
     pub text: String,
@@ -478,6 +486,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let files = &arguments.files;
     let (allow_outside, deny) = (arguments.allow_outside, arguments.deny_warnings);
     let mut settings = arguments.limits.settings();
+    settings.sampling = arguments.sampling.sampling();
     let read_limits = arguments.limits.read_limits();
     settings.overrides = match parse_overrides(&arguments.overrides) {
         Ok(overrides) => overrides,
@@ -508,11 +517,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         let path = (file != "-").then(|| Path::new(file.as_str()));
         let (evaluation, inputs) =
             evaluate_file_reading(&source, path, allow_outside, deny, &settings, &read_limits);
-        if evaluation
-            .diagnostics
-            .iter()
-            .any(|diagnostic| diagnostic.code == Some(UNKNOWN_OVERRIDE))
-        {
+        if evaluation.diagnostics.iter().any(|diagnostic| {
+            diagnostic.code == Some(UNKNOWN_OVERRIDE) || diagnostic.code == Some(NOTHING_TO_SAMPLE)
+        }) {
             render::write_diagnostics(
                 &mut error_stream(),
                 &evaluation.sources,
@@ -550,6 +557,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             writeln!(out, "{}", source.label)?;
         }
         render::table::write_sheet(out, &evaluation, options)?;
+        if let Some(summary) = &evaluation.samples {
+            render::spread::write_summary(out, summary, options)?;
+        }
         if arguments.working {
             let working =
                 render::working::working(&evaluation, Builtins::standard(), options.digits);
@@ -714,7 +724,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
     let rows: Vec<Vec<String>> = catalog_entries()
         .iter()
         .filter(|entry| match (dimension_filter, &text_filter) {
-            (Some(dimension), _) => entry.unit.dimension == dimension,
+            (Some(dimension), _) => entry.unit().dimension == dimension,
             (None, Some(text)) => {
                 entry.definition.name.to_lowercase().contains(text)
                     || entry
@@ -726,12 +736,12 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
             (None, None) => true,
         })
         .map(|entry| {
-            let dimension = entry.unit.dimension;
+            let dimension = entry.unit().dimension;
             let dimension_text = match dimension.quantity_name() {
                 Some(name) => format!("{name} ({dimension})"),
                 None => dimension.to_string(),
             };
-            let mut factor = entry.unit.factor.describe();
+            let mut factor = entry.unit().factor.describe();
             if let Some(offset) = entry.definition.offset.filter(|offset| *offset != "0") {
                 factor = format!("(x + {offset}) * {factor}");
             }

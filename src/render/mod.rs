@@ -6,6 +6,8 @@ pub mod json;
 pub mod plot;
 pub mod report;
 pub mod snippet;
+pub mod spread;
+pub mod spread_chart;
 pub mod table;
 pub mod text_table;
 pub mod working;

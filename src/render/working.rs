@@ -83,6 +83,17 @@ pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> V
         if line.expression.starts_with("column ") {
             continue;
         }
+        // A sampled line shows the P50 of its samples, which no substitution of single values
+        // gives: its spread is in the summary instead.
+        let sampled = evaluation.samples.as_ref().is_some_and(|summary| {
+            summary
+                .lines
+                .iter()
+                .any(|spread| spread.line == line.number)
+        });
+        if sampled {
+            continue;
+        }
         let substituted = substitute(&line.expression, &lookup);
         let span = line_spans.get(line.number.wrapping_sub(1)).copied();
         let relations = span

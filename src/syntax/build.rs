@@ -33,6 +33,12 @@ pub fn parse_sheet(source: &str) -> ParsedSheet {
 /// Parses a sheet whose text starts at byte `base` of a larger offset space (an included
 /// sheet laid after the one that includes it).
 pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
+    let cores = std::thread::available_parallelism().map_or(1, usize::from);
+    parse_sheet_with(source, base, cores)
+}
+
+/// `parse_sheet_at` on at most `threads` threads (a long sheet's lines are split between them).
+pub fn parse_sheet_with(source: &str, base: usize, threads: usize) -> ParsedSheet {
     let mut raw_lines = Vec::new();
     // Editors on some systems start a UTF-8 file with a byte-order mark; it is not text.
     let (source, mut offset) = match source.strip_prefix(BYTE_ORDER_MARK) {
@@ -60,9 +66,7 @@ pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
         })
     };
     // Lines parse independently, so a long sheet is split across the machine's cores.
-    let workers = std::thread::available_parallelism()
-        .map_or(1, usize::from)
-        .min(8);
+    let workers = threads.min(8);
     let results: Vec<Result<Line, (Line, SyntaxError)>> =
         if workers > 1 && raw_lines.len() >= PARALLEL_PARSE_LINES {
             let chunk = raw_lines.len().div_ceil(workers);
@@ -111,6 +115,35 @@ const PARALLEL_PARSE_LINES: usize = 2_000;
 /// Parses one line whose text starts at byte `offset` of its file.
 pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, SyntaxError> {
     guard_against_deep_input(text, offset)?;
+    if let Some(kind_and_comment) = plain_text_line(text) {
+        let (kind, comment) = kind_and_comment;
+        return Ok(Line {
+            number,
+            span: Span::new(offset, offset + text.len()),
+            kind,
+            comment,
+        });
+    }
+    parse_line_with_grammar(text, number, offset)
+}
+
+/// A blank line, a heading or a comment alone: what the grammar makes of them is plain (a
+/// heading or a comment is the rest of the line, trimmed), so they skip the parser's fixed
+/// cost. Anything else is `None` and goes to the grammar.
+fn plain_text_line(text: &str) -> Option<(LineKind, Option<String>)> {
+    let rest = text.trim_start_matches([' ', '\t']);
+    if rest.is_empty() {
+        return Some((LineKind::Blank, None));
+    }
+    if let Some(heading) = rest.strip_prefix("##") {
+        return Some((LineKind::Heading(heading.trim().to_string()), None));
+    }
+    let comment = rest.strip_prefix('#')?;
+    Some((LineKind::Comment, Some(comment.trim().to_string())))
+}
+
+/// One line through the grammar (every line but the plain ones of `plain_text_line`).
+fn parse_line_with_grammar(text: &str, number: usize, offset: usize) -> Result<Line, SyntaxError> {
     let mut pairs =
         WorksheetParser::parse(Rule::line, text).map_err(|error| convert(error, text, offset))?;
     let line_pair = pairs.next().ok_or_else(|| internal(offset))?;
@@ -324,7 +357,7 @@ impl Builder {
                 }
                 Rule::parameters => parameters = Some(self.parameters(inner)?),
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
-                Rule::ranged | Rule::file_column | Rule::solve | Rule::fit => {
+                Rule::ranged | Rule::file_column | Rule::solve | Rule::fit | Rule::distribution => {
                     expression = Some(self.line_value(inner)?)
                 }
                 _ => {}
@@ -482,6 +515,13 @@ impl Builder {
                 }),
             };
         }
+        if rule == Rule::distribution {
+            // The rule's last repetition takes the spaces before a comment: not part of it.
+            let trimmed = pair.as_str().trim_end().len();
+            let span = Span::new(span.start, span.start + trimmed);
+            let kind = ExpressionKind::Distribution(Box::new(self.distribution(pair)?));
+            return Ok(Expression { kind, span });
+        }
         let mut expressions = Vec::new();
         let mut names = Vec::new();
         let mut path = None;
@@ -541,6 +581,73 @@ impl Builder {
             _ => return Err(internal(span.start)),
         };
         Ok(Expression { kind, span })
+    }
+
+    /// `lognormal median 1e-9 m/s factor 3 between … and … rank 0.5 with t`.
+    fn distribution(&self, pair: Pair<Rule>) -> Result<Distribution, SyntaxError> {
+        let start = self.span(&pair).start;
+        let mut inner = pair.into_inner();
+        let shape = inner.next().ok_or_else(|| internal(start))?;
+        let mut family = match shape.as_rule() {
+            Rule::normal => Family::Normal,
+            Rule::lognormal => Family::LogNormalFactor,
+            Rule::uniform => Family::Uniform,
+            Rule::loguniform => Family::LogUniform,
+            Rule::triangular => Family::Triangular,
+            _ => return Err(internal(start)),
+        };
+        let mut parameters = Vec::new();
+        for part in shape.into_inner() {
+            match part.as_rule() {
+                Rule::expression => parameters.push(self.expression(part)?),
+                Rule::log_spread => {
+                    for spread in part.into_inner() {
+                        match spread.as_rule() {
+                            Rule::sdln_keyword => family = Family::LogNormalSdLn,
+                            Rule::sdlog10_keyword => family = Family::LogNormalSdLog10,
+                            Rule::expression => parameters.push(self.expression(spread)?),
+                            _ => {}
+                        }
+                    }
+                }
+                _ => {}
+            }
+        }
+        let mut bounds = None;
+        let mut correlations = Vec::new();
+        for tail in inner {
+            let rule = tail.as_rule();
+            let mut expressions = Vec::new();
+            let mut with = None;
+            for part in tail.into_inner() {
+                match part.as_rule() {
+                    Rule::expression => expressions.push(self.expression(part)?),
+                    Rule::name => {
+                        with = Some(Name {
+                            text: part.as_str().to_string(),
+                            span: self.span(&part),
+                        })
+                    }
+                    _ => {}
+                }
+            }
+            match (rule, with) {
+                (Rule::truncation, _) => {
+                    bounds = Some(expressions.try_into().map_err(|_| internal(start))?)
+                }
+                (Rule::correlation, Some(with)) => {
+                    let rank = expressions.pop().ok_or_else(|| internal(start))?;
+                    correlations.push(Correlation { rank, with });
+                }
+                _ => return Err(internal(start)),
+            }
+        }
+        Ok(Distribution {
+            family,
+            parameters,
+            bounds,
+            correlations,
+        })
     }
 
     /// `from` and the tail `to B step S` or `to B count N [log]`.
@@ -985,6 +1092,15 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::and_keyword => "`and`",
         Rule::against_keyword => "`against`",
         Rule::axis => "`x` or `y`",
+        Rule::mean_keyword => "`mean`",
+        Rule::sd_keyword => "`sd`",
+        Rule::median_keyword | Rule::geomean_keyword => "`median` or `geomean`",
+        Rule::log_spread | Rule::factor_keyword | Rule::sdln_keyword | Rule::sdlog10_keyword => {
+            "`factor`, `sdln` or `sdlog10`"
+        }
+        Rule::likely_keyword => "`likely`",
+        Rule::with_keyword => "`with`",
+        Rule::truncation | Rule::correlation | Rule::rank_keyword => "`between` or `rank`",
         Rule::parameter | Rule::parameters => "a parameter name",
         _ => return None,
     })
@@ -993,6 +1109,63 @@ fn describe(rule: Rule) -> Option<&'static str> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// Blank lines, headings and comments alone skip the grammar: each gives exactly the line
+    /// the grammar gives, and lines that only look like them still go through it.
+    #[test]
+    fn plain_lines_read_as_the_grammar_reads_them() {
+        let plain = [
+            "",
+            " ",
+            "\t \t",
+            "#",
+            "# a comment",
+            "   #  indented comment  ",
+            "##",
+            "## Heading",
+            "\t## Heading with (parentheses) and \"quotes\" ",
+            "###  three",
+            "#x = 1 m",
+            "## ünïcödé  ",
+            "# trailing\u{a0}",
+            "#\u{3000}wide space",
+        ];
+        for text in plain {
+            assert!(plain_text_line(text).is_some(), "{text:?} is plain");
+            assert_eq!(
+                parse_line(text, 3, 10),
+                parse_line_with_grammar(text, 3, 10),
+                "{text:?}"
+            );
+        }
+        let not_plain = [
+            "x = 1 m # note",
+            "\u{a0}",
+            "\u{3000}# wide space first",
+            "@title: t",
+            "check a > b",
+            "\x0b",
+            "x",
+            " x = 2",
+        ];
+        for text in not_plain {
+            assert!(
+                plain_text_line(text).is_none(),
+                "{text:?} goes to the grammar"
+            );
+        }
+        // The depth guard still looks at every line first, as it did.
+        for text in [
+            format!("# {}", "(".repeat(NESTING_LIMIT + 1)),
+            format!("## {}", "1 + ".repeat(OPERATOR_LIMIT + 1)),
+        ] {
+            assert_eq!(
+                parse_line(&text, 1, 0),
+                guard_against_deep_input(&text, 0)
+                    .and_then(|()| parse_line_with_grammar(&text, 1, 0))
+            );
+        }
+    }
 
     fn expression(text: &str) -> Expression {
         parse_expression(text).unwrap_or_else(|error| panic!("{text}: {error}"))
@@ -1038,6 +1211,20 @@ mod tests {
                 shape(&solve.lower),
                 shape(&solve.upper)
             ),
+            ExpressionKind::Distribution(distribution) => {
+                let mut parts: Vec<String> = distribution.parameters.iter().map(shape).collect();
+                if let Some([low, high]) = &distribution.bounds {
+                    parts.push(format!("between {} and {}", shape(low), shape(high)));
+                }
+                for correlation in &distribution.correlations {
+                    parts.push(format!(
+                        "rank {} with {}",
+                        shape(&correlation.rank),
+                        correlation.with.text
+                    ));
+                }
+                format!("{:?}({})", distribution.family, parts.join(","))
+            }
             ExpressionKind::Call {
                 function,
                 arguments,
@@ -1091,6 +1278,60 @@ mod tests {
         check("30 %", "30[%]");
         check("f(1 mD, ρ, 2)", "f(1[mD],ρ,2)");
         check("250mD", "250[mD]");
+    }
+
+    /// The value of a named line, as a shape.
+    fn line_value(text: &str) -> String {
+        match parse_line(text, 1, 0).map(|line| line.kind) {
+            Ok(LineKind::Definition(definition)) => shape(&definition.expression),
+            other => panic!("{text}: {other:?}"),
+        }
+    }
+
+    #[test]
+    fn distributions_with_their_parameters_bounds_and_correlations() {
+        for (text, expected) in [
+            ("x = normal mean 0.9 m sd 0.05 m", "Normal(0.9[m],0.05[m])"),
+            ("x = normal mean 0.35 sd 0.05", "Normal(0.35,0.05)"),
+            (
+                "K = lognormal median 1e-9 m/s factor 3",
+                "LogNormalFactor(1e-9[m/s],3)",
+            ),
+            (
+                "K = lognormal geomean 1e-9 m/s sdln 1.1",
+                "LogNormalSdLn(1e-9[m/s],1.1)",
+            ),
+            (
+                "K = lognormal median 2 * k sdlog10 0.5",
+                "LogNormalSdLog10((2*k),0.5)",
+            ),
+            ("n = uniform 0.3 to 0.45", "Uniform(0.3,0.45)"),
+            (
+                "k = loguniform 1 mD to 1 darcy",
+                "LogUniform(1[mD],1[darcy])",
+            ),
+            (
+                "h = triangular 0.1 m to 0.6 m likely 0.3 m",
+                "Triangular(0.1[m],0.6[m],0.3[m])",
+            ),
+            (
+                "n = normal mean 0.35 sd 0.1 between 0 and 1 rank -0.5 with K rank 0.2 with t",
+                "Normal(0.35,0.1,between 0 and 1,rank -0.5 with K,rank 0.2 with t)",
+            ),
+        ] {
+            assert_eq!(line_value(text), expected, "{text}");
+        }
+        // A name that happens to be a family's word is still a name.
+        assert_eq!(line_value("y = normal * 2"), "(normal*2)");
+        assert_eq!(line_value("y = uniform"), "uniform");
+        // A family without its words is a syntax error that names them.
+        let error = parse_line("x = normal mean 1 m", 1, 0).unwrap_err();
+        assert!(error.to_string().contains("`sd`"), "{error}");
+        let error = parse_line("x = lognormal median 1 m 3", 1, 0).unwrap_err();
+        assert!(
+            error.to_string().contains("`factor`, `sdln` or `sdlog10`"),
+            "{error}"
+        );
     }
 
     #[test]

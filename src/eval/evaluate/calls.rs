@@ -1,8 +1,9 @@
 //! Calls: built-ins (row by row over columns, through their kernels) and sheet functions.
 
 use super::*;
+use crate::eval::columns::Rows;
 use crate::eval::error::{EvalError, EvalErrorKind};
-use crate::eval::function::CallError;
+use crate::eval::function::{CallError, ColumnKernel, Function, RowFailure};
 use crate::eval::value::{Column, Quantity, Value};
 use crate::syntax::{Expression, FunctionDefinition, Span};
 use crate::units::Dimension;
@@ -14,6 +15,18 @@ pub(super) const SHORT_CALL: usize = 8;
 /// Nesting of sheet-function calls beyond which a call is refused (recursion is refused at
 /// definition, so only a pathological chain of distinct functions reaches it).
 pub(super) const CALL_DEPTH_LIMIT: usize = 64;
+/// How a distribution called like a function (`lognormal(…)`) is written.
+fn distribution_written(name: &str) -> Option<&'static str> {
+    Some(match name {
+        "normal" => "normal mean 0.9 m sd 0.05 m",
+        "lognormal" => "lognormal median 1e-9 m/s factor 3",
+        "uniform" => "uniform 0.2 to 0.4",
+        "loguniform" => "loguniform 1 mD to 100 mD",
+        "triangular" => "triangular 0.1 m to 0.6 m likely 0.3 m",
+        _ => return None,
+    })
+}
+
 impl<'l> Calculator<'l> {
     /// A call of a built-in: whole-column functions get the values as they are; others are
     /// applied row by row, with the dimensions checked on the first row only.
@@ -25,6 +38,13 @@ impl<'l> Calculator<'l> {
         scope: &dyn Scope,
     ) -> Result<Value, Failure> {
         let Some(callee) = self.library.function(&function.text) else {
+            if let Some(written) = distribution_written(&function.text) {
+                let message = format!(
+                    "a distribution is not a function call: write it as `{written}` (the README's Uncertainty section lists them)"
+                );
+                let kind = EvalErrorKind::Distribution { message };
+                return Err(EvalError::new(kind, function.span).into());
+            }
             let kind = if scope.lookup(&function.text).is_some()
                 || self.library.constant(&function.text).is_some()
             {
@@ -85,6 +105,13 @@ impl<'l> Calculator<'l> {
             )
         };
         if let Some(result) = callee.call_values(&values, &mut self.provenance) {
+            // Over samples, a function of whole columns would combine the samples of a block.
+            let sampled = self.sampling.is_some()
+                && values.iter().any(|value| matches!(value, Value::Column(_)));
+            if sampled {
+                let what = "a function of whole columns (an aggregate, a table, layers, wells)";
+                return Err(EvalError::new(EvalErrorKind::NotWithSamples { what }, span).into());
+            }
             return result.map_err(|error| call_error(error).into());
         }
         let mut rows = None;
@@ -152,55 +179,62 @@ impl<'l> Calculator<'l> {
         let shape = callee
             .call(&first_row, &mut self.provenance)
             .map_err(|error| call_error(error).in_row(0, &origin))?;
-        let columns: Vec<crate::eval::columns::Rows> =
-            values.iter().map(crate::eval::columns::Rows::of).collect();
-        let mut results = Vec::with_capacity(rows);
-        results.push(shape.value);
-        let mut row_values = first_row;
-        let failed = if let Some(kernel) = callee.row_kernel(&row_values) {
-            let mut numbers: Vec<f64> = row_values.iter().map(|quantity| quantity.value).collect();
-            (1..rows).find_map(|row| {
-                for (number, column) in numbers.iter_mut().zip(&columns) {
-                    *number = column.at(row);
+        let columns: Vec<Rows> = values.iter().map(Rows::of).collect();
+        let computed = match callee.column_kernel(&first_row) {
+            Some(kernel) => {
+                let mut results = vec![0.0; rows];
+                results[0] = shape.value;
+                match rows_in_parallel(kernel.as_ref(), &columns, &mut results, self.threads) {
+                    None => Ok(results),
+                    Some(failure) => Err(failure),
                 }
-                match kernel(&numbers) {
-                    Ok(value) if value.is_finite() => {
-                        results.push(value);
-                        None
-                    }
-                    Ok(_) => Some((row, None)),
-                    Err(error) => Some((row, Some(error))),
-                }
-            })
-        } else {
-            let provenance = &mut self.provenance;
-            (1..rows).find_map(|row| {
-                for (quantity, column) in row_values.iter_mut().zip(&columns) {
-                    quantity.value = column.at(row);
-                }
-                match callee.call(&row_values, provenance) {
-                    Ok(value) if value.value.is_finite() => {
-                        results.push(value.value);
-                        None
-                    }
-                    Ok(_) => Some((row, None)),
-                    Err(error) => Some((row, Some(error))),
-                }
-            })
+            }
+            None => self.rows_one_by_one(callee, first_row, &columns, rows, shape.value),
         };
-        if let Some((row, error)) = failed {
-            let error = match error {
-                Some(error) => call_error(error),
-                None => EvalError::new(EvalErrorKind::NotFinite, span),
-            };
-            return Err(error.in_row(row, &origin).into());
+        match computed {
+            Ok(results) => Ok(Value::Column(Column {
+                values: Arc::new(results),
+                dimension: shape.dimension,
+                temperature: shape.temperature,
+                origin,
+            })),
+            Err(RowFailure { row, error }) => {
+                let error = match error {
+                    Some(error) => call_error(error),
+                    None => EvalError::new(EvalErrorKind::NotFinite, span),
+                };
+                Err(error.in_row(row, &origin).into())
+            }
         }
-        Ok(Value::Column(Column {
-            values: Arc::new(results),
-            dimension: shape.dimension,
-            temperature: shape.temperature,
-            origin,
-        }))
+    }
+
+    /// Rows 1.. of a call of a function without a kernel, each through `call`.
+    fn rows_one_by_one(
+        &mut self,
+        callee: &dyn Function,
+        mut row_values: Vec<Quantity>,
+        columns: &[Rows<'_>],
+        rows: usize,
+        first_value: f64,
+    ) -> Result<Vec<f64>, RowFailure> {
+        let mut results = Vec::with_capacity(rows);
+        results.push(first_value);
+        for row in 1..rows {
+            for (quantity, column) in row_values.iter_mut().zip(columns) {
+                quantity.value = column.at(row);
+            }
+            match callee.call(&row_values, &mut self.provenance) {
+                Ok(value) if value.value.is_finite() => results.push(value.value),
+                Ok(_) => return Err(RowFailure { row, error: None }),
+                Err(error) => {
+                    return Err(RowFailure {
+                        row,
+                        error: Some(error),
+                    })
+                }
+            }
+        }
+        Ok(results)
     }
 
     /// Resolves a function's declared units once at its definition; returns its signature.
@@ -302,4 +336,48 @@ pub(super) fn unit_span(function: &FunctionDefinition) -> Span {
         .result_unit
         .as_ref()
         .map_or(function.name.span, |unit| unit.span)
+}
+
+/// The fewest rows a thread of a column kernel takes: a column is split across the cores only
+/// from twice this many rows. Starting a thread and joining it costs far less than 20 000 rows
+/// of even the cheapest relation (see DEVELOPERS.md, Performance).
+pub(crate) const PARALLEL_ROWS: usize = 20_000;
+
+/// Rows 1.. of a call through its kernel into `results` (row 0 holds the first row's value),
+/// split into one contiguous span per thread (at most `threads`) when the column is long.
+/// Every span stops at its own first failure, so the first failing span's failure is the
+/// column's first failing row, the one a row-by-row loop would report.
+fn rows_in_parallel(
+    kernel: &dyn ColumnKernel,
+    arguments: &[Rows<'_>],
+    results: &mut [f64],
+    threads: usize,
+) -> Option<RowFailure> {
+    let rest = &mut results[1..];
+    let threads = threads.min(rest.len() / PARALLEL_ROWS.max(1)).max(1);
+    if threads == 1 {
+        return kernel.rows(arguments, 1, rest).err();
+    }
+    let span = rest.len().div_ceil(threads);
+    std::thread::scope(|scope| {
+        let mut pending = Vec::with_capacity(threads);
+        let mut spans = rest.chunks_mut(span).enumerate();
+        // This thread takes the first span itself.
+        let (_, own) = spans.next()?;
+        for (index, chunk) in spans {
+            let first = 1 + index * span;
+            pending.push(scope.spawn(move || kernel.rows(arguments, first, chunk)));
+        }
+        let mut failed = kernel.rows(arguments, 1, own).err();
+        for handle in pending {
+            // A kernel that panicked is our bug: the panic goes on as it would on one thread.
+            let outcome = handle
+                .join()
+                .unwrap_or_else(|panic| std::panic::resume_unwind(panic));
+            if failed.is_none() {
+                failed = outcome.err();
+            }
+        }
+        failed
+    })
 }
