@@ -48,8 +48,9 @@ use super::dimensions::{
 use super::formulation::{refused, Formulation, OutOfRange};
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
 use super::water;
-use super::water::{fmt_num, out_of_range};
+use super::water::out_of_range;
 use crate::eval::function::{CallError, ValidRange};
+use crate::numeric::message_number;
 
 const LALIBERTE_2009: &str = "Laliberté, M., 2009, A model for calculating the heat capacity \
 of aqueous solutions, with updated density and viscosity data, Journal of Chemical & \
@@ -332,9 +333,9 @@ fn checked<const N: usize>(
                 formulation,
                 format!(
                     "T = {} °C is outside {} to {} °C, the fitted range for {name}",
-                    fmt_num(t_c),
-                    fmt_num(range.t_min_celsius),
-                    fmt_num(range.t_max_celsius)
+                    message_number(t_c),
+                    message_number(range.t_min_celsius),
+                    message_number(range.t_max_celsius)
                 ),
             ));
         }
@@ -346,8 +347,8 @@ fn checked<const N: usize>(
             formulation,
             format!(
                 "the salt mass fraction {} is above {}, the fitted limit",
-                fmt_num(total),
-                fmt_num(total_limit)
+                message_number(total),
+                message_number(total_limit)
             ),
         ));
     }
@@ -445,13 +446,16 @@ pub fn nacl_viscosity_at_pressure(
     if !(20.0..=150.0).contains(&t_c) {
         return Err(out_of_range(
             &KESTIN_PRESSURE,
-            format!("T = {} °C is outside 20 to 150 °C", fmt_num(t_c)),
+            format!("T = {} °C is outside 20 to 150 °C", message_number(t_c)),
         ));
     }
     if !(0.1e6..=35e6).contains(&p_pa) {
         return Err(out_of_range(
             &KESTIN_PRESSURE,
-            format!("p = {} MPa is outside 0.1 to 35 MPa", fmt_num(p_pa / 1e6)),
+            format!(
+                "p = {} MPa is outside 0.1 to 35 MPa",
+                message_number(p_pa / 1e6)
+            ),
         ));
     }
     let molality = nacl_molality(w);
@@ -460,8 +464,8 @@ pub fn nacl_viscosity_at_pressure(
             &KESTIN_PRESSURE,
             format!(
                 "the NaCl mass fraction {} is above {}, 6 mol/kg, the limit of the pressure factor",
-                fmt_num(w),
-                fmt_num(nacl_mass_fraction(KESTIN_MOLALITY_MAX))
+                message_number(w),
+                message_number(nacl_mass_fraction(KESTIN_MOLALITY_MAX))
             ),
         ));
     }
@@ -506,7 +510,7 @@ pub fn nacl_thermal_conductivity(
     if !(20.0..=150.0).contains(&t_c) {
         return Err(out_of_range(
             &OZBEK_PHILLIPS_CONDUCTIVITY,
-            format!("T = {} °C is outside 20 to 150 °C", fmt_num(t_c)),
+            format!("T = {} °C is outside 20 to 150 °C", message_number(t_c)),
         ));
     }
     if !(0.0..=CONDUCTIVITY_SALT_MAX).contains(&w) {
@@ -514,8 +518,8 @@ pub fn nacl_thermal_conductivity(
             &OZBEK_PHILLIPS_CONDUCTIVITY,
             format!(
                 "the NaCl mass fraction {} is outside 0 to {}",
-                fmt_num(w),
-                fmt_num(CONDUCTIVITY_SALT_MAX)
+                message_number(w),
+                message_number(CONDUCTIVITY_SALT_MAX)
             ),
         ));
     }
