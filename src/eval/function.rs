@@ -57,6 +57,16 @@ pub trait Function: Sync {
     fn signature(&self) -> String;
     /// One line on what it computes.
     fn summary(&self) -> &'static str;
+    /// The formula of each form, in the sheet's operators (`q = K * i`), for listings; empty
+    /// for the built-ins that are not relations.
+    fn formulas(&self) -> Vec<&'static str> {
+        Vec::new()
+    }
+    /// The formula of the form that these arguments call, with its parameters' names, for the
+    /// working of a line.
+    fn formula_for(&self, _arguments: &[Quantity]) -> Option<FormulaUse> {
+        None
+    }
     /// The formulations behind it, for listings.
     fn formulations(&self) -> Vec<&'static Formulation> {
         Vec::new()
@@ -92,6 +102,14 @@ pub trait Function: Sync {
     fn details(&self) -> Vec<String> {
         Vec::new()
     }
+}
+
+/// The formula a call used: its text and the form's parameters in order, each with the SI
+/// value it takes when left out.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FormulaUse {
+    pub formula: &'static str,
+    pub parameters: Vec<(&'static str, Option<f64>)>,
 }
 
 /// Computes one row of a function from the rows' plain SI numbers.

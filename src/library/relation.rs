@@ -13,7 +13,7 @@
 //! meant (`hydraulic_conductivity(k, T)` for water or `(k, rho, mu)` for any fluid): the first
 //! form whose argument count and dimensions match is used.
 
-use crate::eval::function::{CallError, RowKernel, ValidRange};
+use crate::eval::function::{CallError, FormulaUse, RowKernel, ValidRange};
 use crate::eval::{Formulation, Function, Provenance, Quantity};
 use crate::units::{Dimension, Unit};
 
@@ -107,6 +107,11 @@ pub struct Form {
     /// The unit a result is usually stated in, for listings (`m/s`).
     pub unit: &'static str,
     pub formulations: &'static [&'static Formulation],
+    /// The formula in the sheet's operators over the parameters' names (`q = K * i`), shown in
+    /// listings and in the working, where each parameter name is replaced by the call's value.
+    /// Where a formulation has no short closed form, the property it evaluates and its
+    /// arguments (`rho = 1 / (dg/dp)(T, p)`).
+    pub formula: &'static str,
     /// A call that works, shown in listings and walked by the generic test.
     pub example: &'static str,
     pub body: Body,
@@ -341,6 +346,17 @@ impl Relation {
         }
     }
 
+    /// The formula of each form, without repeats (`K = k * rho * g0 / mu`), for listings.
+    pub fn formulas(&self) -> Vec<&'static str> {
+        let mut formulas: Vec<&'static str> = Vec::new();
+        for form in self.forms {
+            if !formulas.contains(&form.formula) {
+                formulas.push(form.formula);
+            }
+        }
+        formulas
+    }
+
     /// The parameter lists of the forms, without repeats: `(k, T[, p]) or (k, rho, mu)`.
     pub fn parameter_lists(&self) -> String {
         let mut lists: Vec<String> = Vec::new();
@@ -361,6 +377,22 @@ impl Function for Relation {
 
     fn summary(&self) -> &'static str {
         self.summary
+    }
+
+    fn formulas(&self) -> Vec<&'static str> {
+        Relation::formulas(self)
+    }
+
+    fn formula_for(&self, arguments: &[Quantity]) -> Option<FormulaUse> {
+        let form = self.form_for(arguments).ok()?;
+        Some(FormulaUse {
+            formula: form.formula,
+            parameters: form
+                .parameters
+                .iter()
+                .map(|parameter| (parameter.name, parameter.default))
+                .collect(),
+        })
     }
 
     fn formulations(&self) -> Vec<&'static Formulation> {
@@ -452,6 +484,7 @@ impl Function for Relation {
                 form.parameter_list(),
                 form.result.phrase()
             ));
+            lines.push(format!("  {}", form.formula));
             for parameter in form.parameters {
                 lines.push(format!("  {}", parameter.describe()));
             }
@@ -634,6 +667,35 @@ mod tests {
             }
         }
         assert!(walked >= 100, "walked {walked} parameters");
+    }
+
+    /// Every form declares its formula as `symbol = right side`, and the right side names each
+    /// of the form's parameters (the working puts the call's values in place of those names).
+    #[test]
+    fn every_form_declares_a_formula_over_its_parameters() {
+        let is_name_character = |c: char| c.is_alphanumeric() || c == '_';
+        let mut forms = 0;
+        for relation in Builtins::standard().relations() {
+            for form in relation.forms {
+                let (symbol, right) = form
+                    .formula
+                    .split_once(" = ")
+                    .unwrap_or_else(|| panic!("{}: `{}`", relation.name, form.formula));
+                assert!(!symbol.trim().is_empty(), "{}", relation.name);
+                let words: Vec<&str> = right.split(|c| !is_name_character(c)).collect();
+                for parameter in form.parameters {
+                    assert!(
+                        words.contains(&parameter.name),
+                        "{}: `{}` does not name `{}`",
+                        relation.name,
+                        form.formula,
+                        parameter.name
+                    );
+                }
+                forms += 1;
+            }
+        }
+        assert!(forms >= 100, "{forms} forms");
     }
 
     /// The column fast path is the body itself: every row goes through the same checks.
