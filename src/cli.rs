@@ -719,7 +719,16 @@ fn list_functions(
             ]);
         }
     }
-    write_listing(out, &["name", "kind", "summary", "source"], &rows, options)
+    write_listing(out, &["name", "kind", "summary", "source"], &rows, options)?;
+    // `functions NAME` of one relation: its formulas, parameters and an example under the row.
+    let named = filter.and_then(|name| crate::eval::Library::function(library, name));
+    if let (Some(function), Format::Table) = (named, options.format) {
+        writeln!(out)?;
+        for line in function.details() {
+            writeln!(out, "{line}")?;
+        }
+    }
+    Ok(())
 }
 
 /// A plain listing in any format.
