@@ -125,10 +125,11 @@ fn run_working_substitutes_values_and_cites_the_relation() {
     assert!(stdout.contains("q = lambda_rock * grad"), "{stdout}");
     assert!(stdout.contains("= (2.5 W/(m*K)) * (30 K/km)"), "{stdout}");
     assert!(stdout.contains("= 75 mW/m^2"), "{stdout}");
-    // The relation's formula with the values in it, and its source.
-    assert!(stdout.contains("q = -lambda dT_dx"), "{stdout}");
+    // The relation's declared formula, the same with the call's values in SI and its result
+    // (2.5 W/(m*K) x 0.03 K/m = 0.075 W/m^2, by hand), and its source.
+    assert!(stdout.contains("q = -lambda * dT_dx"), "{stdout}");
     assert!(
-        stdout.contains("-(2.5 m kg s^-3 K^-1) (0.03 m^-1 K)"),
+        stdout.contains("q = -(2.5 W/(m*K)) * (0.03 K/m) = -0.075 W/m^2"),
         "{stdout}"
     );
     assert!(stdout.contains("Fourier, J., 1822"), "{stdout}");
@@ -137,6 +138,41 @@ fn run_working_substitutes_values_and_cites_the_relation() {
         stdout.contains("mean({420, 380, 510, … 4 rows} mD)"),
         "{stdout}"
     );
+}
+
+/// The working is written from the syntax tree: parentheses where precedence needs them, a
+/// `--set` value in place of the sheet's, a default argument named, a column call's first row.
+#[test]
+fn run_working_is_built_from_the_syntax_tree() {
+    let folder = tempfile::tempdir().unwrap();
+    write(
+        &folder.path().join("w.fxs"),
+        "a = 5 m\nb = 2 m\nc = 3\n\
+h [m] = -(a - b)^2 / (c * b)\n\
+T = {10, 20} degC\n\
+K [m/s] = hydraulic_conductivity(100 mD, T)\n",
+    );
+    let (code, stdout, stderr) = run_in(
+        folder.path(),
+        &["run", "--working", "w.fxs", "--set", "a=6 m"],
+    );
+    assert_eq!(code, 0, "{stderr}");
+    assert!(stdout.contains("h = -(a - b)^2 / (c * b)"), "{stdout}");
+    // (6 - 2)^2 / (3 x 2) = 16 / 6 = 2.667 m, by hand.
+    assert!(
+        stdout.contains("= -((6 m) - (2 m))^2 / (3 * (2 m))"),
+        "{stdout}"
+    );
+    assert!(stdout.contains("= -2.667 m"), "{stdout}");
+    assert!(
+        stdout.contains("= hydraulic_conductivity(100 mD, {10, 20} degC)"),
+        "{stdout}"
+    );
+    assert!(
+        stdout.contains("p = 101300 Pa (left out)) (row 1 of 2)"),
+        "{stdout}"
+    );
+    assert!(stdout.contains("rho_w(283.2 K, 101300 Pa)"), "{stdout}");
 }
 
 #[test]

@@ -104,12 +104,12 @@ pub trait Function: Sync {
     }
 }
 
-/// The formula a call used: its text and the form's parameters in order, each with the SI
-/// value it takes when left out.
+/// The formula a call used: its text and the form's parameters in order, each with the value
+/// it takes when left out.
 #[derive(Debug, Clone, PartialEq)]
 pub struct FormulaUse {
     pub formula: &'static str,
-    pub parameters: Vec<(&'static str, Option<f64>)>,
+    pub parameters: Vec<(&'static str, Option<Quantity>)>,
 }
 
 /// Computes one row of a function from the rows' plain SI numbers.

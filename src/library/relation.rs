@@ -390,7 +390,12 @@ impl Function for Relation {
             parameters: form
                 .parameters
                 .iter()
-                .map(|parameter| (parameter.name, parameter.default))
+                .map(|parameter| {
+                    let default = parameter
+                        .default
+                        .map(|value| Quantity::new(value, parameter.dimension));
+                    (parameter.name, default)
+                })
                 .collect(),
         })
     }

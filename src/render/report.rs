@@ -439,14 +439,16 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
             writeln!(out, "{indent}= {}\n```\n", step.result)?;
             for relation in &step.relations {
                 writeln!(out, "- {}", md_code(&relation.call))?;
-                if !relation.formula.is_empty() {
-                    writeln!(
-                        out,
-                        "  - formula {} with the values: {}",
-                        md_code(&relation.formula),
-                        md_code(&relation.substituted)
-                    )?;
-                }
+                writeln!(
+                    out,
+                    "  - formula {} with the values: {}",
+                    md_code(&relation.formula),
+                    md_code(&format!(
+                        "{}{}",
+                        relation.substituted,
+                        relation.result_suffix()
+                    ))
+                )?;
                 for citation in &relation.citations {
                     writeln!(out, "  - after {}", md_cell(citation))?;
                 }
@@ -662,14 +664,13 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
             )?;
             for relation in &step.relations {
                 writeln!(out, "<p><code>{}</code>", escape(&relation.call))?;
-                if !relation.formula.is_empty() {
-                    writeln!(
-                        out,
-                        "<br>formula <code>{}</code> with the values: <code>{}</code>",
-                        escape(&relation.formula),
-                        escape(&relation.substituted)
-                    )?;
-                }
+                writeln!(
+                    out,
+                    "<br>formula <code>{}</code> with the values: <code>{}{}</code>",
+                    escape(&relation.formula),
+                    escape(&relation.substituted),
+                    escape(&relation.result_suffix())
+                )?;
                 for citation in &relation.citations {
                     writeln!(out, "<br>after {}", escape(citation))?;
                 }

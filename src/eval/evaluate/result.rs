@@ -63,6 +63,9 @@ pub struct LineOutcome {
     pub name: Option<String>,
     /// The expression's source text (empty for headings and comments).
     pub expression: String,
+    /// Where that text lies in the sources, for a named or shown line: parsed again at this
+    /// offset, its calls meet the `CallRecord`s of the evaluation.
+    pub expression_span: Option<Span>,
     pub comment: Option<String>,
     pub result: LineResult,
     /// How the value was found, where that is worth saying (a solve's iterations).
