@@ -201,7 +201,8 @@ pub fn blocks(evaluation: &Evaluation, digits: u32) -> Vec<Block> {
                 .title
                 .clone()
                 .unwrap_or_else(|| line.expression.clone());
-            match super::plot::plot_svg(plot) {
+            // The caption carries the title; the drawing does not repeat it.
+            match super::plot::plot_svg_untitled(plot) {
                 // Inline SVG in HTML needs no namespace, and the report names no outside address.
                 Ok(svg) => blocks.push(Block::Figure(Figure {
                     caption,

@@ -109,8 +109,13 @@ pub struct PlotOutcome {
     pub x: Vec<f64>,
     /// Each series' name and values, all in the first series' unit.
     pub series: Vec<(String, Vec<f64>)>,
+    /// Logarithmic axes, as drawn: x across, y up (or down).
     pub log_x: bool,
     pub log_y: bool,
+    /// The x column down the vertical axis (a depth profile).
+    pub down: bool,
+    /// Markers only, no line (a cross-plot).
+    pub points: bool,
 }
 
 /// A line's value with the unit it is shown in.
