@@ -597,10 +597,7 @@ fn html_report_renders_in_headless_chromium() {
 
 /// `chromium` on the `PATH`, where the Debian package puts it.
 fn chromium() -> Option<PathBuf> {
-    let path = std::env::var_os("PATH")?;
-    std::env::split_paths(&path)
-        .map(|folder| folder.join("chromium"))
-        .find(|candidate| candidate.exists())
+    crate::util::program("chromium")
 }
 
 // ----- 5. check --against an earlier run -----

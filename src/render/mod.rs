@@ -4,6 +4,7 @@
 pub mod json;
 pub mod number;
 pub mod plot;
+pub mod print;
 pub mod report;
 pub mod snippet;
 pub mod table;

@@ -568,19 +568,32 @@ figure.chart { margin: 1rem 0; }
 figure.chart svg { max-width: 100%; height: auto; }
 div.step pre { margin: 0.25rem 0 0.5rem; white-space: pre-wrap; }
 section.caution { background: #fff8e1; border-left: 4px solid #d29922; padding: 0.25rem 1rem; margin-top: 2rem; }
-@media print { main { max-width: none; } tr { break-inside: avoid; } }
 ";
 
 /// Writes the report as one HTML page with its style inline and no outside resources.
 pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()> {
     let evaluation = context.evaluation;
     let title = format!("Calculation report: {}", file_name(context.label));
+    // The running header names the project, or the sheet's title when it has no project.
+    let field = |name: &str| {
+        evaluation
+            .fields
+            .iter()
+            .rev()
+            .find(|field| field.name == name && !field.text.is_empty())
+            .map(|field| field.text.as_str())
+    };
+    let page_style = super::print::page_style(
+        field("project").or_else(|| field("title")),
+        file_name(context.label),
+        context.version,
+    );
     writeln!(
         out,
         "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n\
 <meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n\
-<meta name=\"generator\" content=\"fluxsheet {}\">\n<title>{}</title>\n<style>{STYLE}</style>\n\
-</head>\n<body>\n<main>",
+<meta name=\"generator\" content=\"fluxsheet {}\">\n<title>{}</title>\n\
+<style>{STYLE}{page_style}</style>\n</head>\n<body>\n<main>",
         escape(context.version),
         escape(&title)
     )?;
