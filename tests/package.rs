@@ -129,7 +129,9 @@ fn run_working_substitutes_values_and_cites_the_relation() {
     // (2.5 W/(m*K) x 0.03 K/m = 0.075 W/m^2, by hand), and its source.
     assert!(stdout.contains("q = -lambda * dT_dx"), "{stdout}");
     assert!(
-        stdout.contains("q = -(2.5 W/(m*K)) * (0.03 K/m) = -0.075 W/m^2"),
+        stdout.contains(
+            "    q = -lambda * dT_dx\n      = -(2.5 W/(m*K)) * (0.03 K/m)\n      = -0.075 W/m^2\n"
+        ),
         "{stdout}"
     );
     assert!(stdout.contains("Fourier, J., 1822"), "{stdout}");

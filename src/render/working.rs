@@ -363,7 +363,11 @@ fn in_parentheses(text: String) -> String {
     }
 }
 
-/// Writes the working as plain text, for `run --working`.
+/// Width the plain-text working is wrapped to: a 100-column terminal.
+pub const TEXT_WIDTH: usize = 100;
+
+/// Writes the working as plain text, for `run --working`, as a hand calculation is set out:
+/// each `=` under the first, and each relation's formula with its values below the line.
 pub fn write_text(out: &mut dyn std::io::Write, all: &[Working]) -> std::io::Result<()> {
     writeln!(out, "\nWorking")?;
     for working in all {
@@ -372,23 +376,58 @@ pub fn write_text(out: &mut dyn std::io::Write, all: &[Working]) -> std::io::Res
             None => format!("line {}  ", working.line),
         };
         let indent = " ".repeat(head.chars().count().saturating_sub(2));
-        writeln!(out, "{head}{}", working.expression)?;
-        writeln!(out, "{indent}= {}", working.substituted)?;
-        writeln!(out, "{indent}= {}", working.result)?;
+        let steps = [
+            (head.clone(), &working.expression),
+            (format!("{indent}= "), &working.substituted),
+            (format!("{indent}= "), &working.result),
+        ];
+        for (prefix, text) in steps {
+            write_wrapped(out, &prefix, text)?;
+        }
         for relation in &working.relations {
-            writeln!(out, "{indent}  {}: {}", relation.call, relation.formula)?;
-            writeln!(
-                out,
-                "{indent}  {}{}",
-                relation.substituted,
-                relation.result_suffix()
-            )?;
+            write_wrapped(out, "    ", &relation.call)?;
+            let (symbol, _) = relation
+                .formula
+                .split_once(" = ")
+                .unwrap_or(("", &relation.formula));
+            let under = format!("{}= ", " ".repeat(4 + symbol.chars().count() + 1));
+            write_wrapped(out, "    ", &relation.formula)?;
+            let values = relation
+                .substituted
+                .split_once(" = ")
+                .map_or(relation.substituted.as_str(), |(_, right)| right);
+            write_wrapped(out, &under, values)?;
+            if !relation.result.is_empty() {
+                write_wrapped(out, &under, &relation.result)?;
+            }
             for citation in &relation.citations {
-                writeln!(out, "{indent}  after {citation}")?;
+                write_wrapped(out, "    after ", citation)?;
             }
         }
     }
     Ok(())
+}
+
+/// `prefix` and `text` wrapped at spaces to `TEXT_WIDTH` columns, each further line indented
+/// two spaces past the prefix. A word longer than the width stays whole.
+fn write_wrapped(out: &mut dyn std::io::Write, prefix: &str, text: &str) -> std::io::Result<()> {
+    let continuation = " ".repeat(prefix.chars().count().min(40) + 2);
+    let mut line = prefix.to_string();
+    let mut empty = true;
+    for word in text.split(' ') {
+        let width = line.chars().count();
+        if !empty && width + 1 + word.chars().count() > TEXT_WIDTH {
+            writeln!(out, "{line}")?;
+            line = format!("{continuation}{word}");
+        } else {
+            if !empty {
+                line.push(' ');
+            }
+            line.push_str(word);
+        }
+        empty = false;
+    }
+    writeln!(out, "{line}")
 }
 
 /// `value unit`, or the bare number for a plain number.
@@ -575,6 +614,23 @@ mod tests {
         check("(2 m)^2", "(2 m)^2");
         check("2 m^2", "2 m^2");
         check("i * -K", "0.02 * -(2e-5 m/s)");
+    }
+
+    #[test]
+    fn text_wraps_at_the_width_under_its_prefix() {
+        let mut out = Vec::new();
+        let words = vec!["word"; 40].join(" ");
+        write_wrapped(&mut out, "    after ", &words).unwrap();
+        let text = String::from_utf8(out).unwrap();
+        let lines: Vec<&str> = text.lines().collect();
+        assert!(lines.len() >= 2, "{text}");
+        assert!(
+            lines.iter().all(|line| line.chars().count() <= TEXT_WIDTH),
+            "{text}"
+        );
+        assert!(lines[0].starts_with("    after word"));
+        assert!(lines[1].starts_with("            word"), "{text}");
+        assert_eq!(text.matches("word").count(), 40);
     }
 
     #[test]
