@@ -703,6 +703,64 @@ mod tests {
         assert!(forms >= 100, "{forms} forms");
     }
 
+    /// A formula written in the sheet's own operators and functions is evaluated as a sheet,
+    /// with each parameter set to the SI value of the example's argument (or its default), and
+    /// must give the body's value: the formula shown in the working is the one computed.
+    /// Formulas over functions a sheet does not have (`W(u)`, `erfc`, `rho_w(T, p)`) or in
+    /// fixed units are left to the reference tests; most forms are plain algebra.
+    #[test]
+    fn formulas_in_sheet_operators_give_the_body_value() {
+        let library = Builtins::standard();
+        let mut checked = Vec::new();
+        for relation in library.relations() {
+            let function = library.function(relation.name).expect("registered");
+            for form in relation.forms {
+                let example = example_arguments(form);
+                let expected = function
+                    .call(&example, &mut Provenance::default())
+                    .expect("the example evaluates");
+                let mut sheet = String::new();
+                for (index, parameter) in form.parameters.iter().enumerate() {
+                    let quantity = match (example.get(index), parameter.default) {
+                        (Some(quantity), _) => *quantity,
+                        (None, Some(value)) => Quantity::new(value, parameter.dimension),
+                        (None, None) => unreachable!("the example gives every required argument"),
+                    };
+                    let unit = quantity.dimension.preferred_si_unit();
+                    let unit = if unit == "1" { String::new() } else { unit };
+                    sheet.push_str(&format!(
+                        "{} = {:e} {unit}\n",
+                        parameter.name, quantity.value
+                    ));
+                }
+                let (_, right) = form.formula.split_once(" = ").expect("symbol = right side");
+                sheet.push_str(&format!("formula_value = {right}\n"));
+                let evaluation = evaluate_sheet(&sheet, Builtins::standard());
+                let Some(LineResult::Value(Shown::Scalar(shown))) =
+                    evaluation.lines.last().map(|line| &line.result)
+                else {
+                    continue;
+                };
+                assert_eq!(shown.quantity.dimension, form.result, "{}", form.formula);
+                let difference = (shown.quantity.value - expected.value).abs();
+                assert!(
+                    difference <= 1e-9 * expected.value.abs().max(f64::MIN_POSITIVE),
+                    "{}: `{}` gives {} where the body gives {}",
+                    form.example,
+                    form.formula,
+                    shown.quantity.value,
+                    expected.value
+                );
+                checked.push(form.example);
+            }
+        }
+        assert!(
+            checked.len() >= 60,
+            "{} checked: {checked:?}",
+            checked.len()
+        );
+    }
+
     /// The column fast path is the body itself: every row goes through the same checks.
     #[test]
     fn row_kernels_check_every_row() {

@@ -162,7 +162,7 @@ u > 0.05 (common practice cites 0.01 to 0.05): use theis_drawdown there; Cooper 
             result: LENGTH,
             unit: "m",
             formulations: &[&COOPER_JACOB],
-            formula: "s = Q / (4 * pi * T) * (-0.5772 - ln(r^2 * S / (4 * T * t)))",
+            formula: "s = Q / (4 * pi * T) * (-0.5772156649 - ln(r^2 * S / (4 * T * t)))",
             example: "cooper_jacob_drawdown(15 L/s, 2e-3 m^2/s, 1e-4, 30 m, 2 d)",
             body: cooper_jacob_drawdown,
         }],
