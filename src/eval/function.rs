@@ -110,6 +110,8 @@ pub trait Function: Sync {
 pub struct FormulaUse {
     pub formula: &'static str,
     pub parameters: Vec<(&'static str, Option<Quantity>)>,
+    /// The formulations this form follows (those it records when called).
+    pub formulations: &'static [&'static Formulation],
 }
 
 /// Computes one row of a function from the rows' plain SI numbers.

@@ -397,6 +397,7 @@ impl Function for Relation {
                     (parameter.name, default)
                 })
                 .collect(),
+            formulations: form.formulations,
         })
     }
 

@@ -450,8 +450,8 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
                         relation.result_suffix()
                     ))
                 )?;
-                for citation in &relation.citations {
-                    writeln!(out, "  - after {}", md_cell(citation))?;
+                for title in &relation.formulations {
+                    writeln!(out, "  - after {} (see Sources)", md_cell(title))?;
                 }
             }
             if !step.relations.is_empty() {
@@ -685,8 +685,8 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
                     escape(&relation.substituted),
                     escape(&relation.result_suffix())
                 )?;
-                for citation in &relation.citations {
-                    writeln!(out, "<br>after {}", escape(citation))?;
+                for title in &relation.formulations {
+                    writeln!(out, "<br>after {} (see Sources)", escape(title))?;
                 }
                 writeln!(out, "</p>")?;
             }

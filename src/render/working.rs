@@ -35,14 +35,15 @@ pub struct Working {
 
 /// A built-in relation called on a line: the call with its values, its declared formula, the
 /// formula with the call's values in it (SI, as the formula is written), the call's result and
-/// the formulations it follows. A call over columns shows its first row.
+/// the titles of the formulations it follows (cited in full in the sources of the report and
+/// the footer of `run`). A call over columns shows its first row.
 #[derive(Debug, Clone, PartialEq)]
 pub struct RelationWorking {
     pub call: String,
     pub formula: String,
     pub substituted: String,
     pub result: String,
-    pub citations: Vec<String>,
+    pub formulations: Vec<&'static str>,
 }
 
 /// The working of every computed line of the main sheet (lines that name another value or
@@ -281,6 +282,7 @@ impl TreeWriter<'_> {
         let FormulaUse {
             formula,
             parameters,
+            formulations,
         } = builtin.formula_for(&arguments)?;
         let digits = self.digits;
         let mut values: Vec<(&str, String)> = Vec::new();
@@ -333,10 +335,9 @@ impl TreeWriter<'_> {
             formula: formula.to_string(),
             substituted,
             result,
-            citations: builtin
-                .formulations()
+            formulations: formulations
                 .iter()
-                .map(|formulation| format!("{}: {}", formulation.title, formulation.citation))
+                .map(|formulation| formulation.title)
                 .collect(),
         })
     }
@@ -400,8 +401,8 @@ pub fn write_text(out: &mut dyn std::io::Write, all: &[Working]) -> std::io::Res
             if !relation.result.is_empty() {
                 write_wrapped(out, &under, &relation.result)?;
             }
-            for citation in &relation.citations {
-                write_wrapped(out, "    after ", citation)?;
+            for title in &relation.formulations {
+                write_wrapped(out, "    after ", title)?;
             }
         }
     }
