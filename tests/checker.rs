@@ -579,7 +579,7 @@ fn html_report_renders_in_headless_chromium() {
     }
     let output = child.wait_with_output().unwrap();
     let dom = String::from_utf8_lossy(&output.stdout);
-    assert!(dom.contains("<table class=\"lines\">"), "{dom}");
+    assert!(dom.contains("<table class=\"lines"), "{dom}");
     assert!(dom.contains("<td class=\"value\">0.6096</td>"), "{dom}");
     assert!(dom.contains("<td>L_m</td>"));
     assert!(dom.contains("<span class=\"failed\">FAILED</span>"));

@@ -560,6 +560,19 @@ fn the_html_report_prints_on_a4_and_letter() {
                 "{paper}: a page of readings without the header row"
             );
         }
+        // The nine rows of the temperature sweep, a short table, print whole on one page.
+        let sweep_headers = pages
+            .iter()
+            .flat_map(|page| page.lines())
+            .filter(|line| {
+                line.split_whitespace().collect::<Vec<_>>()
+                    == ["row", "T_sweep", "[degC]", "K_sweep", "[m/s]"]
+            })
+            .count();
+        assert_eq!(
+            sweep_headers, 1,
+            "{paper}: the sweep's table split across pages"
+        );
         // Each chart whole on one page: its caption and both axis titles together.
         for (caption, across, upright) in [
             ("Temperature log of QL-4", "T [degC]", "z [m]"),

@@ -37,7 +37,7 @@ const PRINT: &str = "@media print {
   h2, h3 { break-after: avoid; }
   h2 { margin-top: 1.2rem; }
   thead { display: table-header-group; }
-  tr, div.step, figure.chart, table.meta, section.caution, li { break-inside: avoid; }
+  tr, div.step, figure.chart, table.meta, table.whole, section.caution, li { break-inside: avoid; }
   p { orphans: 3; widows: 3; }
   table.lines th:nth-child(1) { width: 7%; } table.lines th:nth-child(2) { width: 14%; }
   table.lines th:nth-child(3) { width: 11%; } table.lines th:nth-child(4) { width: 10%; }
@@ -47,6 +47,19 @@ const PRINT: &str = "@media print {
   tr.failed td, tr.error td, th, section.caution { print-color-adjust: exact; -webkit-print-color-adjust: exact; }
 }
 ";
+
+/// Tables of at most this many rows print whole, on the next page when they do not fit: a
+/// short table split leaves a header and a row or two alone at the foot of a page.
+pub const WHOLE_TABLE_ROWS: usize = 20;
+
+/// ` whole` for a table short enough to keep on one page, for its class attribute.
+pub fn whole_class(rows: usize) -> &'static str {
+    if rows <= WHOLE_TABLE_ROWS {
+        " whole"
+    } else {
+        ""
+    }
+}
 
 /// A CSS string literal holding `text` exactly: every character that could end the string,
 /// the rule or the style element (quotes, backslashes, `<`, line breaks) as a hex escape.

@@ -640,7 +640,11 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
                 escape(&figure.caption)
             )?,
             Block::Columns { header, rows } => {
-                writeln!(out, "<table class=\"columns\">\n<thead><tr>")?;
+                writeln!(
+                    out,
+                    "<table class=\"columns{}\">\n<thead><tr>",
+                    super::print::whole_class(rows.len())
+                )?;
                 for cell in &header {
                     write!(out, "<th>{}</th>", escape(cell))?;
                 }
@@ -786,8 +790,9 @@ exact unit definitions and exact constants.</p>"
 fn write_html_rows(out: &mut dyn Write, rows: &[Row]) -> io::Result<()> {
     writeln!(
         out,
-        "<table class=\"lines\">\n<thead><tr><th>line</th><th>name</th><th>value</th><th>unit</th>\
-<th>expression</th><th>note</th></tr></thead>\n<tbody>"
+        "<table class=\"lines{}\">\n<thead><tr><th>line</th><th>name</th><th>value</th><th>unit</th>\
+<th>expression</th><th>note</th></tr></thead>\n<tbody>",
+        super::print::whole_class(rows.len())
     )?;
     for row in rows {
         let class = match row.kind {
