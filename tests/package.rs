@@ -420,9 +420,8 @@ fn pdf_pages(pdftotext: &Path, pdf: &Path) -> Vec<String> {
     pages
 }
 
-/// Chromium prints `html` to `pdf`, with its own header and footer off, so that only the
-/// report's page-margin boxes head and foot the pages.
-fn print_to_pdf(chromium: &Path, html: &Path, pdf: &Path) {
+/// Chromium prints `html` to `pdf`, with `options` besides the headless ones.
+fn print_to_pdf(chromium: &Path, html: &Path, pdf: &Path, options: &[&str]) {
     let profile = tempfile::tempdir().unwrap();
     let mut child = Command::new(chromium)
         .args([
@@ -433,8 +432,8 @@ fn print_to_pdf(chromium: &Path, html: &Path, pdf: &Path) {
             "--disable-component-update",
             "--disable-sync",
             "--no-first-run",
-            "--no-pdf-header-footer",
         ])
+        .args(options)
         .arg(format!("--user-data-dir={}", profile.path().display()))
         .arg(format!("--print-to-pdf={}", pdf.display()))
         .arg(format!("file://{}", html.display()))
@@ -455,9 +454,11 @@ fn print_to_pdf(chromium: &Path, html: &Path, pdf: &Path) {
 
 /// The HTML report printed by headless Chromium on A4 and on Letter (the paper chosen as a
 /// print dialog would, by a `size` rule added to a copy): every page carries the project and
-/// the report in its header and "page N of M" in its footer; a column table spanning pages
-/// repeats its header row; no page ends on a heading; each chart lies whole on one page. The
-/// test is skipped on a workstation without Chromium or pdftotext and fails in CI.
+/// the report in its header and "page N of M" in its footer, whether Chromium's own header
+/// and footer are switched off (A4) or left on (Letter: the report's replace them); a column
+/// table spanning pages repeats its header row; a short table and each chart lie whole on one
+/// page; no page ends on a heading. The test is skipped on a workstation without Chromium or
+/// pdftotext and fails in CI.
 #[test]
 fn the_html_report_prints_on_a4_and_letter() {
     let (Some(chromium), Some(pdftotext)) = (
@@ -475,7 +476,11 @@ fn the_html_report_prints_on_a4_and_letter() {
     let (code, _, stderr) = run_in(folder.path(), &["report", "basin.fxs", "-o", "basin.html"]);
     assert_eq!(code, 0, "{stderr}");
     let html = std::fs::read_to_string(folder.path().join("basin.html")).unwrap();
-    for (paper, width_mm) in [("A4", 210.0), ("letter", 215.9)] {
+    let browser_header_footer_off: &[&str] = &["--no-pdf-header-footer"];
+    for (paper, width_mm, options) in [
+        ("A4", 210.0, browser_header_footer_off),
+        ("letter", 215.9, &[][..]),
+    ] {
         let copy = folder.path().join(format!("basin-{paper}.html"));
         let pdf = folder.path().join(format!("basin-{paper}.pdf"));
         write(
@@ -485,8 +490,13 @@ fn the_html_report_prints_on_a4_and_letter() {
                 &format!("<style>@page {{ size: {paper}; }}</style></head>"),
             ),
         );
-        print_to_pdf(&chromium, &copy, &pdf);
+        print_to_pdf(&chromium, &copy, &pdf, options);
         let pages = pdf_pages(&pdftotext, &pdf);
+        // Nothing of the browser's own header and footer (the address, the page's title).
+        assert!(
+            pages.iter().all(|page| !page.contains("file:")),
+            "{paper}: the browser's footer is printed"
+        );
         let count = pages.len();
         assert!((3..=12).contains(&count), "{paper}: {count} pages");
         for (index, page) in pages.iter().enumerate() {
