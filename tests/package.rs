@@ -175,6 +175,15 @@ K [m/s] = hydraulic_conductivity(100 mD, T)\n",
         "{stdout}"
     );
     assert!(stdout.contains("rho_w(283.2 K, 101300 Pa)"), "{stdout}");
+    // The working fits a 100-column terminal.
+    let working = &stdout[stdout.find("\nWorking\n").expect("a working")..];
+    for line in working.lines() {
+        assert!(
+            line.chars().count() <= 100,
+            "{} columns: {line}",
+            line.chars().count()
+        );
+    }
 }
 
 #[test]
