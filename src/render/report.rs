@@ -439,23 +439,18 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
             writeln!(out, "{indent}= {}", step.substituted)?;
             writeln!(out, "{indent}= {}\n```\n", step.result)?;
             for relation in &step.relations {
-                writeln!(out, "- {}", md_code(&relation.call))?;
+                let after: Vec<String> = relation
+                    .formulations
+                    .iter()
+                    .map(|title| md_cell(title))
+                    .collect();
                 writeln!(
                     out,
-                    "  - formula {} with the values: {}",
-                    md_code(&relation.formula),
-                    md_code(&format!(
-                        "{}{}",
-                        relation.substituted,
-                        relation.result_suffix()
-                    ))
+                    "{}, after {} (see Sources):\n",
+                    md_code(&relation.call),
+                    after.join("; ")
                 )?;
-                for title in &relation.formulations {
-                    writeln!(out, "  - after {} (see Sources)", md_cell(title))?;
-                }
-            }
-            if !step.relations.is_empty() {
-                writeln!(out)?;
+                writeln!(out, "```text\n{}\n```\n", relation.steps().join("\n"))?;
             }
         }
     }
@@ -567,6 +562,8 @@ span.passed { color: #116329; }
 figure.chart { margin: 1rem 0; }
 figure.chart svg { max-width: 100%; height: auto; }
 div.step pre { margin: 0.25rem 0 0.5rem; white-space: pre-wrap; }
+div.step p.relation, div.step pre.relation { margin-left: 1.5rem; }
+div.step p.relation { font-size: 0.92rem; margin-bottom: 0; }
 section.caution { background: #fff8e1; border-left: 4px solid #d29922; padding: 0.25rem 1rem; margin-top: 2rem; }
 ";
 
@@ -681,18 +678,19 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
                 escape(&step.result)
             )?;
             for relation in &step.relations {
-                writeln!(out, "<p><code>{}</code>", escape(&relation.call))?;
+                let after: Vec<String> = relation
+                    .formulations
+                    .iter()
+                    .map(|title| escape(title))
+                    .collect();
                 writeln!(
                     out,
-                    "<br>formula <code>{}</code> with the values: <code>{}{}</code>",
-                    escape(&relation.formula),
-                    escape(&relation.substituted),
-                    escape(&relation.result_suffix())
+                    "<p class=\"relation\"><code>{}</code>, after {} (see Sources):</p>\
+<pre class=\"relation\">{}</pre>",
+                    escape(&relation.call),
+                    after.join("; "),
+                    escape(&relation.steps().join("\n"))
                 )?;
-                for title in &relation.formulations {
-                    writeln!(out, "<br>after {} (see Sources)", escape(title))?;
-                }
-                writeln!(out, "</p>")?;
             }
             writeln!(out, "</div>")?;
         }

@@ -344,14 +344,23 @@ impl TreeWriter<'_> {
 }
 
 impl RelationWorking {
-    /// ` = 1.2 m/s`, or nothing when the call is refused on its own (never for a call the
-    /// sheet evaluated).
-    pub fn result_suffix(&self) -> String {
-        if self.result.is_empty() {
-            String::new()
-        } else {
-            format!(" = {}", self.result)
+    /// The relation set out as a hand calculation: its formula, then `= ` the formula with the
+    /// values in it, then `= ` its result, each `=` under the formula's.
+    pub fn steps(&self) -> Vec<String> {
+        let (symbol, _) = self
+            .formula
+            .split_once(" = ")
+            .unwrap_or(("", &self.formula));
+        let under = format!("{}= ", " ".repeat(symbol.chars().count() + 1));
+        let values = self
+            .substituted
+            .split_once(" = ")
+            .map_or(self.substituted.as_str(), |(_, right)| right);
+        let mut steps = vec![self.formula.clone(), format!("{under}{values}")];
+        if !self.result.is_empty() {
+            steps.push(format!("{under}{}", self.result));
         }
+        steps
     }
 }
 
@@ -387,19 +396,14 @@ pub fn write_text(out: &mut dyn std::io::Write, all: &[Working]) -> std::io::Res
         }
         for relation in &working.relations {
             write_wrapped(out, "    ", &relation.call)?;
-            let (symbol, _) = relation
-                .formula
-                .split_once(" = ")
-                .unwrap_or(("", &relation.formula));
-            let under = format!("{}= ", " ".repeat(4 + symbol.chars().count() + 1));
-            write_wrapped(out, "    ", &relation.formula)?;
-            let values = relation
-                .substituted
-                .split_once(" = ")
-                .map_or(relation.substituted.as_str(), |(_, right)| right);
-            write_wrapped(out, &under, values)?;
-            if !relation.result.is_empty() {
-                write_wrapped(out, &under, &relation.result)?;
+            for step in relation.steps() {
+                // The step's own indent (under the `=`) becomes the wrapping prefix.
+                let text = step.trim_start();
+                let indent = format!("    {}", &step[..step.len() - text.len()]);
+                match text.strip_prefix("= ") {
+                    Some(rest) => write_wrapped(out, &format!("{indent}= "), rest)?,
+                    None => write_wrapped(out, &indent, text)?,
+                }
             }
             for title in &relation.formulations {
                 write_wrapped(out, "    after ", title)?;
