@@ -1,13 +1,13 @@
-//! The HTML report on paper: the `@page` rules and print styles that Chromium and other
-//! browsers apply when the report is printed or saved as PDF, on A4 or Letter alike.
+//! The HTML report on paper: the `@page` rules and print styles a browser applies when the
+//! report is printed or saved as PDF, on A4 or Letter alike.
 //!
 //! Page margins leave room for the running header (the project at the left, the report's
 //! sheet at the right) and footer (the tool's version at the left, "page N of M" at the
-//! right), drawn by CSS page-margin boxes so that they come out the same whatever the
-//! browser's own header and footer setting is (headless Chromium: `--no-pdf-header-footer`).
-//! No paper size is set: the printer's or the print dialog's is used. Table rows, working
-//! steps and charts never split across pages, headings stay with what follows them, and a
-//! table's header row repeats on each page it spans.
+//! right), drawn by CSS page-margin boxes. Chromium prints those in place of its own header
+//! and footer, so the pages come out the same whatever that setting is (headless:
+//! `--no-pdf-header-footer` or not). No paper size is set: the print dialog's is used. Table
+//! rows, working steps, charts and short tables never split across pages, headings stay with
+//! what follows them, and a longer table's header row repeats on each page it spans.
 
 /// The print rules of a report about `sheet` (its file name) in `project` (the title block's
 /// project, or its title, when the sheet has one).
