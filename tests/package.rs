@@ -143,7 +143,8 @@ fn run_working_substitutes_values_and_cites_the_relation() {
 }
 
 /// The working is written from the syntax tree: parentheses where precedence needs them, a
-/// `--set` value in place of the sheet's, a default argument named, a column call's first row.
+/// `--set` value in place of the sheet's, a default argument named, a column call's first row,
+/// a sheet function's body with the call's arguments in it.
 #[test]
 fn run_working_is_built_from_the_syntax_tree() {
     let folder = tempfile::tempdir().unwrap();
@@ -151,6 +152,8 @@ fn run_working_is_built_from_the_syntax_tree() {
         &folder.path().join("w.fxs"),
         "a = 5 m\nb = 2 m\nc = 3\n\
 h [m] = -(a - b)^2 / (c * b)\n\
+leak(K [m/s], head, t [m]) [m/d] = K * (head + t) / t\n\
+q = leak(1e-9 m/s, a, b)\n\
 T = {10, 20} degC\n\
 K [m/s] = hydraulic_conductivity(100 mD, T)\n",
     );
@@ -175,6 +178,10 @@ K [m/s] = hydraulic_conductivity(100 mD, T)\n",
         "{stdout}"
     );
     assert!(stdout.contains("rho_w(283.2 K, 101300 Pa)"), "{stdout}");
+    assert!(
+        stdout.contains("    leak(K, head, t) = K * (head + t) / t\n                     = (1e-9 m/s) * ((6 m) + (2 m)) / (2 m)\n"),
+        "{stdout}"
+    );
     // The working fits a 100-column terminal.
     let working = &stdout[stdout.find("\nWorking\n").expect("a working")..];
     for line in working.lines() {

@@ -444,12 +444,11 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
                     .iter()
                     .map(|title| md_cell(title))
                     .collect();
-                writeln!(
-                    out,
-                    "{}, after {} (see Sources):\n",
-                    md_code(&relation.call),
-                    after.join("; ")
-                )?;
+                let after = match after.is_empty() {
+                    true => String::new(),
+                    false => format!(", after {} (see Sources)", after.join("; ")),
+                };
+                writeln!(out, "{}{after}:\n", md_code(&relation.call))?;
                 writeln!(out, "```text\n{}\n```\n", relation.steps().join("\n"))?;
             }
         }
@@ -683,12 +682,15 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
                     .iter()
                     .map(|title| escape(title))
                     .collect();
+                let after = match after.is_empty() {
+                    true => String::new(),
+                    false => format!(", after {} (see Sources)", after.join("; ")),
+                };
                 writeln!(
                     out,
-                    "<p class=\"relation\"><code>{}</code>, after {} (see Sources):</p>\
+                    "<p class=\"relation\"><code>{}</code>{after}:</p>\
 <pre class=\"relation\">{}</pre>",
                     escape(&relation.call),
-                    after.join("; "),
                     escape(&relation.steps().join("\n"))
                 )?;
             }

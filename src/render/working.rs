@@ -14,7 +14,9 @@ use crate::eval::function::FormulaUse;
 use crate::eval::{
     CallRecord, Evaluation, Library, LineResult, Provenance, Quantity, Shown, Value,
 };
-use crate::syntax::{BinaryOperator, Expression, ExpressionKind, Spacing};
+use crate::syntax::{
+    BinaryOperator, Expression, ExpressionKind, FunctionDefinition, LineKind, Spacing,
+};
 use rustc_hash::FxHashMap as HashMap;
 
 /// Rows of a column shown before its statistics.
@@ -83,10 +85,16 @@ pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> V
             .entry((record.span.start, record.span.end))
             .or_insert(record);
     }
+    let definitions = sheet_functions(evaluation);
+    let functions: HashMap<&str, &FunctionDefinition> = definitions
+        .iter()
+        .map(|definition| (definition.name.text.as_str(), definition))
+        .collect();
     let writer = TreeWriter {
         lookup: &lookup,
         library,
         records: &records,
+        functions: &functions,
         digits,
     };
     let mut all = Vec::new();
@@ -163,7 +171,40 @@ struct TreeWriter<'a> {
     lookup: &'a dyn Fn(&str) -> Option<String>,
     library: &'a dyn Library,
     records: &'a HashMap<(usize, usize), &'a CallRecord>,
+    /// The main sheet's functions, whose bodies are shown with a call's arguments in them.
+    functions: &'a HashMap<&'a str, &'a FunctionDefinition>,
     digits: u32,
+}
+
+/// The function definitions of the main sheet, parsed again from its lines.
+fn sheet_functions(evaluation: &Evaluation) -> Vec<FunctionDefinition> {
+    let Some(file) = evaluation.sources.file(0) else {
+        return Vec::new();
+    };
+    let wanted: Vec<usize> = evaluation
+        .lines
+        .iter()
+        .filter(|line| matches!(line.result, LineResult::Function { .. }))
+        .map(|line| line.number)
+        .collect();
+    if wanted.is_empty() {
+        return Vec::new();
+    }
+    let text = file
+        .text
+        .strip_prefix(crate::syntax::BYTE_ORDER_MARK)
+        .unwrap_or(&file.text);
+    text.split('\n')
+        .enumerate()
+        .filter(|(index, _)| wanted.contains(&(index + 1)))
+        .filter_map(|(index, line)| {
+            let line = line.strip_suffix('\r').unwrap_or(line);
+            match crate::syntax::parse_line(line, index + 1, 0).ok()?.kind {
+                LineKind::Function(definition) => Some(definition),
+                _ => None,
+            }
+        })
+        .collect()
 }
 
 impl TreeWriter<'_> {
@@ -221,7 +262,10 @@ impl TreeWriter<'_> {
                     .iter()
                     .map(|argument| self.whole(argument, relations))
                     .collect();
-                if let Some(relation) = self.relation(&function.text, expression) {
+                let relation = self
+                    .relation(&function.text, expression)
+                    .or_else(|| self.sheet_function(&function.text, &written));
+                if let Some(relation) = relation {
                     if !relations.contains(&relation) {
                         relations.push(relation);
                     }
@@ -259,6 +303,46 @@ impl TreeWriter<'_> {
                 format!("{left_text}{}{right_text}", operator_text(*operator))
             }
         }
+    }
+
+    /// The working of a call of one of the sheet's functions: its body with each parameter
+    /// replaced by the argument as written out (`arguments`). Calls inside the body are not
+    /// followed: their values belong to every call of the function at once.
+    fn sheet_function(&self, function: &str, arguments: &[String]) -> Option<RelationWorking> {
+        let definition = self.functions.get(function)?;
+        let parameters: Vec<&str> = definition
+            .parameters
+            .iter()
+            .map(|parameter| parameter.name.text.as_str())
+            .collect();
+        if parameters.len() != arguments.len() {
+            return None;
+        }
+        let lookup = |name: &str| match parameters.iter().position(|known| *known == name) {
+            Some(index) => Some(in_parentheses(arguments[index].clone())),
+            None => (self.lookup)(name),
+        };
+        let body_writer = TreeWriter {
+            lookup: &lookup,
+            library: self.library,
+            records: &HashMap::default(),
+            functions: &HashMap::default(),
+            digits: self.digits,
+        };
+        let symbol = format!("{function}({})", parameters.join(", "));
+        let body = body_writer.whole(&definition.body, &mut Vec::new());
+        let named: Vec<String> = parameters
+            .iter()
+            .zip(arguments)
+            .map(|(parameter, argument)| format!("{parameter} = {argument}"))
+            .collect();
+        Some(RelationWorking {
+            call: format!("{function}({})", named.join(", ")),
+            formula: format!("{symbol} = {}", text_of_tree(&definition.body)),
+            substituted: format!("{symbol} = {body}"),
+            result: String::new(),
+            formulations: Vec::new(),
+        })
     }
 
     /// The working of a call of a relation that declares a formula: its arguments' values
@@ -362,6 +446,19 @@ impl RelationWorking {
         }
         steps
     }
+}
+
+/// A tree written back as it stands, names and all (a sheet function's body).
+fn text_of_tree(expression: &Expression) -> String {
+    let keep = |_: &str| None;
+    TreeWriter {
+        lookup: &keep,
+        library: crate::library::Builtins::standard(),
+        records: &HashMap::default(),
+        functions: &HashMap::default(),
+        digits: 4,
+    }
+    .whole(expression, &mut Vec::new())
 }
 
 /// `(text)` when it has a unit or a sign, so that it reads as one factor.
@@ -576,6 +673,7 @@ mod tests {
             lookup: &values,
             library: Builtins::standard(),
             records: &records,
+            functions: &HashMap::default(),
             digits: 4,
         };
         writer.whole(&tree, &mut Vec::new())
