@@ -1,7 +1,8 @@
 //! Benchmarks: parse + evaluate generated sheets of 10 000 and 100 000 lines (cost must grow
 //! linearly), the cost of single property calls, `fluxsheet check` over a folder of 200
 //! generated 50-line sheets (the pre-commit case, process start included), and session
-//! entries. Run with `cargo bench`.
+//! entries, and a sheet sampled 100 000 times beside a hand-written loop. Run with
+//! `cargo bench`.
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion, Throughput};
 use fluxsheet::eval::evaluate_sheet;
@@ -396,8 +397,183 @@ fn lsp_keystroke(criterion: &mut Criterion) {
     group.finish();
 }
 
+/// A clay liner's leakage with five uncertain inputs and water properties at the base
+/// temperature: 20 lines, sampled 100 000 times.
+pub const LINER_SHEET: &str = "## Clay liner under cell 4, Brackwater Moor landfill (invented site)
+K_lab = lognormal median 2e-10 m/s factor 3
+t_liner = normal mean 0.9 m sd 0.05 m between 0.6 m and 1.2 m
+h_leachate = triangular 0.05 m to 0.6 m likely 0.3 m
+T_base = uniform 8 degC to 14 degC
+n_e = uniform 0.05 to 0.15
+T_lab = 20 degC
+rho_lab = water_density(T_lab)
+mu_lab = water_viscosity(T_lab)
+rho_site = water_density(T_base)
+mu_site [mPa*s] = water_viscosity(T_base)
+K_site [m/s] = K_lab * (rho_site / rho_lab) * (mu_lab / mu_site)
+i = (h_leachate + t_liner) / t_liner
+q [mm/yr] = K_site * i
+A_cell = 2.4 ha
+Q [m^3/d] = q * A_cell
+v [m/yr] = q / n_e
+t_travel [yr] = t_liner / v
+check Q <= 0.5 m^3/d \"permit leakage limit\"
+check t_travel >= 2 yr \"breakthrough time\"
+";
+
+/// Samples of the liner benchmark.
+pub const LINER_SAMPLES: usize = 100_000;
+
+/// The liner sheet's work written by hand: the same generator, scores and transforms, the
+/// same water formulations, and the same summary (sorted percentiles, rank correlations of
+/// each result with each input, check failures), on one thread.
+fn liner_hand_loop(samples: usize, seed: u64) -> (Vec<Vec<f64>>, [usize; 2]) {
+    use fluxsheet::eval::uncertainty::normal::{normal_cdf, normal_quantile};
+    use fluxsheet::eval::uncertainty::scores::BLOCK;
+    use fluxsheet::eval::uncertainty::statistics::{correlation, mean_and_sd, percentile, ranks};
+    use fluxsheet::library::water;
+    use rand::SeedableRng;
+    use rand_distr::Distribution;
+    use uom::si::f64::{Pressure, ThermodynamicTemperature};
+    use uom::si::pressure::pascal;
+    use uom::si::thermodynamic_temperature::kelvin;
+    let p = Pressure::new::<pascal>(101_325.0);
+    let state = |t: f64| ThermodynamicTemperature::new::<kelvin>(t);
+    let (rho_lab, mu_lab) = water::density_and_viscosity(state(293.15), p).expect("in range");
+    let (rho_lab, mu_lab) = (rho_lab.value, mu_lab.value);
+    let kept = (normal_cdf(-6.0), normal_cdf(6.0));
+    let triangle = |u: f64| {
+        let (low, high, likely) = (0.05, 0.6, 0.3);
+        if u <= (likely - low) / (high - low) {
+            low + (u * (high - low) * (likely - low)).sqrt()
+        } else {
+            high - ((1.0 - u) * (high - low) * (high - likely)).sqrt()
+        }
+    };
+    let mut lines: Vec<Vec<f64>> = (0..13).map(|_| Vec::with_capacity(samples)).collect();
+    let mut failed = [0usize; 2];
+    for block in 0..samples.div_ceil(BLOCK) {
+        let len = BLOCK.min(samples - block * BLOCK);
+        let mut generator = rand_chacha::ChaCha8Rng::seed_from_u64(seed);
+        generator.set_stream(block as u64);
+        let scores: Vec<Vec<f64>> = (0..5)
+            .map(|_| {
+                (0..len)
+                    .map(|_| rand_distr::StandardNormal.sample(&mut generator))
+                    .collect()
+            })
+            .collect();
+        #[allow(clippy::needless_range_loop)] // one row across five columns of scores
+        for row in 0..len {
+            let k_lab = 2e-10 * (3f64.ln() * scores[0][row]).exp();
+            let u = kept.0 + (kept.1 - kept.0) * normal_cdf(scores[1][row]);
+            let t_liner = (0.9 + 0.05 * normal_quantile(u)).clamp(0.6, 1.2);
+            let h = triangle(normal_cdf(scores[2][row]));
+            let t_base = 281.15 + 6.0 * normal_cdf(scores[3][row]);
+            let n_e = 0.05 + 0.1 * normal_cdf(scores[4][row]);
+            let (rho, mu) = water::density_and_viscosity(state(t_base), p).expect("in range");
+            let (rho, mu) = (rho.value, mu.value);
+            let k_site = k_lab * (rho / rho_lab) * (mu_lab / mu);
+            let i = (h + t_liner) / t_liner;
+            let q = k_site * i;
+            let flow = q * 24_000.0;
+            let v = q / n_e;
+            let t_travel = t_liner / v;
+            failed[0] += usize::from(flow > 0.5 / 86_400.0 * (1.0 + 1e-9));
+            failed[1] += usize::from(t_travel < 2.0 * 31_557_600.0 * (1.0 - 1e-9));
+            for (line, value) in lines.iter_mut().zip([
+                k_lab, t_liner, h, t_base, n_e, rho, mu, k_site, i, q, flow, v, t_travel,
+            ]) {
+                line.push(value);
+            }
+        }
+    }
+    let ranked: Vec<(Vec<f64>, Vec<f64>)> = lines.iter().map(|line| ranks(line)).collect();
+    let mut summary = Vec::new();
+    for (ranks_of_line, sorted) in &ranked {
+        let (mean, sd) = mean_and_sd(sorted);
+        let mut row = vec![
+            mean,
+            sd,
+            percentile(sorted, 5.0),
+            percentile(sorted, 50.0),
+            percentile(sorted, 95.0),
+        ];
+        row.extend(
+            ranked[..5]
+                .iter()
+                .map(|(input, _)| correlation(ranks_of_line, input).unwrap_or(0.0)),
+        );
+        summary.push(row);
+    }
+    (summary, failed)
+}
+
+/// The liner sheet sampled 100 000 times, on one thread and on every core, beside the loop
+/// written by hand (one thread): `cargo bench --bench engine -- samples/`.
+fn sampled_liner(criterion: &mut Criterion) {
+    use fluxsheet::eval::uncertainty::Sampling;
+    use fluxsheet::eval::{evaluate_with, NoIncludes, Settings};
+    let library = Builtins::standard();
+    let settings = |threads: usize| {
+        let mut sampling = Sampling::new(LINER_SAMPLES, 1);
+        sampling.threads = threads;
+        Settings {
+            sampling: Some(sampling),
+            ..Settings::default()
+        }
+    };
+    let run = |threads: usize| {
+        evaluate_with(
+            "<bench>",
+            LINER_SHEET,
+            library,
+            &mut NoIncludes,
+            &settings(threads),
+        )
+    };
+    // The sheet and the hand loop agree (not timed): P95 of Q, and the failing samples.
+    let evaluation = run(2);
+    let summary = evaluation.samples.as_deref().expect("sampled");
+    let (by_hand, failed) = liner_hand_loop(LINER_SAMPLES, 1);
+    let sheet_q = summary
+        .lines
+        .iter()
+        .find(|line| line.name.as_deref() == Some("Q"))
+        .expect("Q");
+    let hand_p95 = by_hand[10][4] * 86_400.0;
+    assert!(
+        (sheet_q.percentiles[2] - hand_p95).abs() <= 1e-9 * hand_p95,
+        "{} vs {hand_p95}",
+        sheet_q.percentiles[2]
+    );
+    assert_eq!(
+        summary
+            .checks
+            .iter()
+            .map(|check| check.failed)
+            .collect::<Vec<_>>(),
+        failed.to_vec()
+    );
+    let mut group = criterion.benchmark_group("samples");
+    group.sample_size(10);
+    group.throughput(Throughput::Elements(LINER_SAMPLES as u64));
+    group.bench_function("hand_loop_liner_100k", |bencher| {
+        bencher.iter(|| liner_hand_loop(black_box(LINER_SAMPLES), 1))
+    });
+    group.bench_function("sheet_liner_100k_1_thread", |bencher| {
+        bencher.iter(|| run(black_box(1)))
+    });
+    group.bench_function("sheet_liner_100k_all_cores", |bencher| {
+        let cores = std::thread::available_parallelism().map_or(1, |cores| cores.get());
+        bencher.iter(|| run(black_box(cores)))
+    });
+    group.finish();
+}
+
 criterion_group!(
     benches,
+    sampled_liner,
     sheets,
     property_calls,
     check_folder,

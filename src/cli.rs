@@ -4,7 +4,8 @@
 
 use crate::eval::warnings::deny_warnings;
 use crate::eval::{
-    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, UNKNOWN_OVERRIDE,
+    evaluate, evaluate_with, Evaluation, LineResult, Settings, Shown, NOTHING_TO_SAMPLE,
+    UNKNOWN_OVERRIDE,
 };
 use crate::front::limits::{FileKind, ReadLimits};
 use crate::front::streams::{error_stream, PipeSafe};
@@ -24,6 +25,9 @@ mod output_file;
 mod plots;
 mod properties;
 mod report;
+mod sample_args;
+
+pub use sample_args::SampleArgs;
 
 /// Exit codes, as documented in the README.
 pub use crate::front::exit;
@@ -95,6 +99,8 @@ pub struct RunArgs {
     pub working: bool,
     #[command(flatten)]
     pub limits: LimitArgs,
+    #[command(flatten)]
+    pub sampling: SampleArgs,
 }
 
 /// Limits shared by the commands that evaluate sheets.
@@ -120,6 +126,7 @@ impl LimitArgs {
             max_rows: self.max_rows,
             max_total_rows: self.max_total_rows,
             overrides: Vec::new(),
+            sampling: None,
         }
     }
 
@@ -395,6 +402,7 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
     let files = &arguments.files;
     let (allow_outside, deny) = (arguments.allow_outside, arguments.deny_warnings);
     let mut settings = arguments.limits.settings();
+    settings.sampling = arguments.sampling.sampling();
     let read_limits = arguments.limits.read_limits();
     settings.overrides = match parse_overrides(&arguments.overrides) {
         Ok(overrides) => overrides,
@@ -425,11 +433,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
         let path = (file != "-").then(|| Path::new(file.as_str()));
         let (evaluation, inputs) =
             evaluate_file_reading(&source, path, allow_outside, deny, &settings, &read_limits);
-        if evaluation
-            .diagnostics
-            .iter()
-            .any(|diagnostic| diagnostic.code == Some(UNKNOWN_OVERRIDE))
-        {
+        if evaluation.diagnostics.iter().any(|diagnostic| {
+            diagnostic.code == Some(UNKNOWN_OVERRIDE) || diagnostic.code == Some(NOTHING_TO_SAMPLE)
+        }) {
             render::write_diagnostics(
                 &mut error_stream(),
                 &evaluation.sources,
@@ -467,6 +473,9 @@ fn run_files(out: &mut dyn Write, arguments: &RunArgs, options: RenderOptions) -
             writeln!(out, "{}", source.label)?;
         }
         render::table::write_sheet(out, &evaluation, options)?;
+        if let Some(summary) = &evaluation.samples {
+            render::spread::write_summary(out, summary, options)?;
+        }
         if arguments.working {
             let working =
                 render::working::working(&evaluation, Builtins::standard(), options.digits);

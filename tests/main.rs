@@ -23,6 +23,8 @@
 //! - `trust_front`: solve precision over wide brackets, sessions loading sheets with includes,
 //!   expressions starting with a minus sign on the command line.
 //! - `robust_memory`: the row and file-size limits as errors, and long columns streamed.
+//! - `uncertainty`: distributions sampled by `run --samples`: statistics against closed forms
+//!   and regenerated samples, reproducibility across threads, refusals.
 //! - `fuzz_corpus`: the committed fuzz corpus replayed through the fuzz targets' entry points.
 
 mod checker;
@@ -45,6 +47,7 @@ mod transport;
 mod trust;
 mod trust_front;
 mod trust_warnings;
+mod uncertainty;
 mod util;
 mod worksheets;
 mod wrong_attempts;

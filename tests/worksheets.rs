@@ -659,3 +659,49 @@ fn pumping_test_dewatering_pins() {
         .sum();
     assert_close(value(&json, "s_steady"), steady, 1e-11, "s_steady");
 }
+
+/// Without `--samples`, each input is its median (the thickness's bounds are symmetric about
+/// its mean; the triangle 0.05–0.6 m peaking at 0.3 m has F(0.3) = 0.4545, so its median is
+/// 0.6 − sqrt(0.5 · 0.55 · 0.3) m; the base temperature's is 11 degC), and the leakage
+/// follows with water from the independent `seuif97` crate. Sampled, the leakage spreads
+/// around it: K log-normal with factor 3 dominates, so P5 and P95 of Q sit near the median
+/// leakage over and times 3^1.645 (within 25 %, the other inputs' share of the spread).
+#[test]
+fn liner_leakage_uncertainty_pins() {
+    use seuif97::{pt, OD, ODV};
+    let path = worksheet("liner_leakage_uncertainty.fxs");
+    let json = run_json(&path);
+    let water = |celsius: f64| {
+        let pressure_mpa = 0.101325;
+        (
+            pt(pressure_mpa, celsius, (OD, 1)),
+            pt(pressure_mpa, celsius, (ODV, 1)),
+        )
+    };
+    let ((rho_lab, mu_lab), (rho_site, mu_site)) = (water(20.0), water(11.0));
+    let k_site = 2e-10 * (rho_site / rho_lab) * (mu_lab / mu_site);
+    assert_close(value(&json, "K_site"), k_site, 1e-9, "K_site");
+    let h = 0.6 - (0.5f64 * 0.55 * 0.3).sqrt();
+    assert_close(value(&json, "h_leachate"), h, 1e-12, "h_leachate");
+    let q_median = k_site * (h + 0.9) / 0.9 * 24_000.0 * 86_400.0;
+    assert_close(value(&json, "Q"), q_median, 1e-9, "Q [m^3/d]");
+    let output = fluxsheet()
+        .args(["run", "--format", "json", "--samples", "20000"])
+        .arg(&path)
+        .output()
+        .unwrap();
+    let sampled: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
+    let q = sampled["samples"]["lines"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|line| line["name"] == "Q")
+        .unwrap();
+    let spread = 3f64.powf(1.644_853_6);
+    let p5 = q["percentiles"]["P5"].as_f64().unwrap();
+    let p95 = q["percentiles"]["P95"].as_f64().unwrap();
+    assert_close(p5, q_median / spread, 0.25, "P5 of Q");
+    assert_close(p95, q_median * spread, 0.25, "P95 of Q");
+    let permit = &sampled["samples"]["checks"][0];
+    assert!(permit["probability"].as_f64().unwrap() > 0.0, "{permit}");
+}

@@ -29,6 +29,8 @@ pub struct ReportArgs {
     pub allow_outside: bool,
     #[command(flatten)]
     pub limits: super::LimitArgs,
+    #[command(flatten)]
+    pub sampling: super::SampleArgs,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -69,9 +71,20 @@ pub fn run(out: &mut dyn Write, arguments: &ReportArgs, options: RenderOptions) 
         path,
         arguments.allow_outside,
         false,
-        &arguments.limits.settings(),
+        &super::Settings {
+            sampling: arguments.sampling.sampling(),
+            ..arguments.limits.settings()
+        },
         &arguments.limits.read_limits(),
     );
+    let nothing_to_sample = evaluation
+        .diagnostics
+        .iter()
+        .find(|diagnostic| diagnostic.code == Some(crate::eval::NOTHING_TO_SAMPLE));
+    if let Some(diagnostic) = nothing_to_sample {
+        crate::stderr_line!("error: {}", diagnostic.message);
+        return Ok(exit::USAGE);
+    }
     if let Err(message) = refuse_output(output, &inputs.paths) {
         crate::stderr_line!("error: {message}");
         return Ok(exit::USAGE);

@@ -18,6 +18,8 @@ pub struct EvalError {
     /// The row of a column the error happened in: 1-based row and the column's origin line
     /// (boxed: rare, and errors travel the evaluator's hot path).
     pub row: Option<Box<(usize, String)>>,
+    /// The rows are samples of `run --samples` (and `row` counts over all of them).
+    pub in_samples: bool,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -193,6 +195,14 @@ pub enum EvalErrorKind {
     Plot {
         message: String,
     },
+    /// A distribution whose parameters do not make one (wrong dimensions, order, signs).
+    Distribution {
+        message: String,
+    },
+    /// Something a sampled sheet cannot hold: the rows of its columns are the samples.
+    NotWithSamples {
+        what: &'static str,
+    },
 }
 
 /// The operation that found two dimensions at odds.
@@ -210,6 +220,7 @@ impl EvalError {
             span,
             labels: Vec::new(),
             row: None,
+            in_samples: false,
         }
     }
 
@@ -218,6 +229,16 @@ impl EvalError {
         if self.row.is_none() {
             self.row = Some(Box::new((row + 1, origin.to_string())));
         }
+        self
+    }
+
+    /// Marks the rows as samples of `run --samples`, the first of this block being sample
+    /// `first_sample + 1`.
+    pub fn in_samples(mut self, first_sample: usize) -> EvalError {
+        if let Some(row) = self.row.as_mut() {
+            row.0 += first_sample;
+        }
+        self.in_samples = true;
         self
     }
 
@@ -283,6 +304,7 @@ impl fmt::Display for EvalError {
     fn fmt(&self, formatter: &mut fmt::Formatter<'_>) -> fmt::Result {
         self.kind.fmt(formatter)?;
         match self.row.as_deref() {
+            Some((sample, _)) if self.in_samples => write!(formatter, " (in sample {sample})"),
             Some((row, origin)) if origin.is_empty() => write!(formatter, " (in row {row})"),
             Some((row, origin)) => write!(formatter, " (in row {row} of `{origin}`)"),
             None => Ok(()),
@@ -439,7 +461,12 @@ impl fmt::Display for EvalErrorKind {
             | EvalErrorKind::Solve { message }
             | EvalErrorKind::Fit { message }
             | EvalErrorKind::Override { message }
-            | EvalErrorKind::Plot { message } => formatter.write_str(message),
+            | EvalErrorKind::Plot { message }
+            | EvalErrorKind::Distribution { message } => formatter.write_str(message),
+            EvalErrorKind::NotWithSamples { what } => write!(
+                formatter,
+                "{what} cannot be sampled with `--samples` yet: the rows of a sampled sheet's columns are its samples"
+            ),
             EvalErrorKind::TooManyRows { rows, limit } => write!(
                 formatter,
                 "a column of {rows} rows is longer than the limit of {limit} rows (raise it with `--max-rows`)"

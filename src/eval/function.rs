@@ -129,7 +129,8 @@ pub struct Constant {
 }
 
 /// What the evaluator needs from a library of built-ins.
-pub trait Library {
+/// `Sync`: a sampled sheet is evaluated on several threads at once.
+pub trait Library: Sync {
     fn function(&self, name: &str) -> Option<&dyn Function>;
     fn constant(&self, name: &str) -> Option<&Constant>;
     /// Every function and constant name, for "did you mean" hints.

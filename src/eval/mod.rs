@@ -14,6 +14,7 @@ pub mod order;
 pub mod session;
 mod solve;
 pub mod sources;
+pub mod uncertainty;
 pub mod value;
 pub mod warnings;
 
@@ -21,7 +22,8 @@ pub use diagnostic::{Diagnostic, Severity};
 pub use error::{EvalError, EvalErrorKind};
 pub use evaluate::{
     evaluate, evaluate_sheet, evaluate_with, CallRecord, CheckOutcome, Evaluation, LineOutcome,
-    LineResult, PlotOutcome, Settings, Shown, ShownColumn, ShownValue, UNKNOWN_OVERRIDE,
+    LineResult, PlotOutcome, Settings, Shown, ShownColumn, ShownValue, NOTHING_TO_SAMPLE,
+    UNKNOWN_OVERRIDE,
 };
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
 pub use sources::{

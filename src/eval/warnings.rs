@@ -189,6 +189,9 @@ fn first_unit(expression: &Expression) -> Option<&str> {
             unit: Some(unit), ..
         } => Some(unit.text.as_str()),
         ExpressionKind::Range(range) => range.parts().into_iter().find_map(first_unit),
+        ExpressionKind::Distribution(distribution) => {
+            distribution.parameters.iter().find_map(first_unit)
+        }
         ExpressionKind::Negate(inner) => first_unit(inner),
         ExpressionKind::Binary { left, right, .. } => {
             first_unit(left).or_else(|| first_unit(right))

@@ -19,6 +19,10 @@ pub struct SheetJson<'e> {
     pub checks: Vec<CheckJson<'e>>,
     pub diagnostics: Vec<DiagnosticJson>,
     pub formulations: Vec<FormulationJson>,
+    /// With `--samples N`: the spread of each uncertain line, each check's probability of
+    /// failing, and the inputs that drive each result.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub samples: Option<Box<crate::render::spread::SamplesJson>>,
 }
 
 #[derive(Serialize)]
@@ -242,6 +246,10 @@ pub fn sheet_json<'e>(
         lines,
         checks,
         diagnostics: diagnostics_json(&evaluation.sources, &evaluation.diagnostics),
+        samples: evaluation
+            .samples
+            .as_deref()
+            .map(|summary| Box::new(crate::render::spread::samples_json(summary))),
         formulations: evaluation
             .provenance
             .formulations()

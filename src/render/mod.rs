@@ -7,6 +7,8 @@ pub mod plot;
 pub mod print;
 pub mod report;
 pub mod snippet;
+pub mod spread;
+pub mod spread_chart;
 pub mod table;
 pub mod text_table;
 pub mod working;

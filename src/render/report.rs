@@ -223,6 +223,9 @@ pub fn blocks(evaluation: &Evaluation, digits: u32) -> Vec<Block> {
                 .collect(),
         });
     }
+    if let Some(summary) = &evaluation.samples {
+        blocks.extend(super::spread::report_blocks(summary, evaluation, digits));
+    }
     blocks
 }
 

@@ -107,6 +107,21 @@ pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> V
         let Ok(tree) = crate::syntax::parse_set_value(&line.expression, span.start) else {
             continue;
         };
+        // A sampled line shows the P50 of its samples, which no substitution of single values
+        // gives: its spread is in the summary instead.
+        let sampled = evaluation.samples.as_ref().is_some_and(|summary| {
+            summary
+                .lines
+                .iter()
+                .any(|spread| spread.line == line.number)
+        });
+        if sampled {
+            continue;
+        }
+        // An uncertain input (`normal mean a sd b`) is an input whatever its parameters name.
+        if matches!(tree.kind, ExpressionKind::Distribution(_)) {
+            continue;
+        }
         // Literals alone (`6 m` given by `--set`, a list, a range of literals) are inputs.
         let mut computed = false;
         tree.for_each_subexpression(&mut |part| {
@@ -254,6 +269,9 @@ impl TreeWriter<'_> {
             ExpressionKind::FileColumn { header, .. } => format!("column {}", header.text),
             ExpressionKind::Solve(solve) => format!("solve {}", solve.line.text),
             ExpressionKind::Fit(fit) => format!("fit {}", fit.model.text),
+            ExpressionKind::Distribution(distribution) => {
+                format!("{} distribution", distribution.family.keyword())
+            }
             ExpressionKind::Call {
                 function,
                 arguments,

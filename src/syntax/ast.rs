@@ -133,6 +133,55 @@ pub struct Fit {
     pub logarithmic: bool,
 }
 
+/// An uncertain input: a family, its parameters as written, optional bounds and rank
+/// correlations with other inputs.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Distribution {
+    pub family: Family,
+    /// The family's parameters in the order written: normal mean and sd; log-normal median and
+    /// spread; uniform and log-uniform low and high; triangular low, high and most likely.
+    pub parameters: Vec<Expression>,
+    /// `between low and high`.
+    pub bounds: Option<[Expression; 2]>,
+    pub correlations: Vec<Correlation>,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Family {
+    Normal,
+    /// Median and multiplicative standard deviation (exp of the sd of ln x).
+    LogNormalFactor,
+    /// Median and the standard deviation of ln x.
+    LogNormalSdLn,
+    /// Median and the standard deviation of log10 x.
+    LogNormalSdLog10,
+    Uniform,
+    LogUniform,
+    Triangular,
+}
+
+impl Family {
+    /// The family's name as written in a sheet.
+    pub fn keyword(self) -> &'static str {
+        match self {
+            Family::Normal => "normal",
+            Family::LogNormalFactor | Family::LogNormalSdLn | Family::LogNormalSdLog10 => {
+                "lognormal"
+            }
+            Family::Uniform => "uniform",
+            Family::LogUniform => "loguniform",
+            Family::Triangular => "triangular",
+        }
+    }
+}
+
+/// `rank 0.6 with K`: a rank correlation with another input.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Correlation {
+    pub rank: Expression,
+    pub with: Name,
+}
+
 /// A bare `expression [unit]`.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Display {
@@ -211,6 +260,8 @@ pub enum ExpressionKind {
     },
     Solve(Box<Solve>),
     Fit(Box<Fit>),
+    /// `lognormal median 1e-9 m/s factor 3`: an uncertain input.
+    Distribution(Box<Distribution>),
     Call {
         function: Name,
         arguments: Vec<Expression>,
@@ -278,6 +329,13 @@ impl Expression {
                     part.for_each_subexpression(visit);
                 }
             }
+            ExpressionKind::Distribution(distribution) => {
+                let bounds = distribution.bounds.iter().flatten();
+                let ranks = distribution.correlations.iter().map(|with| &with.rank);
+                for part in distribution.parameters.iter().chain(bounds).chain(ranks) {
+                    part.for_each_subexpression(visit);
+                }
+            }
             ExpressionKind::Call { arguments, .. } => {
                 for argument in arguments {
                     argument.for_each_subexpression(visit);
@@ -314,6 +372,11 @@ impl Expression {
             ExpressionKind::Solve(solve) => {
                 visit(&solve.line.text, solve.line.span);
                 visit(&solve.unknown.text, solve.unknown.span);
+            }
+            ExpressionKind::Distribution(distribution) => {
+                for correlation in &distribution.correlations {
+                    visit(&correlation.with.text, correlation.with.span);
+                }
             }
             _ => {}
         });

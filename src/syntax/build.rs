@@ -324,7 +324,7 @@ impl Builder {
                 }
                 Rule::parameters => parameters = Some(self.parameters(inner)?),
                 Rule::display_unit => display_unit = Some(self.display_unit(inner)?),
-                Rule::ranged | Rule::file_column | Rule::solve | Rule::fit => {
+                Rule::ranged | Rule::file_column | Rule::solve | Rule::fit | Rule::distribution => {
                     expression = Some(self.line_value(inner)?)
                 }
                 _ => {}
@@ -482,6 +482,13 @@ impl Builder {
                 }),
             };
         }
+        if rule == Rule::distribution {
+            // The rule's last repetition takes the spaces before a comment: not part of it.
+            let trimmed = pair.as_str().trim_end().len();
+            let span = Span::new(span.start, span.start + trimmed);
+            let kind = ExpressionKind::Distribution(Box::new(self.distribution(pair)?));
+            return Ok(Expression { kind, span });
+        }
         let mut expressions = Vec::new();
         let mut names = Vec::new();
         let mut path = None;
@@ -541,6 +548,73 @@ impl Builder {
             _ => return Err(internal(span.start)),
         };
         Ok(Expression { kind, span })
+    }
+
+    /// `lognormal median 1e-9 m/s factor 3 between … and … rank 0.5 with t`.
+    fn distribution(&self, pair: Pair<Rule>) -> Result<Distribution, SyntaxError> {
+        let start = self.span(&pair).start;
+        let mut inner = pair.into_inner();
+        let shape = inner.next().ok_or_else(|| internal(start))?;
+        let mut family = match shape.as_rule() {
+            Rule::normal => Family::Normal,
+            Rule::lognormal => Family::LogNormalFactor,
+            Rule::uniform => Family::Uniform,
+            Rule::loguniform => Family::LogUniform,
+            Rule::triangular => Family::Triangular,
+            _ => return Err(internal(start)),
+        };
+        let mut parameters = Vec::new();
+        for part in shape.into_inner() {
+            match part.as_rule() {
+                Rule::expression => parameters.push(self.expression(part)?),
+                Rule::log_spread => {
+                    for spread in part.into_inner() {
+                        match spread.as_rule() {
+                            Rule::sdln_keyword => family = Family::LogNormalSdLn,
+                            Rule::sdlog10_keyword => family = Family::LogNormalSdLog10,
+                            Rule::expression => parameters.push(self.expression(spread)?),
+                            _ => {}
+                        }
+                    }
+                }
+                _ => {}
+            }
+        }
+        let mut bounds = None;
+        let mut correlations = Vec::new();
+        for tail in inner {
+            let rule = tail.as_rule();
+            let mut expressions = Vec::new();
+            let mut with = None;
+            for part in tail.into_inner() {
+                match part.as_rule() {
+                    Rule::expression => expressions.push(self.expression(part)?),
+                    Rule::name => {
+                        with = Some(Name {
+                            text: part.as_str().to_string(),
+                            span: self.span(&part),
+                        })
+                    }
+                    _ => {}
+                }
+            }
+            match (rule, with) {
+                (Rule::truncation, _) => {
+                    bounds = Some(expressions.try_into().map_err(|_| internal(start))?)
+                }
+                (Rule::correlation, Some(with)) => {
+                    let rank = expressions.pop().ok_or_else(|| internal(start))?;
+                    correlations.push(Correlation { rank, with });
+                }
+                _ => return Err(internal(start)),
+            }
+        }
+        Ok(Distribution {
+            family,
+            parameters,
+            bounds,
+            correlations,
+        })
     }
 
     /// `from` and the tail `to B step S` or `to B count N [log]`.
@@ -992,6 +1066,15 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::down_keyword => "`down`",
         Rule::points_keyword => "`points`",
         Rule::axis => "`x` or `y`",
+        Rule::mean_keyword => "`mean`",
+        Rule::sd_keyword => "`sd`",
+        Rule::median_keyword | Rule::geomean_keyword => "`median` or `geomean`",
+        Rule::log_spread | Rule::factor_keyword | Rule::sdln_keyword | Rule::sdlog10_keyword => {
+            "`factor`, `sdln` or `sdlog10`"
+        }
+        Rule::likely_keyword => "`likely`",
+        Rule::with_keyword => "`with`",
+        Rule::truncation | Rule::correlation | Rule::rank_keyword => "`between` or `rank`",
         Rule::parameter | Rule::parameters => "a parameter name",
         _ => return None,
     })
@@ -1045,6 +1128,20 @@ mod tests {
                 shape(&solve.lower),
                 shape(&solve.upper)
             ),
+            ExpressionKind::Distribution(distribution) => {
+                let mut parts: Vec<String> = distribution.parameters.iter().map(shape).collect();
+                if let Some([low, high]) = &distribution.bounds {
+                    parts.push(format!("between {} and {}", shape(low), shape(high)));
+                }
+                for correlation in &distribution.correlations {
+                    parts.push(format!(
+                        "rank {} with {}",
+                        shape(&correlation.rank),
+                        correlation.with.text
+                    ));
+                }
+                format!("{:?}({})", distribution.family, parts.join(","))
+            }
             ExpressionKind::Call {
                 function,
                 arguments,
@@ -1098,6 +1195,60 @@ mod tests {
         check("30 %", "30[%]");
         check("f(1 mD, ρ, 2)", "f(1[mD],ρ,2)");
         check("250mD", "250[mD]");
+    }
+
+    /// The value of a named line, as a shape.
+    fn line_value(text: &str) -> String {
+        match parse_line(text, 1, 0).map(|line| line.kind) {
+            Ok(LineKind::Definition(definition)) => shape(&definition.expression),
+            other => panic!("{text}: {other:?}"),
+        }
+    }
+
+    #[test]
+    fn distributions_with_their_parameters_bounds_and_correlations() {
+        for (text, expected) in [
+            ("x = normal mean 0.9 m sd 0.05 m", "Normal(0.9[m],0.05[m])"),
+            ("x = normal mean 0.35 sd 0.05", "Normal(0.35,0.05)"),
+            (
+                "K = lognormal median 1e-9 m/s factor 3",
+                "LogNormalFactor(1e-9[m/s],3)",
+            ),
+            (
+                "K = lognormal geomean 1e-9 m/s sdln 1.1",
+                "LogNormalSdLn(1e-9[m/s],1.1)",
+            ),
+            (
+                "K = lognormal median 2 * k sdlog10 0.5",
+                "LogNormalSdLog10((2*k),0.5)",
+            ),
+            ("n = uniform 0.3 to 0.45", "Uniform(0.3,0.45)"),
+            (
+                "k = loguniform 1 mD to 1 darcy",
+                "LogUniform(1[mD],1[darcy])",
+            ),
+            (
+                "h = triangular 0.1 m to 0.6 m likely 0.3 m",
+                "Triangular(0.1[m],0.6[m],0.3[m])",
+            ),
+            (
+                "n = normal mean 0.35 sd 0.1 between 0 and 1 rank -0.5 with K rank 0.2 with t",
+                "Normal(0.35,0.1,between 0 and 1,rank -0.5 with K,rank 0.2 with t)",
+            ),
+        ] {
+            assert_eq!(line_value(text), expected, "{text}");
+        }
+        // A name that happens to be a family's word is still a name.
+        assert_eq!(line_value("y = normal * 2"), "(normal*2)");
+        assert_eq!(line_value("y = uniform"), "uniform");
+        // A family without its words is a syntax error that names them.
+        let error = parse_line("x = normal mean 1 m", 1, 0).unwrap_err();
+        assert!(error.to_string().contains("`sd`"), "{error}");
+        let error = parse_line("x = lognormal median 1 m 3", 1, 0).unwrap_err();
+        assert!(
+            error.to_string().contains("`factor`, `sdln` or `sdlog10`"),
+            "{error}"
+        );
     }
 
     #[test]

@@ -64,6 +64,11 @@ pub(crate) struct Calculator<'l> {
     pub(crate) notes: HashMap<usize, String>,
     /// Data files handed to a session, by the path as written.
     pub(crate) data_by_path: HashMap<String, Result<Arc<DataTable>, String>>,
+    /// The normal scores of the block of samples being evaluated (`run --samples`); without
+    /// them a distribution gives its median.
+    pub(crate) sampling: Option<Arc<crate::eval::uncertainty::BlockScores>>,
+    /// The distributions met, in evaluation order (one per input).
+    pub(crate) uncertain: Vec<crate::eval::uncertainty::UncertainInput>,
 }
 impl<'l> Calculator<'l> {
     pub(crate) fn new(library: &'l dyn Library) -> Calculator<'l> {
@@ -80,6 +85,8 @@ impl<'l> Calculator<'l> {
             data_files: HashMap::default(),
             notes: HashMap::default(),
             data_by_path: HashMap::default(),
+            sampling: None,
+            uncertain: Vec::new(),
         }
     }
 
@@ -91,6 +98,12 @@ impl<'l> Calculator<'l> {
         scope: &dyn Scope,
     ) -> Result<Value, Failure> {
         let span = expression.span;
+        if self.sampling.is_some() {
+            if let Some(what) = not_sampled(&expression.kind) {
+                let error = EvalError::new(EvalErrorKind::NotWithSamples { what }, span);
+                return Err(error.into());
+            }
+        }
         let value = match &expression.kind {
             ExpressionKind::Quantity { digits, unit } => {
                 Value::Scalar(self.literal(digits, unit.as_ref(), span)?)
@@ -104,6 +117,9 @@ impl<'l> Calculator<'l> {
             } => self.file_column(header, path, *path_span, span)?,
             ExpressionKind::Solve(solve) => self.solve(solve, span, scope)?,
             ExpressionKind::Fit(fit) => self.fit(fit, span, scope)?,
+            ExpressionKind::Distribution(distribution) => {
+                self.distribution(distribution, span, scope)?
+            }
             ExpressionKind::Name(name) => self.name(name, span, scope)?,
             ExpressionKind::Call {
                 function,
@@ -312,6 +328,19 @@ impl<'l> Calculator<'l> {
     }
 }
 
+/// What a sampled sheet cannot hold: columns of its own (their rows would be taken for
+/// samples) and the lines that search over inputs.
+fn not_sampled(kind: &ExpressionKind) -> Option<&'static str> {
+    match kind {
+        ExpressionKind::List { .. } => Some("a list"),
+        ExpressionKind::Range(_) => Some("a range"),
+        ExpressionKind::FileColumn { .. } => Some("a data-file column"),
+        ExpressionKind::Solve(_) => Some("a `solve` line"),
+        ExpressionKind::Fit(_) => Some("a `fit` line"),
+        _ => None,
+    }
+}
+
 /// A column made on this line (a list, a range, a data-file column) is named after the line, so that
 /// errors about its rows and length say where it came from.
 pub(crate) fn with_origin(shown: Shown, name: &str) -> Shown {
@@ -358,6 +387,11 @@ pub(super) fn written_unit<'e>(
     match &expression.kind {
         ExpressionKind::Quantity { unit, .. } | ExpressionKind::List { unit, .. } => unit.as_ref(),
         ExpressionKind::Range(range) => written_unit(&range.from, None, scope),
+        // A distribution shows in its first parameter's unit (`normal mean 0.9 m …` in m).
+        ExpressionKind::Distribution(distribution) => distribution
+            .parameters
+            .first()
+            .and_then(|first| written_unit(first, None, scope)),
         ExpressionKind::Call { function, .. } => scope
             .sheet_function(&function.text)
             .flatten()

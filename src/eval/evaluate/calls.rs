@@ -14,6 +14,18 @@ pub(super) const SHORT_CALL: usize = 8;
 /// Nesting of sheet-function calls beyond which a call is refused (recursion is refused at
 /// definition, so only a pathological chain of distinct functions reaches it).
 pub(super) const CALL_DEPTH_LIMIT: usize = 64;
+/// How a distribution called like a function (`lognormal(…)`) is written.
+fn distribution_written(name: &str) -> Option<&'static str> {
+    Some(match name {
+        "normal" => "normal mean 0.9 m sd 0.05 m",
+        "lognormal" => "lognormal median 1e-9 m/s factor 3",
+        "uniform" => "uniform 0.2 to 0.4",
+        "loguniform" => "loguniform 1 mD to 100 mD",
+        "triangular" => "triangular 0.1 m to 0.6 m likely 0.3 m",
+        _ => return None,
+    })
+}
+
 impl<'l> Calculator<'l> {
     /// A call of a built-in: whole-column functions get the values as they are; others are
     /// applied row by row, with the dimensions checked on the first row only.
@@ -25,6 +37,13 @@ impl<'l> Calculator<'l> {
         scope: &dyn Scope,
     ) -> Result<Value, Failure> {
         let Some(callee) = self.library.function(&function.text) else {
+            if let Some(written) = distribution_written(&function.text) {
+                let message = format!(
+                    "a distribution is not a function call: write it as `{written}` (the README's Uncertainty section lists them)"
+                );
+                let kind = EvalErrorKind::Distribution { message };
+                return Err(EvalError::new(kind, function.span).into());
+            }
             let kind = if scope.lookup(&function.text).is_some()
                 || self.library.constant(&function.text).is_some()
             {
@@ -85,6 +104,13 @@ impl<'l> Calculator<'l> {
             )
         };
         if let Some(result) = callee.call_values(&values, &mut self.provenance) {
+            // Over samples, a function of whole columns would combine the samples of a block.
+            let sampled = self.sampling.is_some()
+                && values.iter().any(|value| matches!(value, Value::Column(_)));
+            if sampled {
+                let what = "a function of whole columns (an aggregate, a table, layers, wells)";
+                return Err(EvalError::new(EvalErrorKind::NotWithSamples { what }, span).into());
+            }
             return result.map_err(|error| call_error(error).into());
         }
         let mut rows = None;

@@ -13,13 +13,16 @@ mod arithmetic;
 mod calculator;
 mod calls;
 mod checks;
+mod distributions;
 mod load;
 mod plots;
 mod result;
+mod sampled;
 mod sheet;
 mod values;
 
 pub(crate) use arithmetic::*;
 pub(crate) use calculator::*;
 pub use result::*;
+pub use sampled::NOTHING_TO_SAMPLE;
 pub use sheet::*;

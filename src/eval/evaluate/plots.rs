@@ -12,6 +12,11 @@ impl<'l> Calculator<'l> {
         plot: &crate::syntax::Plot,
         scope: &dyn Scope,
     ) -> Result<PlotOutcome, Failure> {
+        if self.sampling.is_some() {
+            let what = "a `plot` line";
+            let error = EvalError::new(EvalErrorKind::NotWithSamples { what }, plot.against.span);
+            return Err(error.into());
+        }
         let column = |name: &crate::syntax::Name| -> Result<ShownColumn, Failure> {
             match scope.lookup(&name.text) {
                 None => Err(EvalError::new(

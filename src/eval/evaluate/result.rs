@@ -29,6 +29,10 @@ pub struct Evaluation {
     /// Named values defined in included sheets, `(name, value)`, so the working of a line that
     /// uses them can show their values.
     pub included_values: Vec<(String, Shown)>,
+    /// With `run --samples N`: the spread of every uncertain line, the failure probability of
+    /// each check and the ranking of the inputs. The uncertain lines' values are then their
+    /// sampled P50.
+    pub samples: Option<Box<crate::eval::uncertainty::SampleSummary>>,
 }
 
 /// A built-in call and the values of its arguments.

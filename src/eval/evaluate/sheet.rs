@@ -25,6 +25,8 @@ pub struct Settings {
     pub max_total_rows: usize,
     /// `(name, value text)`: the value replaces the line `name` for this run.
     pub overrides: Vec<(String, String)>,
+    /// `run --samples N`: sample the sheet's distributions.
+    pub sampling: Option<crate::eval::uncertainty::Sampling>,
 }
 
 impl Default for Settings {
@@ -33,6 +35,7 @@ impl Default for Settings {
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
             max_total_rows: crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
             overrides: Vec::new(),
+            sampling: None,
         }
     }
 }
@@ -50,7 +53,8 @@ pub fn evaluate(
     evaluate_with(label, source, library, loader, &Settings::default())
 }
 
-/// Evaluates a sheet with run settings.
+/// Evaluates a sheet with run settings; with `settings.sampling`, samples it
+/// (`run --samples N`) and adds the summary.
 pub fn evaluate_with(
     label: &str,
     source: &str,
@@ -58,6 +62,63 @@ pub fn evaluate_with(
     loader: &mut dyn IncludeLoader,
     settings: &Settings,
 ) -> Evaluation {
+    let mut prepared = prepare(label, source, loader, settings);
+    let (mut evaluation, uncertain) = evaluate_prepared(&prepared, library, settings, None);
+    // The evaluation holds the sources (warnings quote them); sampling borrows them back.
+    std::mem::swap(&mut evaluation.sources, &mut prepared.sources);
+    // Warnings only on a sheet without errors: an error can hide a use or a value.
+    if !evaluation.has_errors() {
+        let warnings = crate::eval::warnings::sheet_warnings(
+            &prepared.lines[..prepared.main_lines],
+            &evaluation,
+            library,
+        );
+        evaluation.diagnostics.extend(warnings);
+        evaluation
+            .diagnostics
+            .sort_by_key(|diagnostic| diagnostic.span.start);
+    }
+    match &settings.sampling {
+        Some(sampling) if !evaluation.has_errors() => {
+            std::mem::swap(&mut evaluation.sources, &mut prepared.sources);
+            super::sampled::sample(
+                &prepared,
+                library,
+                settings,
+                sampling,
+                uncertain,
+                &mut evaluation,
+            );
+            std::mem::swap(&mut evaluation.sources, &mut prepared.sources);
+        }
+        None if !uncertain.is_empty() => {
+            super::sampled::note_checks_at_medians(&prepared, &mut evaluation);
+        }
+        _ => {}
+    }
+    evaluation
+}
+
+/// A sheet with its includes and data files loaded and parsed, ready to be evaluated (once,
+/// or once per block of samples).
+pub(super) struct Prepared {
+    pub(super) sources: SourceMap,
+    pub(super) lines: Vec<Line>,
+    /// Syntax and loading errors.
+    pub(super) diagnostics: Vec<Diagnostic>,
+    pub(super) includes: Vec<(usize, String)>,
+    pub(super) main_lines: usize,
+    pub(super) data_files:
+        HashMap<usize, Result<std::sync::Arc<crate::eval::data::DataTable>, EvalError>>,
+    pub(super) overrides: Vec<(String, Expression)>,
+}
+
+pub(super) fn prepare(
+    label: &str,
+    source: &str,
+    loader: &mut dyn IncludeLoader,
+    settings: &Settings,
+) -> Prepared {
     let mut loaded = Loaded {
         max_rows: settings.max_rows,
         ..Loaded::default()
@@ -87,31 +148,44 @@ pub fn evaluate_with(
         data_files,
         ..
     } = loaded;
-    let mut evaluator = Evaluator::new(&sources, &lines, library);
+    let mut all_diagnostics: Vec<Diagnostic> = errors.iter().map(Diagnostic::from).collect();
+    all_diagnostics.extend(diagnostics);
+    Prepared {
+        sources,
+        lines,
+        diagnostics: all_diagnostics,
+        includes,
+        main_lines,
+        data_files,
+        overrides,
+    }
+}
+
+/// One evaluation of a prepared sheet, with the distributions it met; with `block`, its
+/// distributions give that block's samples. The evaluation's `sources` are left empty for the
+/// caller to fill.
+pub(super) fn evaluate_prepared(
+    prepared: &Prepared,
+    library: &dyn Library,
+    settings: &Settings,
+    block: Option<std::sync::Arc<crate::eval::uncertainty::BlockScores>>,
+) -> (Evaluation, Vec<crate::eval::uncertainty::UncertainInput>) {
+    let mut evaluator = Evaluator::new(&prepared.sources, &prepared.lines, library);
     evaluator.calculator.max_rows = settings.max_rows;
     evaluator.calculator.row_budget = crate::eval::columns::RowBudget::new(settings.max_total_rows);
-    evaluator.calculator.data_files = data_files;
+    evaluator.calculator.data_files = prepared.data_files.clone();
+    evaluator.first_sample = block.as_ref().map(|block| block.first_sample);
+    evaluator.calculator.sampling = block;
     evaluator
         .diagnostics
-        .extend(errors.iter().map(Diagnostic::from));
-    evaluator.diagnostics.extend(diagnostics);
-    for (index, file) in includes {
-        evaluator.results[index] = Some(LineResult::Include { file });
+        .extend(prepared.diagnostics.iter().cloned());
+    for (index, file) in &prepared.includes {
+        evaluator.results[*index] = Some(LineResult::Include { file: file.clone() });
     }
-    evaluator.overrides = &overrides;
+    evaluator.overrides = &prepared.overrides;
     evaluator.run();
-    let mut evaluation = evaluator.finish(main_lines);
-    evaluation.sources = sources;
-    // Warnings only on a sheet without errors: an error can hide a use or a value.
-    if !evaluation.has_errors() {
-        let warnings =
-            crate::eval::warnings::sheet_warnings(&lines[..main_lines], &evaluation, library);
-        evaluation.diagnostics.extend(warnings);
-        evaluation
-            .diagnostics
-            .sort_by_key(|diagnostic| diagnostic.span.start);
-    }
-    evaluation
+    let uncertain = std::mem::take(&mut evaluator.calculator.uncertain);
+    (evaluator.finish(prepared.main_lines), uncertain)
 }
 /// The state of a definition during evaluation.
 #[derive(Debug, Clone)]
@@ -196,6 +270,9 @@ pub(super) struct Evaluator<'a> {
     pub(super) overrides: &'a [(String, Expression)],
     /// Lines whose value came from `--set`, with the sheet's own expression text.
     pub(super) overridden: HashMap<usize, String>,
+    /// With `run --samples`: the 0-based number of this block's first sample, so that an
+    /// error in a row names its sample.
+    pub(super) first_sample: Option<usize>,
 }
 
 impl<'a> Evaluator<'a> {
@@ -216,6 +293,7 @@ impl<'a> Evaluator<'a> {
             calculator: Calculator::new(library),
             overrides: &[],
             overridden: HashMap::default(),
+            first_sample: None,
         }
     }
 
@@ -616,6 +694,10 @@ impl<'a> Evaluator<'a> {
     pub(super) fn failure_result(&mut self, failure: Failure) -> LineResult {
         match failure {
             Failure::Error(error) => {
+                let error = match self.first_sample {
+                    Some(first_sample) => error.in_samples(first_sample),
+                    None => error,
+                };
                 self.diagnostics.push(error.to_diagnostic());
                 LineResult::Error
             }
@@ -714,6 +796,7 @@ impl<'a> Evaluator<'a> {
             calls: self.calculator.calls,
             fields,
             included_values,
+            samples: None,
         }
     }
 }
