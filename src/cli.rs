@@ -21,6 +21,7 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
+mod in_order;
 mod output_file;
 mod plots;
 mod properties;
@@ -125,8 +126,7 @@ impl LimitArgs {
         Settings {
             max_rows: self.max_rows,
             max_total_rows: self.max_total_rows,
-            overrides: Vec::new(),
-            sampling: None,
+            ..Settings::default()
         }
     }
 
@@ -294,6 +294,7 @@ fn finish(result: io::Result<u8>, out: &mut dyn Write) -> u8 {
 }
 
 /// A sheet's text and the name to show for it.
+#[derive(Clone)]
 pub(crate) struct SheetSource {
     pub label: String,
     pub text: String,
@@ -637,7 +638,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
     let rows: Vec<Vec<String>> = catalog_entries()
         .iter()
         .filter(|entry| match (dimension_filter, &text_filter) {
-            (Some(dimension), _) => entry.unit.dimension == dimension,
+            (Some(dimension), _) => entry.unit().dimension == dimension,
             (None, Some(text)) => {
                 entry.definition.name.to_lowercase().contains(text)
                     || entry
@@ -649,12 +650,12 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
             (None, None) => true,
         })
         .map(|entry| {
-            let dimension = entry.unit.dimension;
+            let dimension = entry.unit().dimension;
             let dimension_text = match dimension.quantity_name() {
                 Some(name) => format!("{name} ({dimension})"),
                 None => dimension.to_string(),
             };
-            let mut factor = entry.unit.factor.describe();
+            let mut factor = entry.unit().factor.describe();
             if let Some(offset) = entry.definition.offset.filter(|offset| *offset != "0") {
                 factor = format!("(x + {offset}) * {factor}");
             }

@@ -578,7 +578,7 @@ impl Repl {
         for entry in catalog_entries() {
             let definition = entry.definition;
             let keep = match dimension {
-                Some(dimension) => entry.unit.dimension == dimension,
+                Some(dimension) => entry.unit().dimension == dimension,
                 None => {
                     text.is_empty()
                         || definition.name.to_lowercase().contains(&text)
@@ -595,7 +595,7 @@ impl Repl {
                     "{:<14} {:<40} {}",
                     definition.symbols.join(" "),
                     definition.name,
-                    dimension_text(&entry.unit.dimension)
+                    dimension_text(&entry.unit().dimension)
                 )?;
             }
         }
@@ -676,16 +676,16 @@ impl Repl {
                 "{}  (unit: {}, {})",
                 definition.symbols.join(" "),
                 definition.name,
-                dimension_text(&entry.unit.dimension)
+                dimension_text(&entry.unit().dimension)
             )?;
-            let mut factor = entry.unit.factor.describe();
+            let mut factor = entry.unit().factor.describe();
             if let Some(offset) = definition.offset.filter(|offset| *offset != "0") {
                 factor = format!("(x + {offset}) * {factor}");
             }
             writeln!(
                 out,
                 "  in SI: {factor} {}",
-                entry.unit.dimension.si_unit_text()
+                entry.unit().dimension.si_unit_text()
             )?;
             writeln!(out, "  source: {}", definition.source)?;
             if !definition.note.is_empty() {

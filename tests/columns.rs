@@ -754,3 +754,36 @@ fn row_kernels_match_single_value_calls() {
         }
     }
 }
+
+/// Long columns are computed on every core, in spans; the row reported is still the first row
+/// that fails, in whichever span it lies, and every value is the one a single value gives.
+#[test]
+fn long_columns_on_every_core_report_the_first_failing_row() {
+    // K = 50 000 - r m/s at row r (0-based; exact in floating point): negative from row 50 001,
+    // which is 1-based row 50 002, in the second span of two.
+    let evaluation = evaluate("K = 50000 m/s to -49999 m/s count 100000\nq = darcy_flux(K, 0.01)");
+    let message = first_error(&evaluation);
+    assert!(message.contains("row 50002 of `K`"), "{message}");
+    // Negative from row 20 001 on, through the first span and the whole second one.
+    let evaluation = evaluate("K = 20000 m/s to -79999 m/s count 100000\nq = darcy_flux(K, 0.01)");
+    let message = first_error(&evaluation);
+    assert!(message.contains("row 20002 of `K`"), "{message}");
+    // Steam in the last rows only: at 1 atm water boils at 373.1243 K = 99.9743 degC (IF97
+    // region 4, from memory). Rows are 0.001 degC apart, so 99.974 degC (0-based row 79 974)
+    // is the last liquid row and 99.975 degC (1-based row 79 976) the first steam.
+    let evaluation = evaluate("T = 20 degC to 100.5 degC count 80501\nrho = water_density(T)");
+    let message = first_error(&evaluation);
+    assert!(message.contains("row 79976 of `T`"), "{message}");
+    assert!(!evaluate("rho = water_density(99.974 degC)").has_errors());
+    assert!(evaluate("rho = water_density(99.975 degC)").has_errors());
+    let evaluation = evaluate("K = 1 m/s to 2 m/s count 100000\nq [m/s] = darcy_flux(K, 0.01)");
+    let (conductivity, flux) = (column(&evaluation, "K"), column(&evaluation, "q"));
+    assert_eq!(flux.len(), 100_000);
+    for row in [0, 1, 49_999, 50_000, 50_001, 99_999] {
+        let single = evaluate(&format!(
+            "q [m/s] = darcy_flux({:e} m/s, 0.01)",
+            conductivity[row]
+        ));
+        assert_eq!(flux[row], scalar(&single, "q"), "row {row}");
+    }
+}

@@ -5,7 +5,7 @@
 use super::against::{added_names, compare, compare_inputs, Earlier, InputChange, Moved};
 use super::{exit, exit_code_for, read_sheet, unreadable_json, SheetSource};
 use crate::eval::warnings::warning_count;
-use crate::eval::{Evaluation, LineResult, Severity};
+use crate::eval::{Evaluation, LineResult, Settings, Severity};
 use crate::front::limits::{FileKind, ReadLimits};
 use crate::render::json::{
     diagnostics_json, fields_json, inputs_json, value_json, CheckJson, DiagnosticJson, FieldJson,
@@ -271,10 +271,29 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
     let targets = targets(&arguments.paths);
     let json = options.format == Format::Json;
     let color = !json && io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
-    let mut reports = Vec::with_capacity(targets.len());
-    for target in &targets {
-        let read = read_target(target, &arguments.limits.read_limits());
-        let report = match read {
+    // Standard input is read here, in argument order, so that a second `-` still finds it empty
+    // whichever thread gets to it first.
+    let items: Vec<(&Target, Option<Result<SheetSource, String>>)> = targets
+        .iter()
+        .map(|target| {
+            let from_stdin = target.path.is_none() && target.problem.is_none();
+            let read = from_stdin.then(|| read_target(target, &arguments.limits.read_limits()));
+            (target, read)
+        })
+        .collect();
+    // The sheets share the cores: each gets its share for its own parse and long columns.
+    let cores = crate::eval::available_cores();
+    let settings = Settings {
+        threads: (cores / items.len().clamp(1, cores)).max(1),
+        ..arguments.limits.settings()
+    };
+    let check_one = |(target, read_before): &(&Target, Option<Result<SheetSource, String>>)| {
+        let target: &Target = target;
+        let read = match read_before {
+            Some(read) => read.clone(),
+            None => read_target(target, &arguments.limits.read_limits()),
+        };
+        match read {
             Err(message) => SheetReport {
                 label: target.label.clone(),
                 evaluation: None,
@@ -294,7 +313,7 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     target.path.as_deref(),
                     arguments.allow_outside,
                     arguments.deny_warnings,
-                    &arguments.limits.settings(),
+                    &settings,
                     &arguments.limits.read_limits(),
                 );
                 let inputs = super::all_inputs(&source, &read);
@@ -352,21 +371,33 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
                     code,
                 }
             }
-        };
-        if !json {
+        }
+    };
+    // Each sheet's report is printed (or turned into its JSON) as soon as the sheets before
+    // it are done, then dropped: only its counts stay.
+    let mut summaries = Vec::with_capacity(targets.len());
+    let mut sheets_json = Vec::new();
+    super::in_order::map_in_order(&items, check_one, |report: SheetReport| {
+        if json {
+            sheets_json.push(sheet_json(&report));
+        } else {
             write_text(out, &report, options, color, tolerance)?;
         }
-        reports.push(report);
-    }
-    let worst = reports
+        summaries.push(Summary {
+            code: report.code,
+            counts: report.counts(),
+        });
+        Ok(())
+    })?;
+    let worst = summaries
         .iter()
-        .map(|report| report.code)
+        .map(|summary| summary.code)
         .max()
         .unwrap_or(exit::OK);
-    let total = Total::of(&reports);
+    let total = Total::of(&summaries);
     if json {
         let document = CheckDocument {
-            sheets: reports.iter().map(sheet_json).collect(),
+            sheets: sheets_json,
             total,
             exit_code: worst,
         };
@@ -379,6 +410,12 @@ pub fn run(out: &mut dyn Write, arguments: &CheckArgs, options: RenderOptions) -
         writeln!(out, "{}", total.line(earlier.is_some()))?;
     }
     Ok(worst)
+}
+
+/// What stays of a sheet's report once it is printed.
+struct Summary {
+    code: u8,
+    counts: Counts,
 }
 
 fn write_text(
@@ -555,18 +592,18 @@ struct Total {
 }
 
 impl Total {
-    fn of(reports: &[SheetReport]) -> Total {
+    fn of(summaries: &[Summary]) -> Total {
         let mut total = Total {
-            sheets: reports.len(),
+            sheets: summaries.len(),
             ..Total::default()
         };
-        for report in reports {
-            match report.code {
+        for summary in summaries {
+            match summary.code {
                 exit::OK => total.ok += 1,
                 exit::CHECK_FAILED => total.failed += 1,
                 _ => total.with_errors += 1,
             }
-            let counts = report.counts();
+            let counts = summary.counts;
             total.errors += counts.errors;
             total.warnings += counts.warnings;
             total.failed_checks += counts.checks - counts.passed;

@@ -135,15 +135,16 @@ fn shape(value: &Value) -> Quantity {
     }
 }
 
-/// Reads row `row` of a column, or the scalar in every row.
-#[derive(Clone, Copy)]
-pub(crate) enum Rows<'a> {
+/// One argument of a call over columns, read by row: a column's values, or one scalar in
+/// every row.
+#[derive(Debug, Clone, Copy)]
+pub enum Rows<'a> {
     Same(f64),
     Each(&'a [f64]),
 }
 
 impl Rows<'_> {
-    pub(crate) fn of(value: &Value) -> Rows<'_> {
+    pub fn of(value: &Value) -> Rows<'_> {
         match value {
             Value::Scalar(quantity) => Rows::Same(quantity.value),
             Value::Column(column) => Rows::Each(&column.values),
@@ -152,7 +153,7 @@ impl Rows<'_> {
     }
 
     #[inline]
-    pub(crate) fn at(self, row: usize) -> f64 {
+    pub fn at(self, row: usize) -> f64 {
         match self {
             Rows::Same(value) => value,
             Rows::Each(values) => values[row],

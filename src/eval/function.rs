@@ -1,6 +1,7 @@
 //! The interface between the evaluator and built-in functions and constants. The evaluator
 //! defines it; `library` implements it; the front ends hand a library to the evaluator.
 
+pub use super::columns::Rows;
 use super::value::{Quantity, Value};
 use crate::units::Dimension;
 use std::fmt;
@@ -87,8 +88,8 @@ pub trait Function: Sync {
     }
     /// A fast path for the rows after the first: given arguments shaped like `first_row`
     /// (which `call` has accepted, so dimensions are already checked), a kernel that computes
-    /// one row from plain SI numbers. `None` means every row goes through `call`.
-    fn row_kernel(&self, _first_row: &[Quantity]) -> Option<RowKernel<'_>> {
+    /// spans of rows from plain SI numbers. `None` means every row goes through `call`.
+    fn column_kernel(&self, _first_row: &[Quantity]) -> Option<Box<dyn ColumnKernel + '_>> {
         None
     }
     /// Whether an absolute temperature from an offset scale (`20 degC`) may be passed: true
@@ -114,8 +115,23 @@ pub struct FormulaUse {
     pub formulations: &'static [&'static Formulation],
 }
 
-/// Computes one row of a function from the rows' plain SI numbers.
-pub type RowKernel<'f> = Box<dyn Fn(&[f64]) -> Result<f64, CallError> + 'f>;
+/// Computes a function over a span of rows from the columns' plain SI numbers. One call
+/// covers many rows, so the evaluator may hand disjoint spans to several threads.
+pub trait ColumnKernel: Sync {
+    /// Writes rows `first..first + out.len()` of the call over `arguments` into `out`, each
+    /// row going through the same checks as `Function::call`; stops at the first row that
+    /// fails.
+    fn rows(&self, arguments: &[Rows<'_>], first: usize, out: &mut [f64])
+        -> Result<(), RowFailure>;
+}
+
+/// The first row of a span that failed, and why: a refusal, or `None` for a result that is not
+/// a finite number.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RowFailure {
+    pub row: usize,
+    pub error: Option<CallError>,
+}
 
 /// A named constant.
 #[derive(Debug, Clone)]

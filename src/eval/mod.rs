@@ -21,9 +21,9 @@ pub mod warnings;
 pub use diagnostic::{Diagnostic, Severity};
 pub use error::{EvalError, EvalErrorKind};
 pub use evaluate::{
-    evaluate, evaluate_sheet, evaluate_with, CallRecord, CheckOutcome, Evaluation, LineOutcome,
-    LineResult, PlotOutcome, Settings, Shown, ShownColumn, ShownValue, NOTHING_TO_SAMPLE,
-    UNKNOWN_OVERRIDE,
+    available_cores, evaluate, evaluate_sheet, evaluate_with, CallRecord, CheckOutcome, Evaluation,
+    LineOutcome, LineResult, PlotOutcome, Settings, Shown, ShownColumn, ShownValue,
+    NOTHING_TO_SAMPLE, UNKNOWN_OVERRIDE,
 };
 pub use function::{CallError, Constant, Formulation, Function, Library, Provenance};
 pub use sources::{

@@ -31,7 +31,7 @@ use crate::syntax::{
     Expression, ExpressionKind, Line, LineKind, Span, UnitExpression, UnitExpressionKind,
 };
 use crate::units::Dimension;
-use std::collections::{HashMap, HashSet};
+use rustc_hash::{FxHashMap as HashMap, FxHashSet as HashSet};
 
 /// Porosity is a fraction of the bulk volume (common practice).
 pub const PLAUSIBLE_POROSITY: (f64, f64) = (0.0, 1.0);
@@ -115,7 +115,7 @@ pub fn sheet_warnings(
 }
 
 fn unused_lines(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec<Diagnostic>) {
-    let mut used: HashSet<&str> = HashSet::new();
+    let mut used: HashSet<&str> = HashSet::default();
     for line in lines {
         if let LineKind::Plot(plot) = &line.kind {
             for name in plot.series.iter().chain([&plot.against]) {
@@ -272,17 +272,11 @@ fn unit_systems(unit: &UnitExpression, systems: &mut Systems) {
 }
 
 fn mixed_units(line: &Line, warnings: &mut Vec<Diagnostic>) {
-    let (expression, declared, label) = match &line.kind {
-        LineKind::Definition(definition) => (
-            &definition.expression,
-            definition.display_unit.is_some(),
-            format!("`{}`", definition.name.text),
-        ),
-        LineKind::Display(display) => (
-            &display.expression,
-            display.display_unit.is_some(),
-            "this line".to_string(),
-        ),
+    let (expression, declared) = match &line.kind {
+        LineKind::Definition(definition) => {
+            (&definition.expression, definition.display_unit.is_some())
+        }
+        LineKind::Display(display) => (&display.expression, display.display_unit.is_some()),
         _ => return,
     };
     if declared {
@@ -291,6 +285,10 @@ fn mixed_units(line: &Line, warnings: &mut Vec<Diagnostic>) {
     let mut systems = Systems::default();
     collect_systems(expression, &mut systems);
     if systems.metric && systems.us_customary {
+        let label = match &line.kind {
+            LineKind::Definition(definition) => format!("`{}`", definition.name.text),
+            _ => "this line".to_string(),
+        };
         let hint = match &line.kind {
             LineKind::Definition(definition) => format!("`{} [unit] = …`", definition.name.text),
             _ => "`… [unit]`".to_string(),
@@ -401,7 +399,7 @@ fn angles_in_radians(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec
         })
         .collect();
     let full_turn = std::f64::consts::TAU;
-    let mut seen: HashSet<Span> = HashSet::new();
+    let mut seen: HashSet<Span> = HashSet::default();
     for expression in lines.iter().flat_map(Line::expressions) {
         expression.for_each_subexpression(&mut |node| {
             let ExpressionKind::Call {
@@ -415,7 +413,7 @@ fn angles_in_radians(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec
                 return;
             };
             if !TRIGONOMETRY.contains(&function.text.as_str())
-                || writes_angle_unit(argument, &definitions, &mut HashSet::new())
+                || writes_angle_unit(argument, &definitions, &mut HashSet::default())
             {
                 return;
             }

@@ -399,7 +399,7 @@ const W_NACL: Parameter = fraction("w_NaCl", "the NaCl mass fraction");
 const W_KCL: Parameter = fraction("w_KCl", "the KCl mass fraction");
 const W_CACL2: Parameter = fraction("w_CaCl2", "the CaCl2 mass fraction");
 const PRESSURE_PARAMETER: Parameter =
-    Parameter::new("p", "the absolute pressure", PRESSURE, Domain::Any);
+    Parameter::new("p", "the absolute pressure", PRESSURE, Domain::Any).of_liquid_water();
 
 const DENSITY_SOURCES: &[&Formulation] = &[&LALIBERTE_DENSITY, &water::IF97_REGION1];
 const VISCOSITY_SOURCES: &[&Formulation] = &[

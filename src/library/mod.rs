@@ -5,7 +5,7 @@
 //!
 //! A relation is one declarative entry (`relation::Relation`): its parameters with dimensions
 //! and domains, its result, its formulations and a body over checked SI numbers; everything
-//! else (checks, provenance, signature, row kernel) follows from the entry. The few built-ins
+//! else (checks, provenance, signature, column kernel) follows from the entry. The few built-ins
 //! that are polymorphic in dimension (`sqrt`, `min`, `max`, `kelvin`, the aggregates) are a
 //! `Builtin`, the escape hatch, whose body checks its own arguments.
 //!
@@ -37,11 +37,10 @@ pub mod transport;
 pub mod water;
 pub mod wells;
 
-use crate::eval::function::RowKernel;
 use crate::eval::{
     CallError, Constant, Formulation, Function, Library, Provenance, Quantity, Value,
 };
-use std::collections::HashMap;
+use rustc_hash::FxHashMap;
 use std::sync::OnceLock;
 
 /// A function body: arguments in SI with dimensions, the provenance to record into.
@@ -50,9 +49,6 @@ pub type Body = fn(&[Quantity], &mut Provenance) -> Result<Quantity, CallError>;
 /// The body of a function of whole columns (an aggregate, a table lookup); `None` hands the
 /// call to the row-by-row body (`min(a, b)` of two values, say).
 pub type ColumnBody = fn(&[Value], &mut Provenance) -> Option<Result<Value, CallError>>;
-
-/// Builds the row kernel of a function for arguments shaped like the first row.
-pub type KernelMaker = fn(&[Quantity]) -> Option<RowKernel<'static>>;
 
 /// A built-in polymorphic in dimension (`sqrt`, `min`, an aggregate): the escape hatch for what
 /// a `Relation`, with one dimension per parameter, cannot say. Its body checks its arguments.
@@ -63,7 +59,6 @@ pub struct Builtin {
     pub body: Body,
     /// Set for functions of whole columns; `body` then serves scalar calls only.
     pub column_body: Option<ColumnBody>,
-    pub kernel: Option<KernelMaker>,
     /// Takes absolute temperatures from offset scales (see `Function::takes_absolute_temperature`).
     pub takes_temperature: bool,
 }
@@ -76,7 +71,6 @@ impl Builtin {
             formulations: &[],
             body,
             column_body: None,
-            kernel: None,
             takes_temperature: false,
         }
     }
@@ -91,12 +85,6 @@ impl Builtin {
         let mut builtin = Builtin::new(signature, summary, scalar_body);
         builtin.column_body = Some(column_body);
         builtin
-    }
-
-    /// Adds a fast path for the rows of a column after the first.
-    pub const fn with_kernel(mut self, kernel: KernelMaker) -> Builtin {
-        self.kernel = Some(kernel);
-        self
     }
 
     /// Accepts absolute temperatures such as `20 degC` (a property, a mean, a lookup).
@@ -141,10 +129,6 @@ impl Function for Builtin {
             .and_then(|body| body(arguments, provenance))
     }
 
-    fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
-        self.kernel.and_then(|make| make(first_row))
-    }
-
     fn takes_absolute_temperature(&self) -> bool {
         self.takes_temperature
     }
@@ -182,8 +166,8 @@ fn all_builtins() -> impl Iterator<Item = &'static (&'static str, Builtin)> {
 
 /// The standard library handed to the evaluator.
 pub struct Builtins {
-    functions: HashMap<&'static str, &'static dyn Function>,
-    constants: HashMap<&'static str, &'static Constant>,
+    functions: FxHashMap<&'static str, &'static dyn Function>,
+    constants: FxHashMap<&'static str, &'static Constant>,
 }
 
 impl Builtins {
@@ -191,7 +175,8 @@ impl Builtins {
     pub fn standard() -> &'static Builtins {
         static BUILTINS: OnceLock<Builtins> = OnceLock::new();
         BUILTINS.get_or_init(|| {
-            let mut functions: HashMap<&'static str, &'static dyn Function> = HashMap::new();
+            let mut functions: FxHashMap<&'static str, &'static dyn Function> =
+                FxHashMap::default();
             for relation in all_relations() {
                 functions.insert(relation.name, relation);
             }

@@ -4,8 +4,8 @@
 //!
 //! Everything around the body is done here, once, from the entry: the argument count, each
 //! dimension, each domain, each validity range, the provenance record, the signature shown in
-//! listings and hints, and the row kernel of the column fast path (the body itself, with the
-//! same checks on every row). A body therefore never checks a single parameter; it checks only
+//! listings and hints, and the column kernel of the fast path (the body itself, with the same
+//! checks on every row, made over whole column spans first). A body therefore never checks a single parameter; it checks only
 //! what involves several (a radius of influence beyond the well, a head that falls) and returns
 //! the value.
 //!
@@ -13,7 +13,7 @@
 //! meant (`hydraulic_conductivity(k, T)` for water or `(k, rho, mu)` for any fluid): the first
 //! form whose argument count and dimensions match is used.
 
-use crate::eval::function::{CallError, FormulaUse, RowKernel, ValidRange};
+use crate::eval::function::{CallError, ColumnKernel, FormulaUse, RowFailure, Rows, ValidRange};
 use crate::eval::{Formulation, Function, Provenance, Quantity};
 use crate::units::{Dimension, Unit};
 
@@ -48,6 +48,10 @@ pub struct Parameter {
     pub domain: Domain,
     /// The SI value used when the argument is left out (trailing parameters only).
     pub default: Option<f64>,
+    /// A pressure of liquid water: at or above the saturation pressure at the form's absolute
+    /// temperature. The formulation checks it on every call; the flag lets a column prove it
+    /// once for all its rows from the hottest row.
+    pub liquid_water_pressure: bool,
 }
 
 impl Parameter {
@@ -63,6 +67,7 @@ impl Parameter {
             dimension,
             domain,
             default: None,
+            liquid_water_pressure: false,
         }
     }
 
@@ -90,6 +95,12 @@ impl Parameter {
             self.meaning,
             self.dimension.phrase()
         )
+    }
+
+    /// The same parameter, marked as the pressure of liquid water (see `liquid_water_pressure`).
+    pub const fn of_liquid_water(mut self) -> Parameter {
+        self.liquid_water_pressure = true;
+        self
     }
 
     /// The same parameter, optional, with `value` (SI) when left out.
@@ -431,53 +442,36 @@ impl Function for Relation {
         Ok(Quantity::new(value, form.result))
     }
 
-    /// Every relation is its own row kernel: the rows after the first go through the same
-    /// number checks and the body, without re-deciding the form or the dimensions. The checks
-    /// that can fail are listed once here, so a row costs only them and the body.
-    fn row_kernel(&self, first_row: &[Quantity]) -> Option<RowKernel<'_>> {
+    /// Every relation is its own column kernel: the rows after the first go through the same
+    /// number checks and the body, without re-deciding the form or the dimensions.
+    fn column_kernel(&self, first_row: &[Quantity]) -> Option<Box<dyn ColumnKernel + '_>> {
         let form = self.form_for(first_row).ok()?;
         let provided = first_row.len();
-        let domains: Vec<(usize, Domain)> = form.parameters[..provided]
-            .iter()
-            .enumerate()
-            .filter(|(_, parameter)| parameter.domain != Domain::Any)
-            .map(|(index, parameter)| (index, parameter.domain))
-            .collect();
-        let has_ranges = form
-            .formulations
-            .iter()
-            .any(|formulation| !formulation.ranges.is_empty());
-        let arity = form.parameters.len().min(MOST_PARAMETERS);
-        let mut defaults = [0.0; MOST_PARAMETERS];
-        for (slot, parameter) in defaults.iter_mut().zip(form.parameters) {
-            *slot = parameter.default.unwrap_or(f64::NAN);
+        let arity = form.parameters.len();
+        if provided > arity || arity > MOST_PARAMETERS {
+            return None;
         }
-        Some(Box::new(move |row: &[f64]| {
-            for &(index, domain) in &domains {
-                match row.get(index) {
-                    Some(value) if domain.admits(*value) => {}
-                    _ => return Err(domain_error(index, &form.parameters[index])),
-                }
-            }
-            if has_ranges {
-                form.check_numbers(row)?;
-            }
-            if row.len() == arity {
-                return (form.body)(row);
-            }
-            if row.len() != provided || arity > MOST_PARAMETERS {
-                return form.evaluate(row);
-            }
-            // Written element by element: copying the whole template costs a `memcpy` call
-            // per row.
-            let mut full = [0.0; MOST_PARAMETERS];
-            for index in 0..arity {
-                full[index] = match row.get(index) {
-                    Some(value) => *value,
-                    None => defaults[index],
-                };
-            }
-            (form.body)(&full[..arity])
+        let mut template = [0.0; MOST_PARAMETERS];
+        for (index, (slot, parameter)) in template.iter_mut().zip(form.parameters).enumerate() {
+            *slot = match first_row.get(index) {
+                Some(argument) => argument.value,
+                None => parameter.default.unwrap_or(f64::NAN),
+            };
+        }
+        let temperature = form
+            .parameters
+            .iter()
+            .position(|parameter| parameter.domain == Domain::AbsoluteTemperature);
+        let pressure = form
+            .parameters
+            .iter()
+            .position(|parameter| parameter.liquid_water_pressure);
+        Some(Box::new(FormKernel {
+            form,
+            provided,
+            arity,
+            template,
+            liquid_state: temperature.zip(pressure),
         }))
     }
 
@@ -505,6 +499,165 @@ impl Function for Relation {
                 .iter()
                 .any(|parameter| parameter.domain == Domain::AbsoluteTemperature)
         })
+    }
+}
+
+/// The column fast path of one form for one call: the argument count, the defaults and the
+/// scalars are settled on the first row. A span of rows is checked column by column first
+/// (plain comparisons over slices), then the body runs in a tight loop up to the first refused
+/// row, whose refusal is then worded exactly as `Function::call` words it.
+struct FormKernel {
+    form: &'static Form,
+    /// Arguments given; the parameters after them take their defaults.
+    provided: usize,
+    arity: usize,
+    /// A row with the scalars and defaults in place; columns fill their slots row by row.
+    template: [f64; MOST_PARAMETERS],
+    /// The absolute temperature and the liquid-water pressure, when the form has both: a span
+    /// of rows proves once from its hottest row and lowest pressure that no row is steam.
+    liquid_state: Option<(usize, usize)>,
+}
+
+impl FormKernel {
+    /// The first row in `first..end` that a domain or a validity range refuses, or `end`. Only
+    /// columns are looked at: a scalar is the same in every row, and the first row passed.
+    fn first_refused(&self, arguments: &[Rows<'_>], first: usize, end: usize) -> usize {
+        let mut refused = end;
+        for (argument, parameter) in arguments.iter().zip(&self.form.parameters[..self.provided]) {
+            let Rows::Each(values) = argument else {
+                continue;
+            };
+            let Some(span) = values.get(first..refused) else {
+                return first;
+            };
+            if parameter.domain != Domain::Any {
+                let domain = parameter.domain;
+                if let Some(offset) = span.iter().position(|value| !domain.admits(*value)) {
+                    refused = first + offset;
+                }
+            }
+            for formulation in self.form.formulations {
+                for range in formulation.ranges {
+                    if range.parameter != parameter.name {
+                        continue;
+                    }
+                    let span = &values[first..refused];
+                    if let Some(offset) = span
+                        .iter()
+                        .position(|value| *value < range.low || *value > range.high)
+                    {
+                        refused = first + offset;
+                    }
+                }
+            }
+        }
+        refused
+    }
+
+    /// The extreme of an argument (or its default) over `first..end`: the hottest row with
+    /// `f64::max`, the lowest pressure with `f64::min`.
+    fn extreme(
+        &self,
+        arguments: &[Rows<'_>],
+        index: usize,
+        span: std::ops::Range<usize>,
+        pick: fn(f64, f64) -> f64,
+    ) -> f64 {
+        match arguments.get(index) {
+            Some(Rows::Each(values)) => values.get(span).map_or(f64::NAN, |values| {
+                values.iter().copied().reduce(pick).unwrap_or(f64::NAN)
+            }),
+            Some(Rows::Same(value)) => *value,
+            None => self.template[index],
+        }
+    }
+}
+
+impl ColumnKernel for FormKernel {
+    fn rows(
+        &self,
+        arguments: &[Rows<'_>],
+        first: usize,
+        out: &mut [f64],
+    ) -> Result<(), RowFailure> {
+        let end = first + out.len();
+        let _liquid = self.liquid_state.and_then(|(temperature, pressure)| {
+            let hottest = self.extreme(arguments, temperature, first..end, f64::max);
+            let lowest = self.extreme(arguments, pressure, first..end, f64::min);
+            super::water::prove_liquid(hottest, lowest)
+        });
+        // The columns among the arguments, with their slots in a row.
+        let mut columns: [(usize, &[f64]); MOST_PARAMETERS] = [(0, &[]); MOST_PARAMETERS];
+        let mut column_count = 0;
+        for (index, argument) in arguments.iter().enumerate().take(self.provided) {
+            if let Rows::Each(values) = argument {
+                if values.len() < end {
+                    return Err(RowFailure {
+                        row: values.len().max(first),
+                        error: None,
+                    });
+                }
+                columns[column_count] = (index, values);
+                column_count += 1;
+            }
+        }
+        let columns = &columns[..column_count];
+        let mut row_values = self.template;
+        let mut row = first;
+        while row < end {
+            let refused = self.first_refused(arguments, row, end);
+            for (slot, row_number) in out[row - first..refused - first]
+                .iter_mut()
+                .zip(row..refused)
+            {
+                for &(index, values) in columns {
+                    row_values[index] = values[row_number];
+                }
+                match (self.form.body)(&row_values[..self.arity]) {
+                    Ok(value) if value.is_finite() => *slot = value,
+                    Ok(_) => {
+                        return Err(RowFailure {
+                            row: row_number,
+                            error: None,
+                        })
+                    }
+                    Err(error) => {
+                        return Err(RowFailure {
+                            row: row_number,
+                            error: Some(error),
+                        })
+                    }
+                }
+            }
+            if refused == end {
+                break;
+            }
+            for &(index, values) in columns {
+                row_values[index] = values[refused];
+            }
+            if let Err(error) = self.form.check_numbers(&row_values[..self.provided]) {
+                return Err(RowFailure {
+                    row: refused,
+                    error: Some(error),
+                });
+            }
+            // The slice checks and the row's own checks agree, so this is not reached; if it
+            // were, the row is computed like any other.
+            row = refused;
+            let slot = &mut out[row - first];
+            match (self.form.body)(&row_values[..self.arity]) {
+                Ok(value) if value.is_finite() => *slot = value,
+                Ok(_) => return Err(RowFailure { row, error: None }),
+                Err(error) => {
+                    return Err(RowFailure {
+                        row,
+                        error: Some(error),
+                    })
+                }
+            }
+            row += 1;
+        }
+        Ok(())
     }
 }
 
@@ -762,21 +915,188 @@ mod tests {
         );
     }
 
-    /// The column fast path is the body itself: every row goes through the same checks.
-    #[test]
-    fn row_kernels_check_every_row() {
+    /// Rows 1.. of a call over `columns` (`None`: a scalar, the first row's value) through
+    /// `call` row by row, as the evaluator did before kernels: the values up to the first
+    /// failing row, and that row with its refusal.
+    fn row_by_row(
+        name: &str,
+        first_row: &[Quantity],
+        columns: &[Option<&[f64]>],
+    ) -> (Vec<f64>, Option<RowFailure>) {
         let library = Builtins::standard();
-        let function = library.function("darcy_flux").unwrap();
+        let function = library.function(name).unwrap();
+        let rows = columns
+            .iter()
+            .flatten()
+            .map(|column| column.len())
+            .max()
+            .unwrap();
+        let mut values = Vec::new();
+        for row in 1..rows {
+            let arguments: Vec<Quantity> = first_row
+                .iter()
+                .zip(columns)
+                .map(|(first, column)| Quantity {
+                    value: column.map_or(first.value, |column| column[row]),
+                    ..*first
+                })
+                .collect();
+            match function.call(&arguments, &mut Provenance::default()) {
+                Ok(value) if value.value.is_finite() => values.push(value.value),
+                Ok(_) => return (values, Some(RowFailure { row, error: None })),
+                Err(error) => {
+                    let failure = RowFailure {
+                        row,
+                        error: Some(error),
+                    };
+                    return (values, Some(failure));
+                }
+            }
+        }
+        (values, None)
+    }
+
+    /// The same rows through the column kernel, in spans of `span` rows as threads take them.
+    fn through_kernel(
+        name: &str,
+        first_row: &[Quantity],
+        columns: &[Option<&[f64]>],
+        span: usize,
+    ) -> (Vec<f64>, Option<RowFailure>) {
+        let library = Builtins::standard();
+        let function = library.function(name).unwrap();
+        let kernel = function.column_kernel(first_row).expect("a kernel");
+        let arguments: Vec<Rows> = first_row
+            .iter()
+            .zip(columns)
+            .map(|(first, column)| column.map_or(Rows::Same(first.value), Rows::Each))
+            .collect();
+        let rows = columns
+            .iter()
+            .flatten()
+            .map(|column| column.len())
+            .max()
+            .unwrap();
+        let mut out = vec![f64::NAN; rows - 1];
+        let mut failure = None;
+        for (index, chunk) in out.chunks_mut(span).enumerate() {
+            if let Err(failed) = kernel.rows(&arguments, 1 + index * span, chunk) {
+                failure = Some(failed);
+                break;
+            }
+        }
+        let computed = failure.as_ref().map_or(rows - 1, |failed| failed.row - 1);
+        out.truncate(computed);
+        (out, failure)
+    }
+
+    /// The kernel gives exactly the values and the first refusal of `call` row by row, for
+    /// every span length a thread might take.
+    fn kernel_matches_calls(name: &str, first_row: &[Quantity], columns: &[Option<&[f64]>]) {
+        let expected = row_by_row(name, first_row, columns);
+        for span in [1, 2, 7, 1000, usize::MAX / 2] {
+            let found = through_kernel(name, first_row, columns, span);
+            assert_eq!(
+                found.1, expected.1,
+                "{name}, spans of {span}: first failure"
+            );
+            let same = found.0.len() == expected.0.len()
+                && found
+                    .0
+                    .iter()
+                    .zip(&expected.0)
+                    .all(|(a, b)| a.to_bits() == b.to_bits());
+            assert!(same, "{name}, spans of {span}: values differ");
+        }
+    }
+
+    #[test]
+    fn column_kernels_refuse_the_rows_calls_refuse() {
+        // Domain: a negative conductivity at row 3 of a column, a fine gradient column.
+        let conductivity = [1e-5, 2e-5, 3e-5, -1e-5, 5e-5];
+        let gradient = [0.01, 0.5, 0.2, 0.1, 0.3];
         let first = [Quantity::new(1e-5, VELOCITY), Quantity::dimensionless(0.01)];
-        let kernel = function.row_kernel(&first).expect("a kernel");
-        assert_eq!(kernel(&[2e-5, 0.5]).unwrap(), 1e-5);
-        assert!(matches!(
-            kernel(&[-2e-5, 0.5]),
-            Err(CallError::Domain {
-                argument: Some(0),
-                ..
-            })
-        ));
+        kernel_matches_calls(
+            "darcy_flux",
+            &first,
+            &[Some(&conductivity), Some(&gradient)],
+        );
+        kernel_matches_calls("darcy_flux", &first, &[Some(&conductivity), None]);
+        // A range (Hazen's d10 from 0.1 to 3 mm) refused at row 4, after a clean row 3.
+        let d10 = [0.2e-3, 0.5e-3, 1e-3, 2e-3, 4e-3, 0.05e-3];
+        let first = [Quantity::new(0.2e-3, LENGTH)];
+        kernel_matches_calls("hazen_conductivity", &first, &[Some(&d10)]);
+        // Two refusals in the same row: the domain of the earlier parameter speaks first.
+        let porosity = [0.3, 0.3, 1.5];
+        let velocity = [1e-5, 1e-5, -1.0];
+        let first = [Quantity::new(1e-5, VELOCITY), Quantity::dimensionless(0.3)];
+        kernel_matches_calls(
+            "seepage_velocity",
+            &first,
+            &[Some(&velocity), Some(&porosity)],
+        );
+        // Not-a-number rows are refused by the domains as they were row by row.
+        let with_nan = [1e-5, f64::NAN, 1e-5];
+        let first = [Quantity::new(1e-5, VELOCITY), Quantity::dimensionless(0.01)];
+        kernel_matches_calls("darcy_flux", &first, &[Some(&with_nan), None]);
+    }
+
+    /// The saturation-pressure check proven once per span from its hottest row refuses exactly
+    /// the rows that the check on every row refused: steam at one atmosphere from 99.97 °C
+    /// (at 1 atm water boils at 373.124 K, 99.974 °C, by IF97 region 4; from memory), columns of
+    /// pressures falling through p_sat, rows just either side of it, and defaults.
+    #[test]
+    fn water_columns_refuse_steam_exactly_where_rows_did() {
+        let kelvins = |celsius: &[f64]| celsius.iter().map(|t| t + 273.15).collect::<Vec<_>>();
+        let warm = kelvins(
+            &(0..2000)
+                .map(|i| 5.0 + 0.05 * f64::from(i))
+                .collect::<Vec<_>>(),
+        );
+        let boiling = kelvins(&[20.0, 60.0, 99.9, 99.97, 99.974, 99.98, 100.5]);
+        let first_t = Quantity::new(warm[0], TEMPERATURE);
+        let first_p = Quantity::new(101_325.0, PRESSURE);
+        let permeability = Quantity::new(1e-12, AREA);
+        for name in ["water_density", "water_viscosity", "water_specific_heat"] {
+            kernel_matches_calls(name, &[first_t], &[Some(&warm)]);
+            kernel_matches_calls(name, &[first_t], &[Some(&boiling)]);
+            kernel_matches_calls(name, &[first_t, first_p], &[Some(&boiling), None]);
+        }
+        kernel_matches_calls(
+            "hydraulic_conductivity",
+            &[permeability, first_t],
+            &[None, Some(&boiling)],
+        );
+        // Brine on IF97 water: at 1 atm through boiling, and at 2 bar with a salinity column.
+        let salinity = vec![0.1; boiling.len()];
+        let brine = [first_t, first_p, Quantity::dimensionless(0.1)];
+        kernel_matches_calls(
+            "brine_density",
+            &brine,
+            &[Some(&boiling), None, Some(&salinity)],
+        );
+        let two_bar = [
+            first_t,
+            Quantity::new(2e5, PRESSURE),
+            Quantity::dimensionless(0.1),
+        ];
+        kernel_matches_calls(
+            "brine_density",
+            &two_bar,
+            &[Some(&boiling), None, Some(&salinity)],
+        );
+        // Pressures around p_sat at 90 °C (70.18 kPa), within a few units in the last place.
+        let p_sat = super::super::water::saturation_pressure_pa(363.15);
+        let near: Vec<f64> = [-1.0, 0.0, 1.0, 4.0, 1e6, -3.0]
+            .iter()
+            .map(|ulps| p_sat + ulps * p_sat * f64::EPSILON)
+            .collect();
+        let at_90 = vec![363.15; near.len()];
+        let first_p = Quantity::new(near[0] * 2.0, PRESSURE);
+        for name in ["water_density", "water_viscosity"] {
+            kernel_matches_calls(name, &[first_t, first_p], &[Some(&at_90), Some(&near)]);
+            kernel_matches_calls(name, &[first_t, first_p], &[Some(&warm[..6]), Some(&near)]);
+        }
     }
 
     #[test]

@@ -148,7 +148,7 @@ fn unit_items(document: &Document, expected: Option<Dimension>) -> Vec<Completio
             ..CompletionItem::default()
         });
     let catalog = catalog_entries().iter().flat_map(|entry| {
-        let dimension = entry.unit.dimension;
+        let dimension = entry.unit().dimension;
         let fits = expected.is_none_or(|expected| expected == dimension);
         entry
             .definition

@@ -33,6 +33,12 @@ pub fn parse_sheet(source: &str) -> ParsedSheet {
 /// Parses a sheet whose text starts at byte `base` of a larger offset space (an included
 /// sheet laid after the one that includes it).
 pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
+    let cores = std::thread::available_parallelism().map_or(1, usize::from);
+    parse_sheet_with(source, base, cores)
+}
+
+/// `parse_sheet_at` on at most `threads` threads (a long sheet's lines are split between them).
+pub fn parse_sheet_with(source: &str, base: usize, threads: usize) -> ParsedSheet {
     let mut raw_lines = Vec::new();
     // Editors on some systems start a UTF-8 file with a byte-order mark; it is not text.
     let (source, mut offset) = match source.strip_prefix(BYTE_ORDER_MARK) {
@@ -60,9 +66,7 @@ pub fn parse_sheet_at(source: &str, base: usize) -> ParsedSheet {
         })
     };
     // Lines parse independently, so a long sheet is split across the machine's cores.
-    let workers = std::thread::available_parallelism()
-        .map_or(1, usize::from)
-        .min(8);
+    let workers = threads.min(8);
     let results: Vec<Result<Line, (Line, SyntaxError)>> =
         if workers > 1 && raw_lines.len() >= PARALLEL_PARSE_LINES {
             let chunk = raw_lines.len().div_ceil(workers);
@@ -111,6 +115,35 @@ const PARALLEL_PARSE_LINES: usize = 2_000;
 /// Parses one line whose text starts at byte `offset` of its file.
 pub fn parse_line(text: &str, number: usize, offset: usize) -> Result<Line, SyntaxError> {
     guard_against_deep_input(text, offset)?;
+    if let Some(kind_and_comment) = plain_text_line(text) {
+        let (kind, comment) = kind_and_comment;
+        return Ok(Line {
+            number,
+            span: Span::new(offset, offset + text.len()),
+            kind,
+            comment,
+        });
+    }
+    parse_line_with_grammar(text, number, offset)
+}
+
+/// A blank line, a heading or a comment alone: what the grammar makes of them is plain (a
+/// heading or a comment is the rest of the line, trimmed), so they skip the parser's fixed
+/// cost. Anything else is `None` and goes to the grammar.
+fn plain_text_line(text: &str) -> Option<(LineKind, Option<String>)> {
+    let rest = text.trim_start_matches([' ', '\t']);
+    if rest.is_empty() {
+        return Some((LineKind::Blank, None));
+    }
+    if let Some(heading) = rest.strip_prefix("##") {
+        return Some((LineKind::Heading(heading.trim().to_string()), None));
+    }
+    let comment = rest.strip_prefix('#')?;
+    Some((LineKind::Comment, Some(comment.trim().to_string())))
+}
+
+/// One line through the grammar (every line but the plain ones of `plain_text_line`).
+fn parse_line_with_grammar(text: &str, number: usize, offset: usize) -> Result<Line, SyntaxError> {
     let mut pairs =
         WorksheetParser::parse(Rule::line, text).map_err(|error| convert(error, text, offset))?;
     let line_pair = pairs.next().ok_or_else(|| internal(offset))?;
@@ -1083,6 +1116,63 @@ fn describe(rule: Rule) -> Option<&'static str> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// Blank lines, headings and comments alone skip the grammar: each gives exactly the line
+    /// the grammar gives, and lines that only look like them still go through it.
+    #[test]
+    fn plain_lines_read_as_the_grammar_reads_them() {
+        let plain = [
+            "",
+            " ",
+            "\t \t",
+            "#",
+            "# a comment",
+            "   #  indented comment  ",
+            "##",
+            "## Heading",
+            "\t## Heading with (parentheses) and \"quotes\" ",
+            "###  three",
+            "#x = 1 m",
+            "## ünïcödé  ",
+            "# trailing\u{a0}",
+            "#\u{3000}wide space",
+        ];
+        for text in plain {
+            assert!(plain_text_line(text).is_some(), "{text:?} is plain");
+            assert_eq!(
+                parse_line(text, 3, 10),
+                parse_line_with_grammar(text, 3, 10),
+                "{text:?}"
+            );
+        }
+        let not_plain = [
+            "x = 1 m # note",
+            "\u{a0}",
+            "\u{3000}# wide space first",
+            "@title: t",
+            "check a > b",
+            "\x0b",
+            "x",
+            " x = 2",
+        ];
+        for text in not_plain {
+            assert!(
+                plain_text_line(text).is_none(),
+                "{text:?} goes to the grammar"
+            );
+        }
+        // The depth guard still looks at every line first, as it did.
+        for text in [
+            format!("# {}", "(".repeat(NESTING_LIMIT + 1)),
+            format!("## {}", "1 + ".repeat(OPERATOR_LIMIT + 1)),
+        ] {
+            assert_eq!(
+                parse_line(&text, 1, 0),
+                guard_against_deep_input(&text, 0)
+                    .and_then(|()| parse_line_with_grammar(&text, 1, 0))
+            );
+        }
+    }
 
     fn expression(text: &str) -> Expression {
         parse_expression(text).unwrap_or_else(|error| panic!("{text}: {error}"))

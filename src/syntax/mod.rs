@@ -11,8 +11,8 @@ pub mod span;
 
 pub use ast::*;
 pub use build::{
-    parse_expression, parse_line, parse_set_value, parse_sheet, parse_sheet_at, parse_unit,
-    ParsedSheet, BYTE_ORDER_MARK, UNIT_EXPONENT_LIMIT,
+    parse_expression, parse_line, parse_set_value, parse_sheet, parse_sheet_at, parse_sheet_with,
+    parse_unit, ParsedSheet, BYTE_ORDER_MARK, UNIT_EXPONENT_LIMIT,
 };
 pub use error::SyntaxError;
 pub use span::Span;

@@ -20,6 +20,12 @@ pub struct Factor {
     value: f64,
 }
 
+/// 10^0 to 10^22: every one is an exact double (5^22 < 2^53).
+const EXACT_POWERS_OF_TEN: [f64; 23] = [
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
+    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
+
 /// `mantissa × 10^exponent` with 1 <= |mantissa| < 10 (28 significant digits).
 #[derive(Debug, Clone, Copy, PartialEq)]
 struct ScientificDecimal {
@@ -224,6 +230,25 @@ impl ScientificDecimal {
 
     /// Correctly rounded: the decimal text goes through the standard library's float parser.
     fn to_f64(self) -> f64 {
+        // Clinger's fast path: an integer below 2^53 and a power of ten up to 10^22 are both
+        // exact doubles, so one multiplication or division rounds once, as reading the
+        // decimal text does. Zero keeps its sign through the text.
+        let digits = self.mantissa.mantissa();
+        let power = i64::from(self.exponent) - i64::from(self.mantissa.scale());
+        if digits != 0 && digits.unsigned_abs() < 1 << 53 && power.unsigned_abs() <= 22 {
+            let whole = digits as f64;
+            let ten_to_the = EXACT_POWERS_OF_TEN[power.unsigned_abs() as usize];
+            return if power >= 0 {
+                whole * ten_to_the
+            } else {
+                whole / ten_to_the
+            };
+        }
+        self.to_f64_through_text()
+    }
+
+    /// The correctly rounded double of any value, through its decimal text.
+    fn to_f64_through_text(self) -> f64 {
         format!("{}e{}", self.mantissa, self.exponent)
             .parse::<f64>()
             .unwrap_or_else(|_| {
@@ -254,6 +279,48 @@ impl fmt::Display for ScientificDecimal {
 
 #[cfg(test)]
 mod tests {
+    /// The fast conversion gives the very double the decimal text reads as: mantissas of up
+    /// to 17 digits over the whole range of exponents, both signs, and the products of unit
+    /// factors with literals that sheets make.
+    #[test]
+    fn fast_conversion_to_double_is_the_correctly_rounded_one() {
+        let mut state: u64 = 0x2545_f491_4f6c_dd1d;
+        let mut next = move || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            state
+        };
+        for _ in 0..200_000 {
+            let digits = next() % 10u64.pow(1 + (next() % 17) as u32);
+            let exponent = (next() % 60) as i32 - 30;
+            let sign = if next() % 2 == 0 { "" } else { "-" };
+            let text = format!("{sign}{digits}e{exponent}");
+            let Some(number) = ScientificDecimal::parse(&text) else {
+                // Zero has no mantissa in [1, 10): callers multiply as doubles instead.
+                assert_eq!(digits, 0, "{text}");
+                continue;
+            };
+            assert_eq!(
+                number.to_f64().to_bits(),
+                number.to_f64_through_text().to_bits(),
+                "{text}"
+            );
+        }
+        let feet = Factor::from_definition("0.3048").expect("ft");
+        for literal in ["1", "12.5", "0.001", "-7", "3e-9", "123456789.123", "1e300"] {
+            let exact = feet.apply_exact(literal).expect("exact");
+            let number = ScientificDecimal::parse(literal)
+                .and_then(|value| value.multiply(&feet.exact?))
+                .expect("a product");
+            assert_eq!(
+                exact.to_bits(),
+                number.to_f64_through_text().to_bits(),
+                "{literal} ft"
+            );
+        }
+    }
+
     use super::*;
 
     fn exact(text: &str) -> Factor {

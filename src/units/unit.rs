@@ -6,6 +6,7 @@
 use super::catalog::{TemperatureRole, UnitDefinition, AMBIGUOUS, PREFIXES, UNITS};
 use super::dimension::{Dimension, Exponent, ExponentOverflow};
 use super::factor::Factor;
+use rustc_hash::FxBuildHasher;
 use std::collections::HashMap;
 use std::sync::OnceLock;
 
@@ -52,49 +53,56 @@ impl From<ExponentOverflow> for UnitError {
     }
 }
 
-/// A catalog row with its factor read once.
+/// A catalog row with its factor read on first use: a run reads the factors of the units it
+/// writes, not of the whole table.
 #[derive(Debug)]
 pub struct CatalogEntry {
     pub definition: &'static UnitDefinition,
-    pub unit: Unit,
+    unit: OnceLock<Unit>,
 }
 
-struct Catalog {
-    by_symbol: HashMap<&'static str, usize>,
-    /// Catalog symbols by their lower-case letters, for case-aware suggestions.
-    by_folded: HashMap<String, Vec<&'static str>>,
-    entries: Vec<CatalogEntry>,
-    prefixes: Vec<(&'static str, Factor)>,
-}
-
-/// The catalog, read from the `UNITS` table on first use.
-fn catalog() -> &'static Catalog {
-    static CATALOG: OnceLock<Catalog> = OnceLock::new();
-    CATALOG.get_or_init(|| {
-        let mut entries = Vec::with_capacity(UNITS.len());
-        let mut by_symbol = HashMap::new();
-        let mut by_folded: HashMap<String, Vec<&'static str>> = HashMap::new();
-        for definition in UNITS {
+impl CatalogEntry {
+    /// The row as a unit, its exact factor read from the definition the first time.
+    pub fn unit(&self) -> &Unit {
+        self.unit.get_or_init(|| {
+            let definition = self.definition;
             // The table is ours; a factor it cannot read is a bug caught by the catalog test.
             let factor =
                 Factor::from_definition(definition.factor).unwrap_or(Factor::from_f64(f64::NAN));
             let offset = definition
                 .offset
                 .map(|text| Factor::from_definition(text).unwrap_or(Factor::from_f64(0.0)));
-            let unit = Unit {
+            Unit {
                 dimension: Dimension::from_integers(definition.dimension),
                 factor,
                 offset: offset.filter(|_| definition.offset != Some("0")),
                 temperature: definition.temperature,
-            };
+            }
+        })
+    }
+}
+
+struct Catalog {
+    by_symbol: HashMap<&'static str, usize, FxBuildHasher>,
+    entries: Vec<CatalogEntry>,
+    prefixes: Vec<(&'static str, Factor)>,
+}
+
+/// The catalog's index of symbols, built from the `UNITS` table on first use (the factors wait
+/// for their own first use).
+fn catalog() -> &'static Catalog {
+    static CATALOG: OnceLock<Catalog> = OnceLock::new();
+    CATALOG.get_or_init(|| {
+        let mut entries = Vec::with_capacity(UNITS.len());
+        let mut by_symbol = HashMap::with_capacity_and_hasher(UNITS.len() * 2, FxBuildHasher);
+        for definition in UNITS {
             for symbol in definition.symbols {
                 by_symbol.insert(*symbol, entries.len());
-                by_folded
-                    .entry(symbol.to_lowercase())
-                    .or_default()
-                    .push(symbol);
             }
-            entries.push(CatalogEntry { definition, unit });
+            entries.push(CatalogEntry {
+                definition,
+                unit: OnceLock::new(),
+            });
         }
         let prefixes = PREFIXES
             .iter()
@@ -105,10 +113,27 @@ fn catalog() -> &'static Catalog {
             .collect();
         Catalog {
             by_symbol,
-            by_folded,
             entries,
             prefixes,
         }
+    })
+}
+
+/// Catalog symbols by their lower-case letters, for case-aware suggestions and refusals (built
+/// on first need: only a unit written in an unusual case asks).
+fn by_folded() -> &'static HashMap<String, Vec<&'static str>> {
+    static BY_FOLDED: OnceLock<HashMap<String, Vec<&'static str>>> = OnceLock::new();
+    BY_FOLDED.get_or_init(|| {
+        let mut by_folded: HashMap<String, Vec<&'static str>> = HashMap::new();
+        for definition in UNITS {
+            for symbol in definition.symbols {
+                by_folded
+                    .entry(symbol.to_lowercase())
+                    .or_default()
+                    .push(symbol);
+            }
+        }
+        by_folded
     })
 }
 
@@ -145,7 +170,7 @@ impl Unit {
         }
         let catalog = catalog();
         if let Some(index) = catalog.by_symbol.get(symbol) {
-            return Ok(catalog.entries[*index].unit.clone());
+            return Ok(catalog.entries[*index].unit().clone());
         }
         for (prefix, prefix_factor) in &catalog.prefixes {
             let Some(rest) = symbol.strip_prefix(prefix) else {
@@ -171,11 +196,12 @@ impl Unit {
                             .to_string(),
                     });
                 }
+                let unit = entry.unit();
                 return Ok(Unit {
-                    dimension: entry.unit.dimension,
-                    factor: prefix_factor.multiply(&entry.unit.factor),
+                    dimension: unit.dimension,
+                    factor: prefix_factor.multiply(&unit.factor),
                     offset: None,
-                    temperature: entry.unit.temperature,
+                    temperature: unit.temperature,
                 });
             }
         }
@@ -262,7 +288,7 @@ impl Catalog {
     /// A catalog symbol spelled with the same letters as `symbol` in another case (`Pa` for
     /// `PA`), if there is one.
     fn unprefixed_with_same_letters(&self, symbol: &str) -> Option<&'static str> {
-        self.by_folded
+        by_folded()
             .get(&symbol.to_lowercase())?
             .iter()
             .find(|candidate| **candidate != symbol)
@@ -273,8 +299,7 @@ impl Catalog {
     /// `md`, `kPa` for `KPA`), those keeping more of the user's own letter cases first.
     fn same_letters(&self, symbol: &str) -> Vec<String> {
         let folded = symbol.to_lowercase();
-        let mut found: Vec<String> = self
-            .by_folded
+        let mut found: Vec<String> = by_folded()
             .get(&folded)
             .into_iter()
             .flatten()
@@ -284,7 +309,7 @@ impl Catalog {
             let Some(rest) = folded.strip_prefix(&prefix.to_lowercase()) else {
                 continue;
             };
-            for base in self.by_folded.get(rest).into_iter().flatten() {
+            for base in by_folded().get(rest).into_iter().flatten() {
                 if self.entries[self.by_symbol[base]].definition.prefixable {
                     found.push(format!("{prefix}{base}"));
                 }
@@ -337,7 +362,7 @@ mod tests {
     fn every_catalog_factor_reads() {
         for entry in catalog_entries() {
             assert!(
-                entry.unit.factor.value().is_finite(),
+                entry.unit().factor.value().is_finite(),
                 "{:?}",
                 entry.definition.symbols
             );

@@ -56,6 +56,8 @@ pub(crate) struct Calculator<'l> {
     pub(super) parameters: Vec<Vec<(String, Value)>>,
     /// The longest column allowed.
     pub(crate) max_rows: usize,
+    /// Threads a long column's kernel may be split across (`Settings::threads`).
+    pub(crate) threads: usize,
     /// The rows the sheet's column-valued lines hold together, against `--max-total-rows`.
     pub(crate) row_budget: crate::eval::columns::RowBudget,
     /// The data files the sheet reads, by the span of the path in each `column … from` line.
@@ -79,6 +81,7 @@ impl<'l> Calculator<'l> {
             unit_cache: HashMap::default(),
             parameters: Vec::new(),
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
+            threads: super::available_cores(),
             row_budget: crate::eval::columns::RowBudget::new(
                 crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
             ),

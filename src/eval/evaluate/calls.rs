@@ -1,8 +1,9 @@
 //! Calls: built-ins (row by row over columns, through their kernels) and sheet functions.
 
 use super::*;
+use crate::eval::columns::Rows;
 use crate::eval::error::{EvalError, EvalErrorKind};
-use crate::eval::function::CallError;
+use crate::eval::function::{CallError, ColumnKernel, Function, RowFailure};
 use crate::eval::value::{Column, Quantity, Value};
 use crate::syntax::{Expression, FunctionDefinition, Span};
 use crate::units::Dimension;
@@ -178,55 +179,62 @@ impl<'l> Calculator<'l> {
         let shape = callee
             .call(&first_row, &mut self.provenance)
             .map_err(|error| call_error(error).in_row(0, &origin))?;
-        let columns: Vec<crate::eval::columns::Rows> =
-            values.iter().map(crate::eval::columns::Rows::of).collect();
-        let mut results = Vec::with_capacity(rows);
-        results.push(shape.value);
-        let mut row_values = first_row;
-        let failed = if let Some(kernel) = callee.row_kernel(&row_values) {
-            let mut numbers: Vec<f64> = row_values.iter().map(|quantity| quantity.value).collect();
-            (1..rows).find_map(|row| {
-                for (number, column) in numbers.iter_mut().zip(&columns) {
-                    *number = column.at(row);
+        let columns: Vec<Rows> = values.iter().map(Rows::of).collect();
+        let computed = match callee.column_kernel(&first_row) {
+            Some(kernel) => {
+                let mut results = vec![0.0; rows];
+                results[0] = shape.value;
+                match rows_in_parallel(kernel.as_ref(), &columns, &mut results, self.threads) {
+                    None => Ok(results),
+                    Some(failure) => Err(failure),
                 }
-                match kernel(&numbers) {
-                    Ok(value) if value.is_finite() => {
-                        results.push(value);
-                        None
-                    }
-                    Ok(_) => Some((row, None)),
-                    Err(error) => Some((row, Some(error))),
-                }
-            })
-        } else {
-            let provenance = &mut self.provenance;
-            (1..rows).find_map(|row| {
-                for (quantity, column) in row_values.iter_mut().zip(&columns) {
-                    quantity.value = column.at(row);
-                }
-                match callee.call(&row_values, provenance) {
-                    Ok(value) if value.value.is_finite() => {
-                        results.push(value.value);
-                        None
-                    }
-                    Ok(_) => Some((row, None)),
-                    Err(error) => Some((row, Some(error))),
-                }
-            })
+            }
+            None => self.rows_one_by_one(callee, first_row, &columns, rows, shape.value),
         };
-        if let Some((row, error)) = failed {
-            let error = match error {
-                Some(error) => call_error(error),
-                None => EvalError::new(EvalErrorKind::NotFinite, span),
-            };
-            return Err(error.in_row(row, &origin).into());
+        match computed {
+            Ok(results) => Ok(Value::Column(Column {
+                values: Arc::new(results),
+                dimension: shape.dimension,
+                temperature: shape.temperature,
+                origin,
+            })),
+            Err(RowFailure { row, error }) => {
+                let error = match error {
+                    Some(error) => call_error(error),
+                    None => EvalError::new(EvalErrorKind::NotFinite, span),
+                };
+                Err(error.in_row(row, &origin).into())
+            }
         }
-        Ok(Value::Column(Column {
-            values: Arc::new(results),
-            dimension: shape.dimension,
-            temperature: shape.temperature,
-            origin,
-        }))
+    }
+
+    /// Rows 1.. of a call of a function without a kernel, each through `call`.
+    fn rows_one_by_one(
+        &mut self,
+        callee: &dyn Function,
+        mut row_values: Vec<Quantity>,
+        columns: &[Rows<'_>],
+        rows: usize,
+        first_value: f64,
+    ) -> Result<Vec<f64>, RowFailure> {
+        let mut results = Vec::with_capacity(rows);
+        results.push(first_value);
+        for row in 1..rows {
+            for (quantity, column) in row_values.iter_mut().zip(columns) {
+                quantity.value = column.at(row);
+            }
+            match callee.call(&row_values, &mut self.provenance) {
+                Ok(value) if value.value.is_finite() => results.push(value.value),
+                Ok(_) => return Err(RowFailure { row, error: None }),
+                Err(error) => {
+                    return Err(RowFailure {
+                        row,
+                        error: Some(error),
+                    })
+                }
+            }
+        }
+        Ok(results)
     }
 
     /// Resolves a function's declared units once at its definition; returns its signature.
@@ -328,4 +336,48 @@ pub(super) fn unit_span(function: &FunctionDefinition) -> Span {
         .result_unit
         .as_ref()
         .map_or(function.name.span, |unit| unit.span)
+}
+
+/// The fewest rows a thread of a column kernel takes: a column is split across the cores only
+/// from twice this many rows. Starting a thread and joining it costs far less than 20 000 rows
+/// of even the cheapest relation (see DEVELOPERS.md, Performance).
+pub(crate) const PARALLEL_ROWS: usize = 20_000;
+
+/// Rows 1.. of a call through its kernel into `results` (row 0 holds the first row's value),
+/// split into one contiguous span per thread (at most `threads`) when the column is long.
+/// Every span stops at its own first failure, so the first failing span's failure is the
+/// column's first failing row, the one a row-by-row loop would report.
+fn rows_in_parallel(
+    kernel: &dyn ColumnKernel,
+    arguments: &[Rows<'_>],
+    results: &mut [f64],
+    threads: usize,
+) -> Option<RowFailure> {
+    let rest = &mut results[1..];
+    let threads = threads.min(rest.len() / PARALLEL_ROWS.max(1)).max(1);
+    if threads == 1 {
+        return kernel.rows(arguments, 1, rest).err();
+    }
+    let span = rest.len().div_ceil(threads);
+    std::thread::scope(|scope| {
+        let mut pending = Vec::with_capacity(threads);
+        let mut spans = rest.chunks_mut(span).enumerate();
+        // This thread takes the first span itself.
+        let (_, own) = spans.next()?;
+        for (index, chunk) in spans {
+            let first = 1 + index * span;
+            pending.push(scope.spawn(move || kernel.rows(arguments, first, chunk)));
+        }
+        let mut failed = kernel.rows(arguments, 1, own).err();
+        for handle in pending {
+            // A kernel that panicked is our bug: the panic goes on as it would on one thread.
+            let outcome = handle
+                .join()
+                .unwrap_or_else(|panic| std::panic::resume_unwind(panic));
+            if failed.is_none() {
+                failed = outcome.err();
+            }
+        }
+        failed
+    })
 }

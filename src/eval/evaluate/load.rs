@@ -4,7 +4,7 @@ use crate::eval::data::DataTable;
 use crate::eval::diagnostic::Diagnostic;
 use crate::eval::error::{EvalError, EvalErrorKind};
 use crate::eval::sources::{IncludeLoader, SourceMap, INCLUDE_DEPTH_LIMIT};
-use crate::syntax::{parse_sheet_at, ExpressionKind, Line, LineKind, Span};
+use crate::syntax::{parse_sheet_with, ExpressionKind, Line, LineKind, Span};
 use rustc_hash::FxHashMap as HashMap;
 use std::sync::Arc;
 
@@ -27,6 +27,8 @@ pub(super) struct Loaded {
     /// reached by two spellings (`c.fxs`, `sub/../c.fxs`) loads once.
     pub(super) sheets: HashMap<String, String>,
     pub(super) max_rows: usize,
+    /// Threads for parsing (`Settings::threads`).
+    pub(super) threads: usize,
 }
 
 impl Loaded {
@@ -75,7 +77,10 @@ impl Loaded {
         let Some(file) = self.sources.file(index) else {
             return;
         };
-        let (label, parsed) = (file.label.clone(), parse_sheet_at(&file.text, file.base));
+        let (label, parsed) = (
+            file.label.clone(),
+            parse_sheet_with(&file.text, file.base, self.threads),
+        );
         let first = self.lines.len();
         self.lines.extend(parsed.sheet.lines);
         self.errors.extend(parsed.errors);

@@ -25,6 +25,9 @@ pub struct Settings {
     pub max_total_rows: usize,
     /// `(name, value text)`: the value replaces the line `name` for this run.
     pub overrides: Vec<(String, String)>,
+    /// Threads the sheet may use to parse and to compute long columns: every core by default,
+    /// one when `check` already runs a sheet on each core.
+    pub threads: usize,
     /// `run --samples N`: sample the sheet's distributions.
     pub sampling: Option<crate::eval::uncertainty::Sampling>,
 }
@@ -35,9 +38,16 @@ impl Default for Settings {
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
             max_total_rows: crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
             overrides: Vec::new(),
+            threads: available_cores(),
             sampling: None,
         }
     }
+}
+
+/// The cores this process may use, asked once (the answer reads the cgroup limits).
+pub fn available_cores() -> usize {
+    static CORES: std::sync::OnceLock<usize> = std::sync::OnceLock::new();
+    *CORES.get_or_init(|| std::thread::available_parallelism().map_or(1, usize::from))
 }
 
 /// The code of the diagnostic for a `--set` that names no line (a command-line error).
@@ -121,6 +131,7 @@ pub(super) fn prepare(
 ) -> Prepared {
     let mut loaded = Loaded {
         max_rows: settings.max_rows,
+        threads: settings.threads,
         ..Loaded::default()
     };
     let main = loaded.sources.add(label, source);
@@ -172,6 +183,7 @@ pub(super) fn evaluate_prepared(
 ) -> (Evaluation, Vec<crate::eval::uncertainty::UncertainInput>) {
     let mut evaluator = Evaluator::new(&prepared.sources, &prepared.lines, library);
     evaluator.calculator.max_rows = settings.max_rows;
+    evaluator.calculator.threads = settings.threads;
     evaluator.calculator.row_budget = crate::eval::columns::RowBudget::new(settings.max_total_rows);
     evaluator.calculator.data_files = prepared.data_files.clone();
     evaluator.first_sample = block.as_ref().map(|block| block.first_sample);

@@ -21,6 +21,7 @@ use uom::si::thermal_conductivity::watt_per_meter_kelvin;
 use uom::si::thermodynamic_temperature::kelvin;
 
 use crate::library::formulation::{Formulation, OutOfRange};
+use std::cell::Cell;
 
 const IF97_CITATION: &str = "IAPWS R7-97(2012), Revised Release on the IAPWS Industrial \
 Formulation 1997 for the Thermodynamic Properties of Water and Steam, International Association \
@@ -478,6 +479,9 @@ pub(crate) fn check_liquid_pressure(
             ),
         ));
     }
+    if within_proven_liquid(t_k, p_pa) {
+        return Ok(());
+    }
     let p_sat = saturation_pressure_pa(t_k);
     if p_pa < p_sat {
         return Err(out_of_range(
@@ -496,6 +500,55 @@ pub(crate) fn check_liquid_pressure(
         ));
     }
     Ok(())
+}
+
+thread_local! {
+    /// While a span of a column's rows is computed on this thread: a temperature ceiling and a
+    /// pressure floor at or above the saturation pressure at that ceiling. p_sat rises with T,
+    /// so a row no hotter than the ceiling and at no less than the floor is liquid without
+    /// evaluating eq. 30 again.
+    static PROVEN_LIQUID: Cell<Option<(f64, f64)>> = const { Cell::new(None) };
+}
+
+/// Relative margin by which the pressure floor must clear p_sat at the ceiling: far above the
+/// rounding of eq. 30, so that p_sat computed at a cooler row can never exceed the floor.
+const PROVEN_LIQUID_MARGIN: f64 = 1e-9;
+
+/// Whether the state lies inside the envelope proven on this thread (see `prove_liquid`).
+#[inline]
+fn within_proven_liquid(t_k: f64, p_pa: f64) -> bool {
+    PROVEN_LIQUID.with(|proven| {
+        proven
+            .get()
+            .is_some_and(|(ceiling, floor)| t_k <= ceiling && p_pa >= floor)
+    })
+}
+
+/// Proves, from the hottest temperature and the lowest pressure of a span of rows, that no
+/// row of the span is steam: one evaluation of the saturation pressure instead of one per row.
+/// While the returned guard lives, `check_liquid_pressure` skips eq. 30 for rows inside the
+/// envelope (each row still compares its own T and p with it). `None` when nothing is proven:
+/// the rows are then checked one by one as before.
+pub(crate) fn prove_liquid(hottest_k: f64, lowest_pa: f64) -> Option<ProvenLiquid> {
+    if !(T_MIN..=T_CRIT).contains(&hottest_k) || !lowest_pa.is_finite() {
+        return None;
+    }
+    if lowest_pa < saturation_pressure_pa(hottest_k) * (1.0 + PROVEN_LIQUID_MARGIN) {
+        return None;
+    }
+    let previous = PROVEN_LIQUID.with(|proven| proven.replace(Some((hottest_k, lowest_pa))));
+    Some(ProvenLiquid { previous })
+}
+
+/// The envelope of `prove_liquid`, in force on this thread until dropped.
+pub(crate) struct ProvenLiquid {
+    previous: Option<(f64, f64)>,
+}
+
+impl Drop for ProvenLiquid {
+    fn drop(&mut self) {
+        PROVEN_LIQUID.with(|proven| proven.set(self.previous));
+    }
 }
 
 /// A round pressure comfortably above `p_sat` (1, 2 or 5 times a power of ten bar, at least
@@ -859,6 +912,44 @@ mod tests {
                 .get::<joule_per_kilogram_kelvin>();
             assert_sig(c / 1000.0, cp, 9, &format!("cp({t} K, {p} MPa)"));
         }
+    }
+
+    /// The envelope a column proves: only where the floor clears p_sat at the ceiling, only
+    /// while its guard lives, and sound because eq. 30 rises with T on a fine grid over its
+    /// whole range (so p_sat at any cooler row lies below p_sat at the hottest).
+    #[test]
+    fn proven_liquid_envelopes_are_sound_and_scoped() {
+        let mut previous = saturation_pressure_pa(T_MIN);
+        for step in 1..=200_000 {
+            let t = T_MIN + (T_CRIT - T_MIN) * f64::from(step) / 200_000.0;
+            let p = saturation_pressure_pa(t);
+            assert!(p > previous, "p_sat falls at {t} K");
+            previous = p;
+        }
+        assert!(
+            prove_liquid(373.15, 101_325.0).is_none(),
+            "steam at 100 degC"
+        );
+        assert!(
+            prove_liquid(T_CRIT + 1.0, 1e8).is_none(),
+            "above the critical point"
+        );
+        assert!(prove_liquid(f64::NAN, 101_325.0).is_none());
+        {
+            let _proven = prove_liquid(313.15, 101_325.0).expect("liquid up to 40 degC");
+            assert!(within_proven_liquid(300.0, 101_325.0));
+            assert!(
+                !within_proven_liquid(313.16, 101_325.0),
+                "hotter than proven"
+            );
+            assert!(!within_proven_liquid(300.0, 101_324.0), "lower than proven");
+            // Inside the envelope the refusals that do not depend on p_sat still speak.
+            assert!(check_liquid_pressure(&IF97_REGION1, 300.0, 2e8, P_MAX_REGION1).is_err());
+        }
+        assert!(
+            !within_proven_liquid(300.0, 101_325.0),
+            "the envelope ended with its guard"
+        );
     }
 
     #[test]

@@ -31,7 +31,9 @@ pub const TEMPERATURE_PARAMETER: Parameter = Parameter::new(
 );
 /// The absolute pressure, one standard atmosphere when left out.
 pub const PRESSURE_PARAMETER: Parameter =
-    Parameter::new("p", "the absolute pressure", PRESSURE, Domain::Any).or(STANDARD_PRESSURE_PA);
+    Parameter::new("p", "the absolute pressure", PRESSURE, Domain::Any)
+        .or(STANDARD_PRESSURE_PA)
+        .of_liquid_water();
 const STATE: &[Parameter] = &[TEMPERATURE_PARAMETER, PRESSURE_PARAMETER];
 
 const IF97: &[&Formulation] = &[&IF97_REGION1];
