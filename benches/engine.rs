@@ -291,6 +291,53 @@ fn columns(criterion: &mut Criterion) {
     group.finish();
 }
 
+/// Output of a 1 000 000-row column beside computing it: the sheet evaluated, then the same
+/// evaluation written as CSV, as the terminal table and as JSON to a sink. Each output's time
+/// over `compute` is its cost in columns computed; per cell it is the time over 1 000 000.
+fn column_output(criterion: &mut Criterion) {
+    use fluxsheet::render::{Format, RenderOptions};
+    const SHEET: &str = "x = 1 m to 1000000 m count 1000000\ny [ft] = x * 1.5\n";
+    let library = Builtins::standard();
+    let mut group = criterion.benchmark_group("column_output_1M");
+    group.sample_size(10);
+    group.throughput(Throughput::Elements(1_000_000));
+    group.bench_function("compute", |bencher| {
+        bencher.iter(|| evaluate_sheet(black_box(SHEET), library))
+    });
+    let evaluation = evaluate_sheet(SHEET, library);
+    assert!(!evaluation.has_errors());
+    let options = |format, digits| RenderOptions {
+        format,
+        digits,
+        width: Some(100),
+    };
+    for (name, format, digits) in [
+        ("csv_15_digits", Format::Csv, 15),
+        ("csv_4_digits", Format::Csv, 4),
+        ("table_4_digits", Format::Table, 4),
+    ] {
+        group.bench_function(name, |bencher| {
+            bencher.iter(|| {
+                let mut sink = std::io::BufWriter::new(std::io::sink());
+                fluxsheet::render::table::write_sheet(
+                    &mut sink,
+                    black_box(&evaluation),
+                    options(format, digits),
+                )
+                .expect("a sink takes everything");
+            })
+        });
+    }
+    group.bench_function("json", |bencher| {
+        bencher.iter(|| {
+            let mut sink = std::io::BufWriter::new(std::io::sink());
+            let json = fluxsheet::render::json::sheet_json(None, black_box(&evaluation), &[]);
+            serde_json::to_writer(&mut sink, &json).expect("a sink takes everything");
+        })
+    });
+    group.finish();
+}
+
 /// A pumping test of 1 000 readings (1 % noise from a fixed pattern) fitted for T and S: the
 /// whole sheet, so the cost includes re-evaluating the model column on every trial.
 fn fit_record(criterion: &mut Criterion) {
@@ -579,6 +626,7 @@ criterion_group!(
     check_folder,
     session,
     columns,
+    column_output,
     fit_record,
     lsp_keystroke
 );

@@ -81,7 +81,11 @@ pub fn sheet_in_every_format(data: &[u8]) {
         &fuzz_settings(),
     );
     for format in [Format::Table, Format::Markdown, Format::Csv] {
-        let options = RenderOptions { format, digits: 4 };
+        let options = RenderOptions {
+            format,
+            digits: 4,
+            width: Some(80),
+        };
         render::table::write_sheet(&mut io::sink(), &evaluation, options)
             .expect("a sink accepts everything");
     }

@@ -21,6 +21,7 @@ use std::path::{Path, PathBuf};
 
 mod against;
 mod check;
+mod functions;
 mod in_order;
 mod output_file;
 mod plots;
@@ -119,6 +120,18 @@ pub struct LimitArgs {
     /// Largest data file (`column … from`), in bytes
     #[arg(long, value_name = "BYTES", default_value_t = crate::front::limits::DEFAULT_MAX_DATA_BYTES)]
     pub max_data_bytes: u64,
+    /// The cell separator of data files, when the header line does not make it plain (by
+    /// default each file's own: a first line `sep=;`, or the commonest of `,` `;` tab in its
+    /// header)
+    #[arg(long, value_enum, value_name = "SEPARATOR")]
+    pub data_delimiter: Option<DelimiterArg>,
+}
+
+#[derive(ValueEnum, Debug, Clone, Copy, PartialEq, Eq)]
+pub enum DelimiterArg {
+    Comma,
+    Semicolon,
+    Tab,
 }
 
 impl LimitArgs {
@@ -126,6 +139,11 @@ impl LimitArgs {
         Settings {
             max_rows: self.max_rows,
             max_total_rows: self.max_total_rows,
+            data_delimiter: self.data_delimiter.map(|delimiter| match delimiter {
+                DelimiterArg::Comma => b',',
+                DelimiterArg::Semicolon => b';',
+                DelimiterArg::Tab => b'\t',
+            }),
             ..Settings::default()
         }
     }
@@ -171,10 +189,13 @@ pub enum Command {
     },
     /// Print a table of fluid properties versus temperature
     Properties(properties::PropertiesArgs),
-    /// List built-in functions and constants
-    #[command(after_help = "Examples:\n  fluxsheet functions\n  fluxsheet functions sqrt")]
+    /// List built-in functions and constants, or show one (or a formulation by its id) in full
+    #[command(
+        after_help = "Examples:\n  fluxsheet functions\n  fluxsheet functions darcy\n  fluxsheet functions water_viscosity\n  fluxsheet functions iapws-2008-viscosity"
+    )]
     Functions {
-        /// Show only entries whose name contains this text
+        /// Show only entries whose name contains this text; an exact name or formulation id
+        /// shows that entry in full
         filter: Option<String>,
     },
     /// Start an interactive session (also `fluxsheet` with no command)
@@ -216,8 +237,33 @@ impl OutputArgs {
             (None, Format::Csv) => FULL_PRECISION_DIGITS,
             (None, _) => DEFAULT_DIGITS,
         };
-        RenderOptions { format, digits }
+        let width = (format == Format::Table).then(table_width);
+        RenderOptions {
+            format,
+            digits,
+            width,
+        }
     }
+}
+
+/// The width terminal tables are fitted to when standard output is not a terminal (a pipe or
+/// a file, usually read later in a terminal or an editor).
+pub const WIDTH_WITHOUT_TERMINAL: usize = 100;
+
+/// The width of terminal tables: `COLUMNS` when it holds a number, else the terminal's own
+/// width when standard output is one, else `WIDTH_WITHOUT_TERMINAL`.
+pub fn table_width() -> usize {
+    let from_environment = std::env::var("COLUMNS")
+        .ok()
+        .and_then(|text| text.trim().parse::<usize>().ok())
+        .filter(|columns| *columns > 0);
+    from_environment
+        .or_else(|| {
+            terminal_size::terminal_size_of(io::stdout())
+                .map(|(terminal_size::Width(columns), _)| usize::from(columns))
+        })
+        .unwrap_or(WIDTH_WITHOUT_TERMINAL)
+        .max(crate::render::text_table::NARROWEST)
 }
 
 /// The expression of `eval`, which may start with one minus sign. A leading `--word` is a
@@ -237,6 +283,35 @@ fn expression_argument(text: &str) -> Result<String, String> {
     }
 }
 
+/// Why `--format` (a global option) cannot apply to `command`, so that no flag is accepted and
+/// silently ignored.
+fn refused_format(command: &Command, format: Format) -> Option<String> {
+    let name = match format {
+        Format::Table => return None,
+        Format::Markdown => "markdown",
+        Format::Csv => "csv",
+        Format::Json => "json",
+    };
+    match (command, format) {
+        (Command::Check(_), Format::Markdown | Format::Csv) => Some(format!(
+            "`check` writes a summary (the default) or `--format json`, not `{name}`: for the \
+             values of a sheet as {name}, use `fluxsheet run --format {name}`"
+        )),
+        (Command::Report(_), _) => Some(format!(
+            "`report` takes its format from the output file's name (*.md or *.html), not from \
+             `--format {name}`: for JSON, use `fluxsheet run --format json`"
+        )),
+        (Command::Repl { .. }, _) => Some(format!(
+            "the interactive session shows values as it goes; `--format {name}` does not \
+             apply to it (`fluxsheet run --format {name} FILE` writes a sheet as {name})"
+        )),
+        (Command::Completions { .. } | Command::Manual, _) => {
+            Some(format!("`--format {name}` does not apply to this command"))
+        }
+        _ => None,
+    }
+}
+
 /// Runs a parsed command line and returns the process exit code. Standard output tolerates a
 /// closed pipe (`run bad.fxs | head -1`): the commands finish and the exit code is still the
 /// sheet's.
@@ -247,6 +322,14 @@ pub fn run(command_line: CommandLine) -> u8 {
     }
     let options = command_line.output.options();
     let mut out = PipeSafe::new(io::stdout().lock());
+    let refusal = match &command_line.command {
+        Some(command) => refused_format(command, options.format),
+        None => refused_format(&Command::Repl { file: None }, options.format),
+    };
+    if let Some(message) = refusal {
+        crate::stderr_line!("error: {message}");
+        return exit::USAGE;
+    }
     let Some(command) = &command_line.command else {
         return finish(crate::repl::run(None, options, &mut out), &mut out);
     };
@@ -259,7 +342,7 @@ pub fn run(command_line: CommandLine) -> u8 {
             list_units(&mut out, filter.as_deref(), options).map(|_| exit::OK)
         }
         Command::Functions { filter } => {
-            list_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK)
+            functions::write_functions(&mut out, filter.as_deref(), options).map(|_| exit::OK)
         }
         Command::Properties(arguments) => {
             properties::run(&mut out, arguments, &command_line.output)
@@ -607,6 +690,9 @@ fn eval_expression(out: &mut dyn Write, text: &str, options: RenderOptions) -> i
                 )?;
             } else {
                 match shown {
+                    Shown::Scalar(_) if options.format != Format::Table => {
+                        render::table::write_sheet(out, &evaluation, options)?
+                    }
                     Shown::Scalar(shown) => {
                         let value = render::format_significant(shown.value, options.digits);
                         match shown.unit.as_str() {
@@ -663,7 +749,7 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
                 entry.definition.symbols.join(" "),
                 entry.definition.name.to_string(),
                 dimension_text,
-                format!("{factor} {}", dimension.si_unit_text()),
+                format!("{factor} {}", dimension.preferred_si_unit()),
                 entry.definition.source.to_string(),
                 entry.definition.note.to_string(),
             ]
@@ -680,66 +766,21 @@ fn list_units(out: &mut dyn Write, filter: Option<&str>, options: RenderOptions)
     write_listing(out, &header, &rows, options)?;
     if options.format == Format::Table && filter.is_none() {
         let symbols: Vec<&str> = prefixes().iter().map(|(symbol, _)| *symbol).collect();
-        writeln!(
-            out,
-            "\nSI prefixes (on units marked in DEVELOPERS.md as prefixable): {}",
+        let notes = format!(
+            "SI prefixes (on units marked in DEVELOPERS.md as prefixable): {}\nA degree inside \
+             a compound unit (W/(m*degC)) is a temperature difference.",
             symbols.join(" ")
-        )?;
-        writeln!(
-            out,
-            "A degree inside a compound unit (W/(m*degC)) is a temperature difference."
-        )?;
-    }
-    Ok(())
-}
-
-fn list_functions(
-    out: &mut dyn Write,
-    filter: Option<&str>,
-    options: RenderOptions,
-) -> io::Result<()> {
-    let library = Builtins::standard();
-    let keep = |name: &str| filter.is_none_or(|text| name.contains(text));
-    let mut rows: Vec<Vec<String>> = Vec::new();
-    for (name, builtin) in library.functions_sorted() {
-        if keep(name) {
-            let sources: Vec<String> = builtin
-                .formulations()
-                .iter()
-                .map(|formulation| {
-                    format!("{} [valid: {}]", formulation.citation, formulation.validity)
-                })
-                .collect();
-            rows.push(vec![
-                builtin.signature(),
-                "function".to_string(),
-                builtin.summary().to_string(),
-                sources.join("; "),
-            ]);
-        }
-    }
-    for constant in library.constants_sorted() {
-        if keep(constant.name) {
-            let value = render::format_significant(constant.quantity.value, 12);
-            rows.push(vec![
-                constant.name.to_string(),
-                format!("constant = {value} {}", constant.unit),
-                constant.summary.to_string(),
-                constant.source.to_string(),
-            ]);
-        }
-    }
-    write_listing(out, &["name", "kind", "summary", "source"], &rows, options)?;
-    // `functions NAME` of one relation: its formulas, parameters and an example under the row.
-    let named = filter.and_then(|name| crate::eval::Library::function(library, name));
-    if let (Some(function), Format::Table) = (named, options.format) {
+        );
         writeln!(out)?;
-        for line in function.details() {
+        for line in render::text_table::wrap(&notes, options.width.unwrap_or(usize::MAX)) {
             writeln!(out, "{line}")?;
         }
     }
     Ok(())
 }
+
+/// The narrowest a listing's column is drawn before its cells wrap.
+const LISTING_FLOOR: usize = 14;
 
 /// A plain listing in any format.
 fn write_listing(
@@ -795,13 +836,35 @@ fn write_listing(
             Ok(())
         }
         Format::Table => {
-            let mut table = comfy_table::Table::new();
-            table.load_preset(comfy_table::presets::UTF8_FULL_CONDENSED);
-            table.set_header(header.to_vec());
+            // Columns of numbers are right-aligned, so that their digits line up.
+            let aligns: Vec<render::text_table::Align> = (0..header.len())
+                .map(|index| {
+                    let numeric = rows.iter().all(|row| {
+                        row.get(index)
+                            .is_some_and(|cell| cell.parse::<f64>().is_ok())
+                    });
+                    if numeric && !rows.is_empty() {
+                        render::text_table::Align::Right
+                    } else {
+                        render::text_table::Align::Left
+                    }
+                })
+                .collect();
+            let mut table = render::text_table::TextTable::new(header, &aligns);
             for row in rows {
-                table.add_row(row.to_vec());
+                table.measure(row);
             }
-            writeln!(out, "{table}")
+            // Every column may wrap, the widest first; a short one keeps its width.
+            let widths = table.widths().to_vec();
+            for (index, width) in widths.iter().enumerate() {
+                table.set_floor(index, (*width).min(LISTING_FLOOR));
+            }
+            table.fit(options.width);
+            table.write_header(out, header)?;
+            for row in rows {
+                table.write_row(out, row)?;
+            }
+            Ok(())
         }
     }
 }

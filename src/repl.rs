@@ -685,7 +685,7 @@ impl Repl {
             writeln!(
                 out,
                 "  in SI: {factor} {}",
-                entry.unit().dimension.si_unit_text()
+                entry.unit().dimension.preferred_si_unit()
             )?;
             writeln!(out, "  source: {}", definition.source)?;
             if !definition.note.is_empty() {
@@ -703,7 +703,7 @@ impl Repl {
                     out,
                     "  in SI: {} {}",
                     unit.factor.describe(),
-                    unit.dimension.si_unit_text()
+                    unit.dimension.preferred_si_unit()
                 )?;
             }
         }

@@ -290,35 +290,79 @@ fn shell_completions_and_the_manual_page_are_generated() {
 }
 
 /// CSV is read by programs: without `--digits` it carries 15 significant figures (all a double
-/// holds of a decimal value), so each number agrees with the JSON of the same run to 1e-14.
+/// holds of a decimal value), so each number read back by a CSV reader agrees with the JSON of
+/// the same run to 15 figures, and with `--digits 17` exactly.
 #[test]
 fn csv_output_carries_full_precision_by_default() {
     let sheet = worksheet("core_permeability.fxs");
     let sheet = sheet.to_str().unwrap();
-    let (_, csv_text, _) = run(&["run", "--format", "csv", sheet]);
     let (_, json_text, _) = run(&["run", "--format", "json", sheet]);
     let json: serde_json::Value = serde_json::from_str(&json_text).unwrap();
-    let mut compared = 0;
-    for record in csv_text.lines().skip(1) {
-        let cells: Vec<&str> = record.split(',').collect();
-        let Ok(value) = cells[2].parse::<f64>() else {
-            continue;
-        };
-        let line = json["lines"]
+    let json_value = |name: &str| {
+        json["lines"]
             .as_array()
             .unwrap()
             .iter()
-            .find(|line| line["name"] == cells[1])
-            .unwrap();
-        let expected = line["value"].as_f64().unwrap();
-        assert!(
-            ((value - expected) / expected).abs() <= 1e-14,
-            "{}: csv {value} json {expected}",
-            cells[1]
-        );
-        compared += 1;
+            .find(|line| line["name"] == name)
+            .and_then(|line| line["value"].as_f64())
+    };
+    for (digits, tolerance) in [(None, 5e-15), (Some("17"), 0.0)] {
+        let mut arguments = vec!["run", "--format", "csv", sheet];
+        if let Some(digits) = digits {
+            arguments.extend(["--digits", digits]);
+        }
+        let (_, csv_text, _) = run(&arguments);
+        let mut reader = csv::Reader::from_reader(csv_text.as_bytes());
+        let mut compared = 0;
+        for record in reader.records() {
+            let record = record.expect("every record reads");
+            let (name, value) = (&record[1], &record[3]);
+            let (Ok(value), Some(expected)) = (value.parse::<f64>(), json_value(name)) else {
+                continue;
+            };
+            assert!(
+                (value - expected).abs() <= tolerance * expected.abs(),
+                "{name}: csv {value} json {expected} ({digits:?} digits)"
+            );
+            compared += 1;
+        }
+        assert!(compared >= 10, "{compared} values compared");
     }
-    assert!(compared >= 10, "{compared} values compared");
     let (_, rounded, _) = run(&["run", "--format", "csv", "--digits", "4", sheet]);
     assert!(rounded.contains(",4.051e-6,"), "{rounded}");
+}
+
+/// A sheet of single values and columns of different lengths is one CSV table, one record per
+/// value, that a CSV reader takes whole.
+#[test]
+fn csv_of_values_and_columns_of_different_lengths_is_one_table() {
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("mixed.fxs");
+    std::fs::write(
+        &path,
+        "k = 420 mD\nT = 10 degC to 30 degC step 10 K\nd = {1, 2} m\nlabel [mD] = 2 * k\ncheck k > 1 mD\n",
+    )
+    .unwrap();
+    let (code, csv_text, _) = run(&["run", "--format", "csv", path.to_str().unwrap()]);
+    assert_eq!(code, 0);
+    let mut reader = csv::Reader::from_reader(csv_text.as_bytes());
+    assert_eq!(
+        reader.headers().unwrap(),
+        vec!["line", "name", "row", "value", "unit", "expression"]
+    );
+    let records: Vec<Vec<String>> = reader
+        .records()
+        .map(|record| record.unwrap().iter().map(str::to_string).collect())
+        .collect();
+    let expected: Vec<Vec<&str>> = vec![
+        vec!["1", "k", "", "420", "mD", "420 mD"],
+        vec!["2", "T", "1", "10", "degC", "10 degC to 30 degC step 10 K"],
+        vec!["2", "T", "2", "20", "degC", ""],
+        vec!["2", "T", "3", "30", "degC", ""],
+        vec!["3", "d", "1", "1", "m", "{1, 2} m"],
+        vec!["3", "d", "2", "2", "m", ""],
+        vec!["4", "label", "", "840", "mD", "2 * k"],
+        vec!["5", "check", "", "passed", "", "420 mD > 1 mD"],
+    ];
+    assert_eq!(records, expected);
 }

@@ -161,8 +161,12 @@ fn the_table_output_adds_one_table_of_columns_in_every_format() {
         "{markdown}"
     );
     let (_, csv, _) = run_sheet(sheet, &["--format", "csv", "--digits", "3"]);
-    assert!(csv.contains("row,T [degC],K [m/s]\n1,0,"), "{csv}");
-    assert_eq!(csv.lines().filter(|line| line.starts_with("3,")).count(), 1);
+    assert!(csv.contains("\n1,T,1,0,degC,"), "{csv}");
+    assert!(csv.contains("\n2,K,3,2.41e-6,m/s,\n"), "{csv}");
+    assert_eq!(
+        csv.lines().filter(|line| line.starts_with("2,K,")).count(),
+        3
+    );
     let (_, json, _) = run_sheet(sheet, &["--format", "json"]);
     let json: serde_json::Value = serde_json::from_str(&json).unwrap();
     let t = &json["lines"][0];

@@ -16,6 +16,7 @@
 //! - `robustness`: generated input never panics; hostile nesting is refused.
 //! - `transport`: transport and well functions on sheets: trade units, references, refusals.
 //! - `trust_warnings`: warnings only where a mistake is likely; formulations cited by every relation.
+//! - `output_width`: `run`, `functions` and `units` fit terminals of 80 and 100 columns.
 //! - `lsp`: the language server over stdio as an editor drives it, and Neovim headless.
 //! - `repl`: the interactive session, scripted over stdin and on a pseudo-terminal.
 //! - `trust`: no silent wrong numbers: temperatures, absolute zero, check boundaries, domains,
@@ -35,6 +36,7 @@ mod fitting;
 mod fuzz_corpus;
 mod includes;
 mod lsp;
+mod output_width;
 mod package;
 mod plot;
 mod properties;

@@ -134,7 +134,12 @@ fn run_working_substitutes_values_and_cites_the_relation() {
         ),
         "{stdout}"
     );
-    assert!(stdout.contains("Fourier, J., 1822"), "{stdout}");
+    // Cited by its title (the footer names its id; `functions ID` and reports give the source).
+    assert!(
+        stdout.contains("    after Fourier's law, q = -lambda dT/dx\n"),
+        "{stdout}"
+    );
+    assert!(stdout.contains("fourier-1822"), "{stdout}");
     // A column shows its first rows and statistics.
     assert!(
         stdout.contains("mean({420, 380, 510, … 4 rows} mD)"),

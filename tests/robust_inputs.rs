@@ -120,6 +120,16 @@ const BAD_INPUTS: &[(&str, i32, &str)] = &[
     ("x = column k from \"bad_number.csv\"", 3, "`abc` is not a number"),
     ("x = column a from \"ragged.csv\"", 3, "1 cells where the header has 2"),
     ("x = column k from \"bad_unit.csv\"", 3, "unknown unit `furlong`"),
+    ("x = column c from \"censored.csv\"", 3, "a censored value, below the detection"),
+    ("x = column c from \"quoted_comma.csv\"", 3, "decimal comma in a comma-separated"),
+    ("x = column c from \"points_and_commas.csv\"", 3, "a thousands separator or a decimal"),
+    ("x = column c from \"sep_bad.csv\"", 3, "names no delimiter"),
+    ("$run|semicolons.fxs|--data-delimiter|comma", 3, "text after the unit's `]`"),
+    ("$run|semicolons.fxs|--data-delimiter|pipe", 2, "invalid value 'pipe'"),
+    ("$check|list.fxs|--format|csv", 2, "`check` writes a summary"),
+    ("$report|list.fxs|-o|r.md|--format|json", 2, "takes its format from the output"),
+    ("$repl|--format|csv", 2, "does not apply to it"),
+    ("$completions|bash|--format|json", 2, "does not apply to this command"),
     ("x = column zz from \"cores.csv\"", 3, "has no column `zz`"),
     (
         "x = column sample from \"cores.csv\"\ny = x * 2",
@@ -370,6 +380,12 @@ fn fixtures(folder: &Path) {
     write("bad_number.csv", b"k [mD]\n40\nabc\n");
     write("ragged.csv", b"a [m],b [m]\n1,2\n3\n");
     write("bad_unit.csv", b"k [furlong]\n1\n");
+    write("censored.csv", b"c [mg/L];n\n0,25;1\n<0,01;2\n");
+    write("quoted_comma.csv", b"c [mg/L],n\n\"0,25\",1\n");
+    write("points_and_commas.csv", b"c [mg/L];n\n0,25;1\n1.250;2\n");
+    write("sep_bad.csv", b"sep=|\nc [m]\n1\n");
+    write("semicolons.csv", b"c [mg/L];n\n0,25;1\n");
+    write("semicolons.fxs", b"c = column c from \"semicolons.csv\"\n");
     write("list.fxs", b"x = {1, 2, 3} m\ny = x * 2\n");
     write("doubling.fxs", b"k = 2 m\ncheck k > 3 m\nj = k * 3\n");
     write(

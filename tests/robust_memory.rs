@@ -176,7 +176,8 @@ fn a_column_the_allocator_refuses_is_an_error_not_an_abort() {
     );
 }
 
-/// The streamed column table: every row, and every line of the box as wide as the others.
+/// The streamed column table: every row, and every line as wide as the others (numbers and
+/// their headers are right-aligned).
 #[test]
 fn a_long_column_table_is_written_whole_and_aligned() {
     let rows = 20_000;
@@ -188,17 +189,13 @@ fn a_long_column_table_is_written_whole_and_aligned() {
         .skip_while(|line| !line.contains("x [m]"))
         .take_while(|line| !line.is_empty())
         .collect();
-    // Header, double rule, the rows and the bottom rule (the top rule comes before the header).
-    assert_eq!(column_table.len(), rows + 3);
+    // Header, the rule under it, and the rows.
+    assert_eq!(column_table.len(), rows + 2);
     let width = column_table[0].chars().count();
     assert!(column_table
         .iter()
         .all(|line| line.chars().count() == width));
-    let last_row: Vec<&str> = column_table[rows + 1]
-        .split(['│', '┆'])
-        .map(str::trim)
-        .filter(|cell| !cell.is_empty())
-        .collect();
+    let last_row: Vec<&str> = column_table[rows + 1].split_whitespace().collect();
     let feet = rows as f64 / 0.3048;
     assert_eq!(last_row[0], rows.to_string());
     assert_eq!(last_row[1], "20000");

@@ -162,7 +162,7 @@ ok = thiem_drawdown(40 gpm, 6000 gal/(d*ft), 10 ft, 263 ft)
         messages[1]
     );
     assert!(
-        messages[2].contains("0.0200 mm is outside 0.1 to 3 mm"),
+        messages[2].contains("0.02 mm is outside 0.1 to 3 mm"),
         "{}",
         messages[2]
     );

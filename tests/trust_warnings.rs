@@ -210,12 +210,14 @@ K_along [m/s] = layered_along(K, b)\nK_across [m/s] = layered_across(K, b)\n";
             .any(|citation| citation.contains("Freeze") && citation.contains("eq. 2.32")),
         "{cited:?}"
     );
-    // The run footer lists them too.
+    // The run footer names them, one line each; Markdown carries the citation.
     let (_, stdout, _) = run_sheet(sheet, &[]);
     assert!(
-        stdout.contains("Formulations used:") && stdout.contains("eq. 2.31"),
+        stdout.contains("Formulations used:") && stdout.contains("  layered-along   "),
         "{stdout}"
     );
+    let (_, markdown, _) = run_sheet(sheet, &["--format", "markdown"]);
+    assert!(markdown.contains("eq. 2.31"), "{markdown}");
     // A refused call cites nothing.
     let refused = recorded_formulations("K = {1e-4, 1e-6} m/s\nb = {2, 3} m\nx = b / 1 m\n");
     assert!(refused.is_empty(), "{refused:?}");

@@ -3,10 +3,11 @@
 use assert_cmd::Command;
 use std::path::PathBuf;
 
-/// The built binary with colour off and a clean environment for output.
+/// The built binary with colour off and a clean environment for output: no `COLUMNS`, so
+/// tables take the width of output that is not a terminal.
 pub fn fluxsheet() -> Command {
     let mut command = Command::cargo_bin("fluxsheet").expect("binary is built");
-    command.env("NO_COLOR", "1");
+    command.env("NO_COLOR", "1").env_remove("COLUMNS");
     command
 }
 

@@ -317,14 +317,7 @@ fn table(
     let header_text: Vec<&str> = header.iter().map(String::as_str).collect();
     write_listing(out, &header_text, &text_rows, output.options())?;
     if output.options().format != Format::Csv {
-        writeln!(out, "\nFormulations used:")?;
-        for formulation in provenance.formulations() {
-            writeln!(
-                out,
-                "  {}: {} [valid: {}]",
-                formulation.title, formulation.citation, formulation.validity
-            )?;
-        }
+        render::table::write_formulations(out, provenance.formulations(), output.options())?;
     }
     Ok(())
 }

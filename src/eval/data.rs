@@ -1,6 +1,13 @@
 //! Data files: a CSV whose header names each column and its unit (`sample,k [mD],T [degC]`),
 //! read into columns with the same exact unit conversions as literals. A missing value, a bad
 //! number or an unknown unit is an error naming the line and the column; nothing is guessed.
+//!
+//! Files saved by spreadsheets in a decimal-comma locale are read too: the delimiter (comma,
+//! semicolon or tab) is found from the header line, or given by a first line `sep=;` or by
+//! `--data-delimiter`. Where cells are separated by semicolons or tabs, a decimal comma
+//! (`1,25`) is read as a decimal point; a comma inside a comma-separated file, or a point in a
+//! file that writes decimal commas (`1.250`: a thousands separator?), is refused with a hint.
+//! A censored value (`<1e-7`, `>5`, `n.d.`) is refused with what it is and how to state it.
 
 use super::evaluate::{literal_temperature, resolve_unit};
 use super::value::{Column, Labels, Value};
@@ -34,7 +41,43 @@ impl DataTable {
 /// with a unit in its header holds numbers; one without holds numbers (dimensionless) if every
 /// cell is a number, and text otherwise.
 pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable, String> {
+    read_table_with(label, text, max_rows, None)
+}
+
+/// The cell separators a data file may use.
+pub const DELIMITERS: [u8; 3] = [b',', b';', b'\t'];
+
+/// `read_table` with the delimiter given (`None`: found from the file, see the module).
+pub fn read_table_with(
+    label: &str,
+    text: &str,
+    max_rows: usize,
+    delimiter: Option<u8>,
+) -> Result<DataTable, String> {
+    // A spreadsheet's own delimiter line, `sep=;`, comes before the header.
+    let (declared, text) = match text.trim_start_matches('\u{feff}').split_once('\n') {
+        Some((first, rest)) if first.trim().starts_with("sep=") => {
+            let separator = first.trim().trim_start_matches("sep=");
+            match separator.as_bytes() {
+                [byte] if DELIMITERS.contains(byte) => (Some(*byte), rest),
+                [] if separator.is_empty() && first.contains('\t') => (Some(b'\t'), rest),
+                _ => {
+                    return Err(format!(
+                        "`{label}` line 1: `{}` names no delimiter fluxsheet reads (`sep=,`, \
+                         `sep=;` or a tab)",
+                        first.trim()
+                    ))
+                }
+            }
+        }
+        _ => (None, text),
+    };
+    let delimiter = delimiter
+        .or(declared)
+        .unwrap_or_else(|| detect_delimiter(text));
+    let decimal_comma = delimiter != b',';
     let mut reader = csv::ReaderBuilder::new()
+        .delimiter(delimiter)
         .trim(csv::Trim::All)
         .comment(Some(b'#'))
         .from_reader(text.as_bytes());
@@ -111,7 +154,16 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
     {
         // Named after the line that reads it, when one does (`with_origin`).
         let origin: Arc<str> = Arc::from("");
-        let all_numbers = texts.iter().all(|text| text.parse::<f64>().is_ok());
+        for (row, text) in texts.iter().enumerate() {
+            if let Some(problem) = censored(text) {
+                return Err(format!(
+                    "{}: {problem}",
+                    at_line(lines[row], index, &header)
+                ));
+            }
+        }
+        let numbers = NumberStyle::of(&texts, decimal_comma);
+        let all_numbers = texts.iter().all(|text| numbers.parse(text).is_ok());
         let value = if unit.is_none() && !all_numbers && texts.iter().any(|text| !text.is_empty()) {
             Value::Labels(Labels {
                 texts: Arc::new(texts),
@@ -125,17 +177,19 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
                 if text.is_empty() {
                     return Err(format!("{where_}: missing value"));
                 }
-                let number: f64 = text
-                    .parse()
-                    .map_err(|_| format!("{where_}: `{text}` is not a number"))?;
-                let value = unit.to_si(number, Some(text));
+                let number = numbers
+                    .parse(text)
+                    .map_err(|problem| format!("{where_}: {problem}"))?;
+                // The exact decimal of the cell as written with a point, for exact factors.
+                let written = text.replace(',', ".");
+                let value = unit.to_si(number, Some(&written));
                 if !value.is_finite() {
                     return Err(format!("{where_}: `{text}` is out of range"));
                 }
                 if unit.is_absolute_temperature() && value < 0.0 {
                     return Err(format!(
                         "{where_}: `{text}` is below absolute zero ({} K)",
-                        crate::eval::error::short_number(value)
+                        crate::numeric::message_number(value)
                     ));
                 }
                 values.push(value);
@@ -157,6 +211,125 @@ pub fn read_table(label: &str, text: &str, max_rows: usize) -> Result<DataTable,
     Ok(DataTable {
         label: label.to_string(),
         columns,
+    })
+}
+
+/// The delimiter of a file without a `sep=` line: the one of comma, semicolon and tab that
+/// the header line (the first line that is not a comment) holds most of; a comma on a tie.
+fn detect_delimiter(text: &str) -> u8 {
+    let header = text
+        .lines()
+        .map(str::trim)
+        .find(|line| !line.is_empty() && !line.starts_with('#'))
+        .unwrap_or("");
+    let count = |delimiter: u8| header.bytes().filter(|byte| *byte == delimiter).count();
+    let mut best = b',';
+    for delimiter in [b';', b'\t'] {
+        if count(delimiter) > count(best) {
+            best = delimiter;
+        }
+    }
+    best
+}
+
+/// How a column writes its numbers: with decimal points, or with decimal commas (only in a
+/// file whose cells are not separated by commas).
+#[derive(Debug, Clone, Copy, PartialEq)]
+enum NumberStyle {
+    Point,
+    Comma,
+}
+
+impl NumberStyle {
+    /// Decimal commas when the file may hold them and a cell of the column writes one.
+    fn of(texts: &[String], comma_allowed: bool) -> NumberStyle {
+        let writes_comma =
+            |text: &String| text.contains(',') && text.replace(',', ".").parse::<f64>().is_ok();
+        if comma_allowed && texts.iter().any(writes_comma) {
+            NumberStyle::Comma
+        } else {
+            NumberStyle::Point
+        }
+    }
+
+    fn parse(self, text: &str) -> Result<f64, String> {
+        let plain = text.replace([',', '.'], "");
+        if text.contains('.') && text.contains(',') && plain.parse::<f64>().is_ok() {
+            return Err(format!(
+                "`{text}` mixes points and commas: write the number without a thousands \
+                 separator (`1234.5`, or `1234,5` in a file with semicolons between cells)"
+            ));
+        }
+        match self {
+            NumberStyle::Point => text.parse().map_err(|_| {
+                if text.contains(',') && text.replace(',', ".").parse::<f64>().is_ok() {
+                    format!(
+                        "`{text}` has a decimal comma in a comma-separated file, where it \
+                         cannot be told from a thousands separator: save the file with \
+                         semicolons between cells (`sep=;` as its first line), or write \
+                         decimal points"
+                    )
+                } else {
+                    format!("`{text}` is not a number")
+                }
+            }),
+            NumberStyle::Comma => {
+                if text.contains('.') && !text.contains(',') {
+                    return Err(format!(
+                        "`{text}` has a point in a column that writes decimal commas: a \
+                         thousands separator or a decimal point? Write it as the others are \
+                         written (`1234` or `1,234`)"
+                    ));
+                }
+                text.replace(',', ".")
+                    .parse()
+                    .map_err(|_| format!("`{text}` is not a number"))
+            }
+        }
+    }
+}
+
+/// What is wrong with a censored cell (`<1e-7`, `>5`, `n.d.`), or `None` for any other cell.
+fn censored(text: &str) -> Option<String> {
+    let how = "it is not a measured value. Replace it in the file by the value you decide \
+               to use, such as the limit itself or half of it (common practice for a value \
+               below a detection limit), and say which in the sheet; or leave the row out";
+    let bound = text
+        .strip_prefix("<=")
+        .or_else(|| text.strip_prefix('<'))
+        .or_else(|| text.strip_prefix('≤'))
+        .map(|limit| ("below", limit))
+        .or_else(|| {
+            text.strip_prefix(">=")
+                .or_else(|| text.strip_prefix('>'))
+                .or_else(|| text.strip_prefix('≥'))
+                .map(|limit| ("above", limit))
+        });
+    if let Some((side, limit)) = bound {
+        let limit = limit.trim();
+        let what = match side {
+            "below" => "below the detection (or reporting) limit",
+            _ => "above the upper limit of the method (over range)",
+        };
+        return Some(if limit.is_empty() {
+            format!("`{text}` is a censored value, {what}: {how}")
+        } else {
+            format!("`{text}` is a censored value, {what} {limit}: {how}")
+        });
+    }
+    let lower = text.to_ascii_lowercase();
+    let not_detected = [
+        "nd",
+        "n.d.",
+        "n/d",
+        "bdl",
+        "<dl",
+        "<lod",
+        "<loq",
+        "not detected",
+    ];
+    not_detected.contains(&lower.as_str()).then(|| {
+        format!("`{text}` reads as \"not detected\", a value below a detection limit: {how}")
     })
 }
 
@@ -184,6 +357,12 @@ fn split_header(header: &str) -> Result<(&str, Option<&str>), String> {
 
 fn describe_csv_error(error: &csv::Error) -> String {
     match error.kind() {
+        csv::ErrorKind::UnequalLengths {
+            expected_len, len, ..
+        } if *len > *expected_len => format!(
+            "{len} cells where the header has {expected_len} (if that is a decimal comma, save \
+             the file with semicolons between cells, or write `sep=;` as its first line)"
+        ),
         csv::ErrorKind::UnequalLengths {
             expected_len, len, ..
         } => format!("{len} cells where the header has {expected_len}"),
@@ -227,6 +406,64 @@ mod tests {
     }
 
     #[test]
+    fn semicolon_files_with_decimal_commas_are_read() {
+        let table = read_table(
+            "lab.csv",
+            "probe;k [mD];T [degC]\nA;40,5;20\nB;1250;8,25\n",
+            100,
+        )
+        .expect("reads");
+        assert_eq!(column(&table, "T"), vec![293.15, 281.4]);
+        let k = column(&table, "k");
+        assert!(
+            (k[0] / (40.5 * 9.869233e-16) - 1.0).abs() < 5e-7,
+            "{}",
+            k[0]
+        );
+        // The same with the spreadsheet's delimiter line, and with tabs.
+        let declared = read_table("lab.csv", "sep=;\nx [m];y [m]\n1,5;2\n", 100).expect("reads");
+        assert_eq!(column(&declared, "x"), vec![1.5]);
+        let tabs = read_table("lab.tsv", "x [m]\ty [m]\n1,5\t2\n", 100).expect("reads");
+        assert_eq!(column(&tabs, "x"), vec![1.5]);
+        // Forced: a semicolon file read as commas has one column named `x [m];y [m]`.
+        let forced = read_table_with("lab.csv", "x [m];y [m]\n1;2\n", 100, Some(b','));
+        assert!(forced.is_err(), "{forced:?}");
+    }
+
+    #[test]
+    fn ambiguous_separators_are_refused_with_a_hint() {
+        let quoted = read_table("d.csv", "x [m],y [m]\n\"1,5\",2\n", 100).unwrap_err();
+        assert!(
+            quoted.contains("decimal comma in a comma-separated file"),
+            "{quoted}"
+        );
+        assert!(quoted.contains("sep=;"), "{quoted}");
+        let point = read_table("d.csv", "x [m];y [m]\n1,5;2\n1.250;3\n", 100).unwrap_err();
+        assert!(point.starts_with("`d.csv` line 3, column 1"), "{point}");
+        assert!(point.contains("thousands separator"), "{point}");
+        let mixed = read_table("d.csv", "sep=;\nx [m]\n1.234,5\n", 100).unwrap_err();
+        assert!(mixed.contains("mixes points and commas"), "{mixed}");
+    }
+
+    #[test]
+    fn censored_values_say_what_they_are_and_how_to_state_them() {
+        let below = read_table("w.csv", "c [mg/L];d [m]\n0,5;1\n<1e-7;2\n", 100).unwrap_err();
+        assert!(
+            below.starts_with(
+                "`w.csv` line 3, column 1 (`c [mg/L]`): `<1e-7` is a censored value, below \
+                 the detection (or reporting) limit 1e-7"
+            ),
+            "{below}"
+        );
+        assert!(below.contains("half of it"), "{below}");
+        let above = read_table("w.csv", "EC [uS/cm]\n>5\n", 100).unwrap_err();
+        assert!(above.contains("above the upper limit"), "{above}");
+        // A column without a unit would otherwise become text.
+        let text = read_table("w.csv", "ratio\n0.2\nn.d.\n", 100).unwrap_err();
+        assert!(text.contains("not detected"), "{text}");
+    }
+
+    #[test]
     fn bad_cells_name_line_and_column() {
         let missing = read_table("d.csv", "x [m],y [s]\n1,2\n3,\n", 100).unwrap_err();
         assert_eq!(missing, "`d.csv` line 3, column 2 (`y [s]`): missing value");
@@ -242,6 +479,8 @@ mod tests {
         );
         let ragged = read_table("d.csv", "x [m],y [m]\n1,2\n3\n", 100).unwrap_err();
         assert_eq!(ragged, "`d.csv` line 3: 1 cells where the header has 2");
+        let comma = read_table("d.csv", "x [m]\n1,5\n", 100).unwrap_err();
+        assert!(comma.contains("`sep=;` as its first line"), "{comma}");
         let long = read_table("d.csv", "x\n1\n2\n3\n", 2).unwrap_err();
         assert!(long.contains("more than 2 rows"), "{long}");
     }

@@ -276,13 +276,13 @@ impl EvalError {
             EvalErrorKind::AbsoluteShownAsDifference { .. } => diagnostic
                 .with_help(Some("an absolute temperature shows in `[degC]`, `[degF]` or `[K]`".to_string())),
             EvalErrorKind::OffsetTemperature { operand, scale, kelvin, .. } => {
-                let written = short_number(scale.from_kelvin(*kelvin));
+                let written = message_number(scale.from_kelvin(*kelvin));
                 let difference = match scale {
                     OffsetScale::Celsius => format!("`{written} K` or `{written} delta_degC`"),
                     OffsetScale::Fahrenheit => format!("`{written} delta_degF`"),
                 };
                 let absolute = match operand {
-                    Some(operand) => format!("`kelvin({operand})` ({} K)", short_number(*kelvin)),
+                    Some(operand) => format!("`kelvin({operand})` ({} K)", message_number(*kelvin)),
                     None => "`kelvin(…)` around it".to_string(),
                 };
                 diagnostic.with_help(Some(format!(
@@ -368,7 +368,7 @@ impl fmt::Display for EvalErrorKind {
             EvalErrorKind::NotFinite => formatter.write_str("the result is not a finite number (overflow)"),
             EvalErrorKind::AbsoluteTemperatureSum => formatter.write_str("cannot add two absolute temperatures"),
             EvalErrorKind::OffsetTemperature { operand, scale, kelvin, operation } => {
-                let written = format!("{} {}", short_number(scale.from_kelvin(*kelvin)), scale.symbol());
+                let written = format!("{} {}", message_number(scale.from_kelvin(*kelvin)), scale.symbol());
                 let named = match operand {
                     Some(operand) if *operand != written => format!(" (`{operand}`)"),
                     _ => String::new(),
@@ -376,18 +376,18 @@ impl fmt::Display for EvalErrorKind {
                 write!(
                     formatter,
                     "an absolute temperature of {written}{named} cannot be {operation} as if it were {} K: say whether a difference or kelvin is meant",
-                    short_number(*kelvin)
+                    message_number(*kelvin)
                 )
             }
             EvalErrorKind::BelowAbsoluteZero { kelvin, scale } => match scale {
                 Some(scale) => write!(
                     formatter,
                     "{} {} is below absolute zero ({} K)",
-                    short_number(scale.from_kelvin(*kelvin)),
+                    message_number(scale.from_kelvin(*kelvin)),
                     scale.symbol(),
-                    short_number(*kelvin)
+                    message_number(*kelvin)
                 ),
-                None => write!(formatter, "{} K is below absolute zero", short_number(*kelvin)),
+                None => write!(formatter, "{} K is below absolute zero", message_number(*kelvin)),
             },
             EvalErrorKind::AbsoluteFromDifference => {
                 formatter.write_str("cannot subtract an absolute temperature from a temperature difference")
@@ -484,12 +484,4 @@ impl fmt::Display for EvalErrorKind {
     }
 }
 
-/// A number for a message: seven significant figures, then the shortest form (`60`, `333.15`,
-/// `261.4833`), so a value converted back to the user's scale reads as they wrote it.
-pub fn short_number(value: f64) -> String {
-    let rounded: f64 = format!("{value:.6e}").parse().unwrap_or(value);
-    if rounded == 0.0 {
-        return "0".to_string();
-    }
-    format!("{rounded}")
-}
+pub use crate::numeric::message_number;

@@ -256,8 +256,8 @@ fn report(fitted: &Fitted, fit: &Fit, inputs: &[ShownValue], observed_unit: &str
     let rms = if fit.logarithmic {
         format!(
             "RMS residual of the logarithms {} (about {} %)",
-            super::warnings::short(fitted.rms),
-            super::warnings::short(fitted.rms * 100.0)
+            crate::numeric::message_number(fitted.rms),
+            crate::numeric::message_number(fitted.rms * 100.0)
         )
     } else {
         let shown = ShownValue {

@@ -252,8 +252,8 @@ impl In {
             None => si_value,
         };
         match self.text.as_str() {
-            "1" | "" => super::warnings::short(number),
-            unit => format!("{} {unit}", super::warnings::short(number)),
+            "1" | "" => crate::numeric::message_number(number),
+            unit => format!("{} {unit}", crate::numeric::message_number(number)),
         }
     }
 }
@@ -285,7 +285,7 @@ fn accuracy_note(root: &Root, target: &ShownValue, goal: f64, unknown: &ShownVal
     } else if goal != 0.0 {
         format!(
             " ({} of the target)",
-            super::warnings::short(root.residual.abs() / goal.abs())
+            crate::numeric::message_number(root.residual.abs() / goal.abs())
         )
     } else {
         String::new()
@@ -296,7 +296,7 @@ fn accuracy_note(root: &Root, target: &ShownValue, goal: f64, unknown: &ShownVal
         // Relative to the root unless the bracket reaches zero, where a relative width says nothing.
         Convergence::Bracket { width } if width.abs() < root.x.abs() => format!(
             "; root bracketed to {} of its value",
-            super::warnings::short(width.abs() / root.x.abs())
+            crate::numeric::message_number(width.abs() / root.x.abs())
         ),
         Convergence::Bracket { width } => format!(
             "; root bracketed to {}",
@@ -316,7 +316,7 @@ fn difference_text(line: &ShownValue, difference: f64) -> String {
         Some(found) if found.offset.is_none() => unit.write(difference),
         _ => format!(
             "{} {}",
-            super::warnings::short(difference),
+            crate::numeric::message_number(difference),
             line.quantity.dimension.preferred_si_unit()
         ),
     }

@@ -353,7 +353,7 @@ fn plausible_value(name: &str, value: &Value, span: Span, warnings: &mut Vec<Dia
                 Diagnostic::warning(
                     format!(
                         "porosity `{name}` = {}{row} is outside {low} to {high} (common practice)",
-                        short(value)
+                        crate::numeric::message_number(value)
                     ),
                     span,
                 )
@@ -372,7 +372,7 @@ fn plausible_value(name: &str, value: &Value, span: Span, warnings: &mut Vec<Dia
                     format!(
                         "hydraulic conductivity `{name}` = {} m/s{row} is outside {low:e} to {high} m/s \
 (common practice: unfractured clay to clean gravel)",
-                        short(value)
+                        crate::numeric::message_number(value)
                     ),
                     span,
                 )
@@ -430,7 +430,7 @@ fn angles_in_radians(lines: &[Line], evaluation: &Evaluation, warnings: &mut Vec
                 return;
             }
             let name = &function.text;
-            let number = short(value);
+            let number = crate::numeric::message_number(value);
             let written = evaluation.sources.text_of(argument.span);
             let suggestion = match &argument.kind {
                 ExpressionKind::Quantity { unit: None, .. } => format!("`{name}({written} deg)`"),
@@ -572,16 +572,5 @@ fn unit_is_angle(unit: &UnitExpression) -> bool {
             unit_is_angle(left) || unit_is_angle(right)
         }
         UnitExpressionKind::Power { base, .. } => unit_is_angle(base),
-    }
-}
-
-/// A value for a message, rounded to four significant figures: `28`, `0.2801`, `2e-14`.
-pub(crate) fn short(value: f64) -> String {
-    let rounded: f64 = format!("{value:.3e}").parse().unwrap_or(value);
-    let magnitude = rounded.abs();
-    if magnitude == 0.0 || (1e-4..1e6).contains(&magnitude) {
-        format!("{rounded}")
-    } else {
-        format!("{rounded:e}")
     }
 }

@@ -35,8 +35,9 @@ use super::formulation::refused;
 use super::formulation::{Formulation, OutOfRange};
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
 use super::water;
-use super::water::{check_liquid_pressure, check_temperature, fmt_num, out_of_range};
+use super::water::{check_liquid_pressure, check_temperature, out_of_range};
 use crate::eval::function::CallError;
+use crate::numeric::message_number;
 
 const BATZLE_WANG_CITATION: &str = "Batzle, M. and Wang, Z., 1992, Seismic properties of pore \
 fluids, Geophysics 57(11), 1396-1408";
@@ -119,7 +120,7 @@ fn check_salinity(formulation: &'static Formulation, s: f64) -> Result<(), OutOf
     if s < 0.0 {
         return Err(out_of_range(
             formulation,
-            format!("S = {} (mass fraction) is below 0", fmt_num(s)),
+            format!("S = {} (mass fraction) is below 0", message_number(s)),
         ));
     }
     if s > S_MAX {
@@ -127,8 +128,8 @@ fn check_salinity(formulation: &'static Formulation, s: f64) -> Result<(), OutOf
             formulation,
             format!(
                 "S = {} (mass fraction) is above {}",
-                fmt_num(s),
-                fmt_num(S_MAX)
+                message_number(s),
+                message_number(S_MAX)
             ),
         ));
     }

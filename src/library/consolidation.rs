@@ -11,9 +11,9 @@ use super::dimensions::{
     VELOCITY,
 };
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
-use super::three_figures;
 use crate::eval::function::CallError;
 use crate::eval::Formulation;
+use crate::numeric::message_number;
 use std::f64::consts::PI;
 
 const TERZAGHI_1925: &str = "Terzaghi, K., 1925, Erdbaumechanik auf bodenphysikalischer \
@@ -363,7 +363,7 @@ fn constrained_modulus(values: &[f64]) -> Result<f64, CallError> {
             message: format!(
                 "`nu` is {}: a Poisson's ratio of 0.5 or more has no finite constrained modulus \
 (it must lie in [0, 0.5))",
-                three_figures(poisson)
+                message_number(poisson)
             ),
         });
     }
@@ -382,8 +382,8 @@ fn volume_compressibility_from_oedometer(values: &[f64]) -> Result<f64, CallErro
             argument: Some(1),
             message: format!(
                 "`e1` = {} is above `e0` = {}: the void ratio must fall under a load increment",
-                three_figures(end),
-                three_figures(initial)
+                message_number(end),
+                message_number(initial)
             ),
         });
     }

@@ -315,7 +315,7 @@ fn effective_diffusion_formation(values: &[f64]) -> Result<f64, CallError> {
             message: format!(
                 "`F` times `n` is {}, below 1: the pore diffusion coefficient would exceed `D0`, \
 which an insulating matrix does not allow",
-                super::three_figures(formation_factor * porosity)
+                crate::numeric::message_number(formation_factor * porosity)
             ),
         });
     }

@@ -40,8 +40,9 @@ use super::dimensions::{DENSITY, DIMENSIONLESS, DYNAMIC_VISCOSITY, PRESSURE, SPE
 use super::formulation::{refused, Formulation, OutOfRange};
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
 use super::water;
-use super::water::{fmt_num, out_of_range};
+use super::water::out_of_range;
 use crate::eval::function::CallError;
+use crate::numeric::message_number;
 
 const LALIBERTE_2009: &str = "Laliberté, M., 2009, A model for calculating the heat capacity \
 of aqueous solutions, with updated density and viscosity data, Journal of Chemical & \
@@ -269,9 +270,9 @@ fn checked<const N: usize>(
                 formulation,
                 format!(
                     "T = {} °C is outside {} to {} °C, the fitted range for {name}",
-                    fmt_num(t_c),
-                    fmt_num(range.t_min_celsius),
-                    fmt_num(range.t_max_celsius)
+                    message_number(t_c),
+                    message_number(range.t_min_celsius),
+                    message_number(range.t_max_celsius)
                 ),
             ));
         }
@@ -283,8 +284,8 @@ fn checked<const N: usize>(
             formulation,
             format!(
                 "the salt mass fraction {} is above {}, the fitted limit",
-                fmt_num(total),
-                fmt_num(total_limit)
+                message_number(total),
+                message_number(total_limit)
             ),
         ));
     }

@@ -126,7 +126,7 @@ fn require_table_beta(beta: f64, argument: usize, advice: &str) -> Result<(), Ca
             message: format!(
                 "r/B = {} is above {LARGEST_BETA}, beyond the range of the leaky well function \
 (there the drawdown is essentially the steady 2 K0(r/B) and tiny); {advice}",
-                super::three_figures(beta)
+                crate::numeric::message_number(beta)
             ),
         });
     }

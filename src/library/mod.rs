@@ -216,20 +216,6 @@ impl Builtins {
     }
 }
 
-/// A number with about three significant figures for messages: `0.0512`, `12.3`, `1.23e-7`.
-pub(crate) fn three_figures(value: f64) -> String {
-    let magnitude = value.abs();
-    if magnitude != 0.0 && !(1e-3..1e5).contains(&magnitude) {
-        return format!("{value:.2e}");
-    }
-    let decimals = if magnitude == 0.0 {
-        0
-    } else {
-        (2 - magnitude.log10().floor() as i32).max(0) as usize
-    };
-    format!("{value:.decimals$}")
-}
-
 impl Library for Builtins {
     fn function(&self, name: &str) -> Option<&dyn Function> {
         self.functions.get(name).copied()
@@ -245,19 +231,5 @@ impl Library for Builtins {
             .chain(self.constants.keys())
             .copied()
             .collect()
-    }
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn three_figures_reads_well() {
-        assert_eq!(three_figures(0.0512), "0.0512");
-        assert_eq!(three_figures(12.34), "12.3");
-        assert_eq!(three_figures(1234.0), "1234");
-        assert_eq!(three_figures(1.234e-7), "1.23e-7");
-        assert_eq!(three_figures(0.0), "0");
     }
 }

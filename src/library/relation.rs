@@ -82,11 +82,13 @@ impl Parameter {
             Domain::AbsoluteTemperature => ", absolute",
         };
         let default = match self.default {
-            Some(value) => format!(
-                "; {} {} when left out",
-                crate::eval::error::short_number(value),
-                self.dimension.preferred_si_unit()
-            ),
+            Some(value) => match self.dimension.preferred_si_unit().as_str() {
+                "1" => format!("; {} when left out", crate::numeric::message_number(value)),
+                unit => format!(
+                    "; {} {unit} when left out",
+                    crate::numeric::message_number(value)
+                ),
+            },
             None => String::new(),
         };
         format!(
@@ -298,11 +300,11 @@ fn domain_error(index: usize, parameter: &Parameter) -> CallError {
 /// "`d10` = 5 mm is outside 0.1 to 3 mm, the range of Hazen's rule, K = C d10^2".
 fn outside_range_message(value: f64, range: &ValidRange, formulation: &Formulation) -> String {
     let in_unit = |si: f64| Unit::lookup(range.unit).map_or(si, |unit| unit.from_si(si));
-    let bound = |si: f64| crate::eval::error::short_number(in_unit(si));
+    let bound = |si: f64| crate::numeric::message_number(in_unit(si));
     format!(
         "`{}` = {} {} is outside {} to {} {}, the range of {}",
         range.parameter,
-        super::three_figures(in_unit(value)),
+        crate::numeric::message_number(in_unit(value)),
         range.unit,
         bound(range.low),
         bound(range.high),
@@ -1144,7 +1146,7 @@ mod tests {
             .to_string();
         assert_eq!(
             message,
-            "`d10` = 0.0500 mm is outside 0.1 to 3 mm, the range of Hazen's rule, K = C d10^2"
+            "`d10` = 0.05 mm is outside 0.1 to 3 mm, the range of Hazen's rule, K = C d10^2"
         );
     }
 

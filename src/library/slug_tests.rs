@@ -179,7 +179,7 @@ fn hvorslev_shape(screen_radius: f64, screen_length: f64, index: usize) -> Resul
             argument: Some(index),
             message: format!(
                 "Le / R = {} is not above 8, where Hvorslev's simplified shape factor holds",
-                super::three_figures(ratio)
+                crate::numeric::message_number(ratio)
             ),
         });
     }
@@ -225,7 +225,7 @@ pub fn bouwer_rice_shape(
             argument: Some(first + 1),
             message: format!(
                 "Le / rw = {} is outside 4 to 2500, the span of the published Bouwer-Rice curves",
-                super::three_figures(x)
+                crate::numeric::message_number(x)
             ),
         });
     }

@@ -8,9 +8,9 @@
 
 use super::dimensions::{AREA_PER_TIME, DIMENSIONLESS, LENGTH, TIME, VOLUME_FLOW_RATE};
 use super::relation::{arguments, Domain, Form, Parameter, Relation};
-use super::three_figures;
 use crate::eval::function::CallError;
 use crate::eval::Formulation;
+use crate::numeric::message_number;
 use std::f64::consts::PI;
 
 const THEIS_1935: &str = "Theis, C. V., 1935, The relation between the lowering of the \
@@ -362,8 +362,8 @@ fn cooper_jacob_drawdown(values: &[f64]) -> Result<f64, CallError> {
                 "u = r^2 S / (4 T t) = {} is above 0.05, where the straight-line approximation \
 departs from the Theis solution (limits of 0.01 to 0.05 are cited); `t` must be at least {} s \
 here, or use `theis_drawdown`",
-                three_figures(u),
-                three_figures(round_up_to_three_figures(earliest))
+                message_number(u),
+                message_number(round_up_to_three_figures(earliest))
             ),
         });
     }
@@ -814,7 +814,7 @@ mod tests {
         );
         let message = result.expect_err("refused").to_string();
         assert!(
-            message.starts_with("u = r^2 S / (4 T t) = 0.250 is above 0.05"),
+            message.starts_with("u = r^2 S / (4 T t) = 0.25 is above 0.05"),
             "{message}"
         );
         assert!(message.contains("at least 500 s"), "{message}");

@@ -6,7 +6,7 @@ use super::inlay::value_text;
 use super::navigation::{defining_line, token_at, Token};
 use crate::eval::{Library, LineResult};
 use crate::library::Builtins;
-use crate::render::number::format_significant;
+use crate::render::format_significant;
 use crate::syntax::LineKind;
 use crate::units::unit::{catalog_entries, prefixes, CatalogEntry, Unit};
 use lsp_types::{Hover, HoverContents, MarkupContent, MarkupKind};

@@ -3,7 +3,7 @@
 
 use super::document::Document;
 use crate::eval::{LineResult, Shown};
-use crate::render::number::format_significant;
+use crate::render::format_significant;
 use crate::render::table::check_text;
 use lsp_types::{InlayHint, InlayHintLabel, Range};
 

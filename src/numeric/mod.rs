@@ -1,6 +1,7 @@
 //! Plain numerics for calculation sheets, with no physics in them: aggregates of columns
-//! (`aggregates`), table interpolation (`interpolation`) and bracketed root finding (`roots`),
-//! and the errors and input checks they share.
+//! (`aggregates`), table interpolation (`interpolation`), bracketed root finding (`roots`),
+//! least squares, numbers as text to significant figures (`significant`), and the errors and
+//! input checks they share.
 //!
 //! Everything works on plain `f64` and never panics. Invalid input is
 //! reported as an error naming the argument, the 1-based row, the offending
@@ -14,11 +15,13 @@ mod aggregates;
 mod interpolation;
 mod least_squares;
 mod roots;
+mod significant;
 
 pub use aggregates::*;
 pub use interpolation::*;
 pub use least_squares::*;
 pub use roots::*;
+pub use significant::{format_significant, message_number, write_significant, MESSAGE_DIGITS};
 
 // ---------------------------------------------------------------------------
 // Errors

@@ -1,8 +1,8 @@
 //! Output: a sheet's results as a terminal table, Markdown, CSV or JSON, and diagnostics as
 //! source snippets. Everything writes into a writer it is handed; nothing here opens files.
 
+pub mod csv;
 pub mod json;
-pub mod number;
 pub mod plot;
 pub mod print;
 pub mod report;
@@ -13,7 +13,7 @@ pub mod table;
 pub mod text_table;
 pub mod working;
 
-pub use number::format_significant;
+pub use crate::numeric::{format_significant, write_significant};
 pub use snippet::write_diagnostics;
 
 /// Output formats of `--format`.
@@ -31,6 +31,9 @@ pub struct RenderOptions {
     pub format: Format,
     /// Significant figures of displayed values.
     pub digits: u32,
+    /// Columns of text a terminal table may use (`None`: as wide as its contents). Markdown,
+    /// CSV and JSON always carry whole texts.
+    pub width: Option<usize>,
 }
 
 /// The caution that goes with every report and the README.

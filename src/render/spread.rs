@@ -16,7 +16,6 @@ pub fn write_summary(
     options: RenderOptions,
 ) -> io::Result<()> {
     let digits = options.digits;
-    let format = options.format;
     writeln!(out)?;
     writeln!(
         out,
@@ -56,7 +55,7 @@ pub fn write_summary(
         })
         .collect();
     let numbers = 2..header.len() - 1;
-    write_block(out, format, &header, &rows, numbers)?;
+    write_block(out, options, &header, &rows, numbers)?;
     if !summary.checks.is_empty() {
         writeln!(out)?;
         writeln!(out, "Checks over the samples:")?;
@@ -73,7 +72,7 @@ pub fn write_summary(
                 ]
             })
             .collect();
-        write_block(out, format, &header, &rows, 2..4)?;
+        write_block(out, options, &header, &rows, 2..4)?;
     }
     if !summary.sensitivity.is_empty() {
         writeln!(out)?;
@@ -107,7 +106,7 @@ pub fn write_summary(
                 vec![result.line.to_string(), result.name.clone(), ranking]
             })
             .collect();
-        write_block(out, format, &header, &rows, 0..0)?;
+        write_block(out, options, &header, &rows, 0..0)?;
     }
     Ok(())
 }
@@ -141,12 +140,12 @@ pub fn signed(rank: f64) -> String {
 /// A table in the output's format; the `numbers` columns are right-aligned.
 fn write_block<S: AsRef<str>>(
     out: &mut dyn Write,
-    format: Format,
+    options: RenderOptions,
     header: &[S],
     rows: &[Vec<String>],
     numbers: std::ops::Range<usize>,
 ) -> io::Result<()> {
-    match format {
+    match options.format {
         Format::Csv => {
             let mut writer = csv::Writer::from_writer(out);
             writer.write_record(header.iter().map(AsRef::as_ref))?;
@@ -189,12 +188,19 @@ fn write_block<S: AsRef<str>>(
             for row in rows {
                 table.measure(row);
             }
-            table.write_top(out)?;
+            // Text columns may wrap to fit the terminal; numbers never do.
+            let widths = table.widths().to_vec();
+            for (column, width) in widths.iter().enumerate() {
+                if !numbers.contains(&column) {
+                    table.set_floor(column, (*width).min(14));
+                }
+            }
+            table.fit(options.width);
             table.write_header(out, header)?;
             for row in rows {
                 table.write_row(out, row)?;
             }
-            table.write_bottom(out)
+            Ok(())
         }
     }
 }

@@ -125,7 +125,9 @@ impl Dimension {
     }
 
     /// The SI unit engineers would write for this dimension (`Pa`, `m/s`, `W/(m*K)`), falling back
-    /// to base units joined by `*` (`kg*m^-1*s^-3`) when no usual spelling exists.
+    /// to a composition of base units (`kg/(m*s^3)`, see `composed_si_unit`). Its value is
+    /// the SI value: every quantity without a unit of its own is shown in it, so that the
+    /// number shown is the number computed.
     pub fn preferred_si_unit(&self) -> String {
         if let Some((_, unit)) = PREFERRED_SI_UNITS
             .iter()
@@ -133,7 +135,58 @@ impl Dimension {
         {
             return unit.to_string();
         }
-        self.spell(&BASE_UNITS, "1").replace(' ', "*")
+        self.composed_si_unit()
+    }
+
+    /// Base units as engineers write a derived unit: the positive powers over the negative
+    /// ones, mass first, a denominator of several units in parentheses, no negative
+    /// exponents: `kg/m^4`, `kg*m^2/(s^3*A)`, `1/(m*s)`, `m^(1/2)`; `1` when dimensionless.
+    pub fn composed_si_unit(&self) -> String {
+        // Mass first, then length and time: `kg*m/s^2`, `kg/(m*s^2)`.
+        const ORDER: [usize; 7] = [1, 0, 2, 3, 4, 5, 6];
+        let power = |symbol: &str, exponent: Exponent| -> String {
+            if exponent == Ratio::from_integer(1) {
+                symbol.to_string()
+            } else if exponent.is_integer() {
+                format!("{symbol}^{}", exponent.numer())
+            } else {
+                format!("{symbol}^({}/{})", exponent.numer(), exponent.denom())
+            }
+        };
+        let zero = Ratio::from_integer(0);
+        let mut numerator = Vec::new();
+        let mut denominator = Vec::new();
+        for index in ORDER {
+            let exponent = self.exponents[index];
+            if exponent > zero {
+                numerator.push(power(BASE_UNITS[index], exponent));
+            } else if exponent < zero {
+                denominator.push(power(BASE_UNITS[index], -exponent));
+            }
+        }
+        let top = if numerator.is_empty() {
+            "1".to_string()
+        } else {
+            numerator.join("*")
+        };
+        match denominator.len() {
+            0 => top,
+            1 => format!("{top}/{}", denominator[0]),
+            _ => format!("{top}/({})", denominator.join("*")),
+        }
+    }
+
+    /// The unit a value with no unit of its own is shown in: the trade's usual unit where it
+    /// differs from SI (a solute's mass flux in mg/(m^2*d)), otherwise `preferred_si_unit`.
+    /// Whoever shows a value in it converts from SI first.
+    pub fn display_unit(&self) -> String {
+        match TRADE_DISPLAY_UNITS
+            .iter()
+            .find(|(powers, _)| Dimension::from_integers(*powers) == *self)
+        {
+            Some((_, unit)) => unit.to_string(),
+            None => self.preferred_si_unit(),
+        }
     }
 
     /// A trade name for common dimensions (`velocity`, `pressure`), used in error messages.
@@ -229,6 +282,22 @@ const NAMED_DIMENSIONS: &[([i32; 7], &str)] = &[
     ([-1, 0, 0, 0, 1, 0, 0], "temperature gradient"),
 ];
 
+/// Every spelling of the two tables below with its dimension, for tests that read each back.
+pub fn listed_display_units() -> impl Iterator<Item = (Dimension, &'static str)> {
+    PREFERRED_SI_UNITS
+        .iter()
+        .chain(TRADE_DISPLAY_UNITS)
+        .map(|(powers, unit)| (Dimension::from_integers(*powers), *unit))
+}
+
+/// Units the trade states a quantity in that are not SI-coherent, base order L M T I Θ N J.
+/// Kept short: each entry makes the shown number differ from the SI value.
+const TRADE_DISPLAY_UNITS: &[([i32; 7], &str)] = &[
+    // A solute's mass flux through a liner or an aquitard: fractions of a milligram per
+    // square metre and day; in kg/(m^2*s) the same flux reads 1e-12 (common practice).
+    ([-2, 1, -1, 0, 0, 0, 0], "mg/(m^2*d)"),
+];
+
 /// Usual SI spellings, base order L M T I Θ N J.
 const PREFERRED_SI_UNITS: &[([i32; 7], &str)] = &[
     ([0, 0, 0, 0, 0, 0, 0], "1"),
@@ -272,6 +341,21 @@ const PREFERRED_SI_UNITS: &[([i32; 7], &str)] = &[
     ([2, 1, -2, 0, -1, 0, 0], "J/K"),
     ([2, 1, -2, 0, -1, -1, 0], "J/(mol*K)"),
     ([0, 0, 1, 1, 0, -1, 0], "C/mol"),
+    ([-4, 1, 0, 0, 0, 0, 0], "kg/m^4"),
+    ([-4, 0, 0, 0, 0, 1, 0], "mol/m^4"),
+    ([-2, 1, 0, 0, 0, 0, 0], "kg/m^2"),
+    ([-1, 1, 0, 0, 0, 0, 0], "kg/m"),
+    ([1, -1, 2, 0, 0, 0, 0], "1/Pa"),
+    ([2, 0, -2, 0, 0, 0, 0], "J/kg"),
+    ([0, 1, -3, 0, -1, 0, 0], "W/(m^2*K)"),
+    ([0, -1, 3, 0, 1, 0, 0], "m^2*K/W"),
+    ([-1, 1, -2, 0, -1, 0, 0], "J/(m^3*K)"),
+    ([-1, 1, -3, 0, 0, 0, 0], "W/m^3"),
+    ([1, 1, -3, 0, 0, 0, 0], "W/m"),
+    ([-3, 0, 1, 1, 0, 0, 0], "C/m^3"),
+    ([0, 0, -1, 0, 1, 0, 0], "K/s"),
+    ([-3, 0, -1, 0, 0, 1, 0], "mol/(m^3*s)"),
+    ([-3, 1, -1, 0, 0, 0, 0], "kg/(m^3*s)"),
 ];
 
 impl fmt::Display for Dimension {
@@ -298,6 +382,44 @@ mod tests {
         assert_eq!(velocity.to_string(), "L T^-1");
         assert_eq!(velocity.si_unit_text(), "m s^-1");
         assert_eq!(velocity.quantity_name(), Some("velocity"));
+    }
+
+    #[test]
+    fn units_without_a_usual_spelling_are_composed_as_engineers_write_them() {
+        let check = |powers: [i32; 7], expected: &str| {
+            assert_eq!(
+                Dimension::from_integers(powers).composed_si_unit(),
+                expected,
+                "{powers:?}"
+            );
+        };
+        check([-4, 1, 0, 0, 0, 0, 0], "kg/m^4");
+        check([1, 1, -3, 0, -1, 0, 0], "kg*m/(s^3*K)");
+        check([-1, 0, -1, 0, 0, 0, 0], "1/(m*s)");
+        check([2, 0, 0, 0, 0, 0, 0], "m^2");
+        check([0, 0, 0, 0, 0, 0, 0], "1");
+        check([3, 0, -2, 0, 0, 0, 0], "m^3/s^2");
+        let root = Dimension::LENGTH.power(Ratio::new(1, 2)).unwrap();
+        assert_eq!(root.composed_si_unit(), "m^(1/2)");
+        let inverse_root = Dimension::TIME.power(Ratio::new(-1, 2)).unwrap();
+        assert_eq!(inverse_root.composed_si_unit(), "1/s^(1/2)");
+        // The trade's spellings win where they exist.
+        assert_eq!(
+            Dimension::from_integers([-4, 1, 0, 0, 0, 0, 0]).preferred_si_unit(),
+            "kg/m^4"
+        );
+        assert_eq!(
+            Dimension::from_integers([1, 1, -3, 0, -1, 0, 0]).preferred_si_unit(),
+            "W/(m*K)"
+        );
+    }
+
+    #[test]
+    fn listed_spellings_are_distinct_dimensions() {
+        let mut seen = std::collections::HashSet::new();
+        for (powers, _) in PREFERRED_SI_UNITS {
+            assert!(seen.insert(*powers), "{powers:?} listed twice");
+        }
     }
 
     #[test]

@@ -423,9 +423,27 @@ pub(super) fn present(
             .map(|unit| (unit, scale.symbol())),
         _ => None,
     };
-    let unit = match &own_scale {
-        Some((unit, text)) => Some((unit, *text)),
-        None => unit,
+    // A dimension the trade states in a unit of its own (a solute's mass flux in
+    // mg/(m^2*d)) shows in it, converted like a declared unit.
+    let dimension = match &value {
+        Value::Scalar(quantity) => Some(quantity.dimension),
+        Value::Column(column) => Some(column.dimension),
+        Value::Labels(_) => None,
+    };
+    let trade_text = dimension
+        .filter(|dimension| unit.is_none() && own_scale.is_none() && !dimension.is_temperature())
+        .map(|dimension| dimension.display_unit())
+        .filter(|text| dimension.is_some_and(|dimension| *text != dimension.preferred_si_unit()));
+    let trade_unit = trade_text.as_ref().and_then(|text| {
+        let expression = crate::syntax::parse_unit(text).ok()?;
+        resolve_unit(&expression)
+            .ok()
+            .map(|unit| (unit, text.as_str()))
+    });
+    let unit = match (&own_scale, &trade_unit) {
+        (Some((unit, text)), _) => Some((unit, *text)),
+        (None, Some((unit, text))) => Some((unit, *text)),
+        (None, None) => unit,
     };
     match value {
         Value::Scalar(quantity) => Ok(Shown::Scalar(match unit {
@@ -567,4 +585,51 @@ pub fn show_in(
         unit: unit_text.to_string(),
         value,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::resolve_unit;
+    use crate::units::dimension::listed_display_units;
+    use crate::units::Dimension;
+
+    /// The unit `text` reads as, through the sheet's own unit parser.
+    fn read_back(text: &str) -> crate::units::Unit {
+        let expression = crate::syntax::parse_unit(text).unwrap_or_else(|_| panic!("`{text}`"));
+        resolve_unit(&expression).unwrap_or_else(|_| panic!("`{text}` resolves"))
+    }
+
+    #[test]
+    fn every_display_spelling_reads_back_as_its_dimension() {
+        for (dimension, text) in listed_display_units() {
+            let unit = read_back(text);
+            assert_eq!(unit.dimension, dimension, "`{text}`");
+            if text == dimension.preferred_si_unit() {
+                assert_eq!(unit.factor.value(), 1.0, "`{text}` is coherent SI");
+            }
+        }
+        // A solute flux of 1 mg/(m^2*d) in SI, by hand: 1e-6 kg / 86 400 s.
+        let flux = read_back("mg/(m^2*d)");
+        assert!((flux.factor.value() - 1e-6 / 86_400.0).abs() < 1e-25);
+    }
+
+    #[test]
+    fn composed_spellings_read_back_as_their_dimension_in_si() {
+        let mut state: u64 = 7;
+        for _ in 0..2_000 {
+            let mut powers = [0i32; 7];
+            // Luminous intensity has no unit in the catalog (no sheet needs candela).
+            for power in powers.iter_mut().take(6) {
+                state = state
+                    .wrapping_mul(6_364_136_223_846_793_005)
+                    .wrapping_add(1);
+                *power = ((state >> 33) % 7) as i32 - 3;
+            }
+            let dimension = Dimension::from_integers(powers);
+            let text = dimension.composed_si_unit();
+            let unit = read_back(&text);
+            assert_eq!(unit.dimension, dimension, "`{text}`");
+            assert_eq!(unit.factor.value(), 1.0, "`{text}`");
+        }
+    }
 }

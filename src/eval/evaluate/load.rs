@@ -27,6 +27,7 @@ pub(super) struct Loaded {
     /// reached by two spellings (`c.fxs`, `sub/../c.fxs`) loads once.
     pub(super) sheets: HashMap<String, String>,
     pub(super) max_rows: usize,
+    pub(super) data_delimiter: Option<u8>,
     /// Threads for parsing (`Settings::threads`).
     pub(super) threads: usize,
 }
@@ -55,7 +56,13 @@ impl Loaded {
                     .tables
                     .entry(file.key.clone())
                     .or_insert_with(|| {
-                        crate::eval::data::read_table(path, &file.text, self.max_rows).map(Arc::new)
+                        crate::eval::data::read_table_with(
+                            path,
+                            &file.text,
+                            self.max_rows,
+                            self.data_delimiter,
+                        )
+                        .map(Arc::new)
                     })
                     .clone(),
             };

@@ -25,6 +25,8 @@ pub struct Settings {
     pub max_total_rows: usize,
     /// `(name, value text)`: the value replaces the line `name` for this run.
     pub overrides: Vec<(String, String)>,
+    /// The cell separator of every data file (`--data-delimiter`); `None` finds each file's.
+    pub data_delimiter: Option<u8>,
     /// Threads the sheet may use to parse and to compute long columns: every core by default,
     /// one when `check` already runs a sheet on each core.
     pub threads: usize,
@@ -38,6 +40,7 @@ impl Default for Settings {
             max_rows: crate::eval::columns::DEFAULT_MAX_ROWS,
             max_total_rows: crate::eval::columns::DEFAULT_MAX_TOTAL_ROWS,
             overrides: Vec::new(),
+            data_delimiter: None,
             threads: available_cores(),
             sampling: None,
         }
@@ -131,6 +134,7 @@ pub(super) fn prepare(
 ) -> Prepared {
     let mut loaded = Loaded {
         max_rows: settings.max_rows,
+        data_delimiter: settings.data_delimiter,
         threads: settings.threads,
         ..Loaded::default()
     };

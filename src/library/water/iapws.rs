@@ -21,6 +21,7 @@ use uom::si::thermal_conductivity::watt_per_meter_kelvin;
 use uom::si::thermodynamic_temperature::kelvin;
 
 use crate::library::formulation::{Formulation, OutOfRange};
+use crate::numeric::message_number;
 use std::cell::Cell;
 
 const IF97_CITATION: &str = "IAPWS R7-97(2012), Revised Release on the IAPWS Industrial \
@@ -427,14 +428,18 @@ pub(crate) fn check_temperature(
             format!(
                 "T = {} is below {} K{hint}",
                 temperature_text(t_k),
-                fmt_num(lo)
+                message_number(lo)
             ),
         ));
     }
     if t_k > hi {
         return Err(out_of_range(
             formulation,
-            format!("T = {} is above {} K", temperature_text(t_k), fmt_num(hi)),
+            format!(
+                "T = {} is above {} K",
+                temperature_text(t_k),
+                message_number(hi)
+            ),
         ));
     }
     Ok(())
@@ -494,7 +499,7 @@ pub(crate) fn check_liquid_pressure(
                 pressure_text(p_pa),
                 pressure_text(p_sat),
                 temperature_text(t_k),
-                fmt_num(t_k - 273.15),
+                message_number(t_k - 273.15),
                 liquid_pressure_example(p_sat)
             ),
         ));
@@ -561,7 +566,7 @@ fn liquid_pressure_example(p_sat_pa: f64) -> String {
         for step in [1.0, 2.0, 5.0] {
             let bar = step * decade;
             if bar >= wanted_bar {
-                return format!("{} bar", fmt_num(bar));
+                return format!("{} bar", message_number(bar));
             }
         }
         decade *= 10.0;
@@ -588,7 +593,7 @@ fn check_density(
         };
         return Err(out_of_range(
             formulation,
-            format!("rho = {} kg/m^3 is {bound}", fmt_num(rho)),
+            format!("rho = {} kg/m^3 is {bound}", message_number(rho)),
         ));
     }
     if rho > RHO_MAX_TRANSPORT {
@@ -596,55 +601,32 @@ fn check_density(
             formulation,
             format!(
                 "rho = {} kg/m^3 is above {} kg/m^3",
-                fmt_num(rho),
-                fmt_num(RHO_MAX_TRANSPORT)
+                message_number(rho),
+                message_number(RHO_MAX_TRANSPORT)
             ),
         ));
     }
     Ok(())
 }
 
-/// A number for a message: at most 6 significant digits, no trailing zeros, no exponent for
-/// ordinary magnitudes, so that `268.15` reads as written and not as `268.14999999999998`.
-pub(crate) fn fmt_num(x: f64) -> String {
-    if !x.is_finite() {
-        return format!("{x}");
-    }
-    if x == 0.0 {
-        return "0".to_string();
-    }
-    let magnitude = x.abs().log10().floor() as i32;
-    if !(-4..=9).contains(&magnitude) {
-        return format!("{x:.5e}");
-    }
-    let decimals = (5 - magnitude).max(0) as usize;
-    let text = format!("{x:.decimals$}");
-    let text = if text.contains('.') {
-        text.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        text
-    };
-    if text == "-0" {
-        "0".to_string()
-    } else {
-        text
-    }
-}
-
 /// `393.15 K (120 °C)`.
 pub(crate) fn temperature_text(t_k: f64) -> String {
-    format!("{} K ({} °C)", fmt_num(t_k), fmt_num(t_k - 273.15))
+    format!(
+        "{} K ({} °C)",
+        message_number(t_k),
+        message_number(t_k - 273.15)
+    )
 }
 
 /// A pressure in the unit that reads best: Pa, kPa or MPa.
 pub(crate) fn pressure_text(p_pa: f64) -> String {
     let magnitude = p_pa.abs();
     if magnitude >= 1.0e6 {
-        format!("{} MPa", fmt_num(p_pa / 1.0e6))
+        format!("{} MPa", message_number(p_pa / 1.0e6))
     } else if magnitude >= 1.0e3 {
-        format!("{} kPa", fmt_num(p_pa / 1.0e3))
+        format!("{} kPa", message_number(p_pa / 1.0e3))
     } else {
-        format!("{} Pa", fmt_num(p_pa))
+        format!("{} Pa", message_number(p_pa))
     }
 }
 
@@ -1276,13 +1258,7 @@ mod tests {
     }
 
     #[test]
-    fn number_text() {
-        assert_eq!(fmt_num(-5.0 + 273.15), "268.15");
-        assert_eq!(fmt_num(0.1 + 0.2), "0.3");
-        assert_eq!(fmt_num(101_325.0), "101325");
-        assert_eq!(fmt_num(100.0), "100");
-        assert_eq!(fmt_num(-5.000_000_000_1), "-5");
-        assert_eq!(fmt_num(0.0), "0");
+    fn pressure_text_picks_a_readable_unit() {
         assert_eq!(pressure_text(198_665.4), "198.665 kPa");
     }
 
