@@ -588,7 +588,7 @@ fn html_report_renders_in_headless_chromium() {
     }
     let output = child.wait_with_output().unwrap();
     let dom = String::from_utf8_lossy(&output.stdout);
-    assert!(dom.contains("<table class=\"lines\">"), "{dom}");
+    assert!(dom.contains("<table class=\"lines"), "{dom}");
     assert!(dom.contains("<td class=\"value\">0.6096</td>"), "{dom}");
     assert!(dom.contains("<td>L_m</td>"));
     assert!(dom.contains("<span class=\"failed\">FAILED</span>"));
@@ -606,10 +606,7 @@ fn html_report_renders_in_headless_chromium() {
 
 /// `chromium` on the `PATH`, where the Debian package puts it.
 fn chromium() -> Option<PathBuf> {
-    let path = std::env::var_os("PATH")?;
-    std::env::split_paths(&path)
-        .map(|folder| folder.join("chromium"))
-        .find(|candidate| candidate.exists())
+    crate::util::program("chromium")
 }
 
 // ----- 5. check --against an earlier run -----

@@ -534,7 +534,8 @@ fn the_report_draws_charts_and_column_tables() {
     let sheet = write(
         folder.path(),
         "sweep.fxs",
-        "T = 0 degC to 20 degC step 10 K\nK [m/s] = hydraulic_conductivity(250 mD, T)\nplot K against T\n",
+        "T = 0 degC to 20 degC step 10 K\nK [m/s] = hydraulic_conductivity(250 mD, T)\n\
+plot K against T \"Conductivity of the sweep\"\n",
     );
     let report = folder.path().join("sweep.html");
     let (code, _, stderr) = run(&[
@@ -552,6 +553,58 @@ fn the_report_draws_charts_and_column_tables() {
     assert!(
         html.contains("<th>K [m/s]</th>"),
         "the column table is there"
+    );
+    // The title in the caption, not drawn again inside the chart.
+    let start = html.find("<svg").unwrap();
+    let end = html.find("</svg>").unwrap();
+    assert!(!html[start..end].contains("Conductivity of the sweep"));
+    assert!(html[end..].contains("<figcaption>Conductivity of the sweep</figcaption>"));
+}
+
+/// `points` and `down` reach the chart: markers without a line, and a profile whose depth
+/// column titles the vertical axis and grows downwards.
+#[test]
+fn plot_options_draw_cross_plots_and_profiles() {
+    let folder = tempfile::tempdir().unwrap();
+    let sheet = write(
+        folder.path(),
+        "cores.fxs",
+        "n = {0.31, 0.12, 0.25} \nk = {900, 3, 260} mD\nplot k against n points log y\n\
+z = 0 m to 50 m step 10 m\nT [degC] = 9 degC + z * 30 K/km\nplot T against z down\n",
+    );
+    let target = folder.path().join("chart.svg");
+    let (code, _, stderr) = run_file(&sheet, &["--plot", target.to_str().unwrap()]);
+    assert_eq!(code, 0, "{stderr}");
+    let svg = std::fs::read_to_string(&target).unwrap();
+    let document = roxmltree::Document::parse(&svg).unwrap();
+    let circles = document
+        .descendants()
+        .filter(|node| node.has_tag_name("circle"))
+        .count();
+    let curves = document
+        .descendants()
+        .filter(|node| node.has_tag_name("polyline"))
+        .filter(|node| node.attribute("stroke") != Some("#000000"))
+        .count();
+    assert_eq!((circles, curves), (3, 0));
+    let profile = std::fs::read_to_string(folder.path().join("chart-2.svg")).unwrap();
+    let document = roxmltree::Document::parse(&profile).unwrap();
+    let vertical: Vec<&str> = document
+        .descendants()
+        .filter(|node| node.has_tag_name("text") && node.attribute("transform").is_some())
+        .filter_map(|node| node.text())
+        .map(str::trim)
+        .collect();
+    assert_eq!(vertical, ["z [m]"]);
+    let depths: Vec<f64> = document
+        .descendants()
+        .filter(|node| node.has_tag_name("circle"))
+        .map(|node| node.attribute("cy").unwrap().parse().unwrap())
+        .collect();
+    assert_eq!(depths.len(), 6);
+    assert!(
+        depths.windows(2).all(|pair| pair[1] > pair[0]),
+        "{depths:?}"
     );
 }
 

@@ -19,6 +19,8 @@ fn chart<'a>(x: &'a [f64], series: Vec<Series<'a>>) -> Chart<'a> {
         series,
         log_x: false,
         log_y: false,
+        down: false,
+        points: false,
     }
 }
 
@@ -398,4 +400,103 @@ fn drawing_errors_become_plot_errors() {
     let error = PlotError::from(drawing_error);
     assert!(matches!(error, PlotError::Drawing(_)));
     assert!(error.to_string().starts_with("could not draw chart"));
+}
+
+/// The markers of the chart as (cx, cy) in SVG units, in document order.
+fn markers(doc: &roxmltree::Document) -> Vec<(f64, f64)> {
+    doc.descendants()
+        .filter(|n| n.has_tag_name("circle"))
+        .map(|n| {
+            let number = |name: &str| n.attribute(name).unwrap().parse::<f64>().unwrap();
+            (number("cx"), number("cy"))
+        })
+        .collect()
+}
+
+/// Porosity and K of invented cores, not sorted by porosity: a line through them would zigzag.
+const POROSITY: [f64; 6] = [0.31, 0.12, 0.25, 0.18, 0.35, 0.22];
+const K_CORES: [f64; 6] = [7e-6, 2e-8, 2e-6, 3e-7, 1.6e-5, 9e-7];
+
+#[test]
+fn a_cross_plot_draws_a_marker_per_row_and_no_line() {
+    let mut chart = chart(&POROSITY, vec![series("K", &K_CORES)]);
+    chart.points = true;
+    chart.log_y = true;
+    let svg = render(&chart);
+    let doc = parse(&svg);
+    assert!(
+        curves_by_colour(&doc, 0).is_empty(),
+        "no curve joins the points"
+    );
+    let markers = markers(&doc);
+    assert_eq!(markers.len(), POROSITY.len());
+    // Larger porosity lies to the right, larger K higher up (smaller SVG y), in row order.
+    let (widest, _) = markers[4];
+    let (narrowest, lowest) = markers[1];
+    assert!(markers.iter().all(|(x, _)| *x <= widest && *x >= narrowest));
+    assert!(markers.iter().all(|(_, y)| *y <= lowest));
+    // No marker sits on the frame: the porosity axis keeps a margin. The frame's left edge
+    // is the leftmost vertex of the black axis lines.
+    let frame_left = doc
+        .descendants()
+        .filter(|n| n.has_tag_name("polyline") && n.attribute("stroke") == Some(AXIS_COLOUR))
+        .flat_map(|n| {
+            n.attribute("points")
+                .unwrap_or("")
+                .split_whitespace()
+                .filter_map(|point| point.split(',').next()?.parse::<f64>().ok())
+                .collect::<Vec<_>>()
+        })
+        .fold(f64::INFINITY, f64::min);
+    assert!(narrowest > frame_left + 20.0, "{narrowest} {frame_left}");
+}
+
+#[test]
+fn a_long_cross_plot_keeps_one_marker_per_pixel() {
+    // 200 000 distinct points on a 997 x 201 grid.
+    let x: Vec<f64> = (0..200_000).map(|row| (row % 997) as f64).collect();
+    let y: Vec<f64> = (0..200_000).map(|row| (row / 997) as f64).collect();
+    let mut chart = chart(&x, vec![series("y", &y)]);
+    chart.points = true;
+    let svg = render(&chart);
+    let count = markers(&parse(&svg)).len();
+    // At most one marker per displayed pixel of an 800 x 500 chart.
+    assert!(count > 10_000 && count < 200_000, "{count} markers");
+}
+
+#[test]
+fn a_profile_runs_its_x_values_down_the_vertical_axis() {
+    let depth = [0.0, 20.0, 40.0, 60.0, 80.0, 100.0];
+    let temperature = [9.0, 9.6, 10.2, 10.8, 11.4, 12.0];
+    let mut chart = chart(&depth, vec![series("T", &temperature)]);
+    chart.down = true;
+    chart.x_label = "z [m]".to_string();
+    chart.y_label = "T [degC]".to_string();
+    let svg = render(&chart);
+    let doc = parse(&svg);
+    let markers = markers(&doc);
+    assert_eq!(markers.len(), depth.len());
+    for pair in markers.windows(2) {
+        // Deeper rows lower on the page (larger SVG y), warmer rows further right.
+        assert!(pair[1].1 > pair[0].1, "{markers:?}");
+        assert!(pair[1].0 > pair[0].0, "{markers:?}");
+    }
+    assert_eq!(curves_by_colour(&doc, depth.len()).len(), 1);
+    // The depth axis is titled on the vertical axis: its title is the rotated text.
+    let rotated: Vec<String> = doc
+        .descendants()
+        .filter(|n| n.has_tag_name("text") && n.attribute("transform").is_some())
+        .map(|n| n.text().unwrap_or("").trim().to_string())
+        .collect();
+    assert_eq!(rotated, ["z [m]"], "{rotated:?}");
+    // `log y` in a profile is the depth axis as drawn: its values must be positive.
+    chart.log_y = true;
+    match render_svg(&chart) {
+        Err(PlotError::NonPositiveOnLogAxis {
+            axis: Axis::Y,
+            source: ValueSource::X,
+            ..
+        }) => {}
+        other => panic!("{other:?}"),
+    }
 }

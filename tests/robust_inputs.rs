@@ -335,6 +335,7 @@ const BAD_INPUTS: &[(&str, i32, &str)] = &[
     ("x = geomean({1, 2} m, 3)", 3, "`geomean`: takes 1 (a column) argument(s), but 2"),
     ("x = {1, 2} m\nplot x against x log y \"t", 3, "expected the end of the line, a `#` comment, a q"),
     ("x = 1 m\nplot x against x", 3, "`x` is not a column of numbers; a plot draws col"),
+    ("x = {1, 2} m\nplot x against x scatter", 3, "a quoted message, `down`, `points` or `log`, fou"),
     ("$units|--format|xml", 2, "invalid value 'xml' for '--format <FORMAT>'"),
     ("$run", 2, "the following required arguments were not provid"),
     ("$run|--format|yaml|list.fxs", 2, "invalid value 'yaml' for '--format <FORMAT>'"),

@@ -443,7 +443,10 @@ fn a_sampled_report_carries_the_summary_and_its_charts() {
     let page = std::fs::read_to_string(&html).unwrap();
     assert!(page.contains("Uncertainty: 5000 samples, seed 1"), "{page}");
     assert!(page.contains("probability of failing"));
-    assert!(page.contains("Exceedance of q") && page.contains("What drives q"));
+    // Each chart titled once, by its caption.
+    assert!(page.contains("<figcaption>Probability that q is exceeded</figcaption>"));
+    assert!(page.contains("<figcaption>Inputs that drive q (rank correlations"));
+    assert!(!page.contains("Exceedance of q") && !page.contains("What drives q ("));
     let figures = page.matches("<svg").count();
     assert_eq!(
         figures, 2,

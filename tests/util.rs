@@ -55,6 +55,14 @@ pub fn worksheet(name: &str) -> PathBuf {
         .join(name)
 }
 
+/// A program on the `PATH` (`chromium`, `pdftotext`), where the distribution's packages put it.
+pub fn program(name: &str) -> Option<PathBuf> {
+    let path = std::env::var_os("PATH")?;
+    std::env::split_paths(&path)
+        .map(|folder| folder.join(name))
+        .find(|candidate| candidate.exists())
+}
+
 /// Relative difference check with the tolerance visible at the call.
 pub fn assert_close(actual: f64, expected: f64, relative: f64, what: &str) {
     let difference = ((actual - expected) / expected).abs();

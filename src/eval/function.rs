@@ -58,6 +58,16 @@ pub trait Function: Sync {
     fn signature(&self) -> String;
     /// One line on what it computes.
     fn summary(&self) -> &'static str;
+    /// The formula of each form, in the sheet's operators (`q = K * i`), for listings; empty
+    /// for the built-ins that are not relations.
+    fn formulas(&self) -> Vec<&'static str> {
+        Vec::new()
+    }
+    /// The formula of the form that these arguments call, with its parameters' names, for the
+    /// working of a line.
+    fn formula_for(&self, _arguments: &[Quantity]) -> Option<FormulaUse> {
+        None
+    }
     /// The formulations behind it, for listings.
     fn formulations(&self) -> Vec<&'static Formulation> {
         Vec::new()
@@ -93,6 +103,16 @@ pub trait Function: Sync {
     fn details(&self) -> Vec<String> {
         Vec::new()
     }
+}
+
+/// The formula a call used: its text and the form's parameters in order, each with the value
+/// it takes when left out.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FormulaUse {
+    pub formula: &'static str,
+    pub parameters: Vec<(&'static str, Option<Quantity>)>,
+    /// The formulations this form follows (those it records when called).
+    pub formulations: &'static [&'static Formulation],
 }
 
 /// Computes a function over a span of rows from the columns' plain SI numbers. One call

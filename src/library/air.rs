@@ -138,6 +138,8 @@ pub static RELATIONS: &[Relation] = &[
             result: DYNAMIC_VISCOSITY,
             unit: "Pa*s",
             formulations: &[&SUTHERLAND_AIR],
+            formula:
+                "mu = 1.716e-5 Pa*s * (T / 273.15 K)^(3/2) * (273.15 K + 110.4 K) / (T + 110.4 K)",
             example: "air_viscosity(15 degC)",
             body: viscosity_body,
         }],
@@ -153,6 +155,7 @@ pub static RELATIONS: &[Relation] = &[
             result: DENSITY,
             unit: "kg/m^3",
             formulations: &[&IDEAL_GAS_DRY_AIR],
+            formula: "rho = p * 0.0289647 kg/mol / (R * T)",
             example: "air_density(15 degC, 101.325 kPa)",
             body: density_body,
         }],

@@ -13,7 +13,7 @@
 //! meant (`hydraulic_conductivity(k, T)` for water or `(k, rho, mu)` for any fluid): the first
 //! form whose argument count and dimensions match is used.
 
-use crate::eval::function::{CallError, ColumnKernel, RowFailure, Rows, ValidRange};
+use crate::eval::function::{CallError, ColumnKernel, FormulaUse, RowFailure, Rows, ValidRange};
 use crate::eval::{Formulation, Function, Provenance, Quantity};
 use crate::units::{Dimension, Unit};
 
@@ -214,6 +214,11 @@ pub struct Form {
     /// The unit a result is usually stated in, for listings (`m/s`).
     pub unit: &'static str,
     pub formulations: &'static [&'static Formulation],
+    /// The formula in the sheet's operators over the parameters' names (`q = K * i`), shown in
+    /// listings and in the working, where each parameter name is replaced by the call's value.
+    /// Where a formulation has no short closed form, the property it evaluates and its
+    /// arguments (`rho = 1 / (dg/dp)(T, p)`).
+    pub formula: &'static str,
     /// A call that works, shown in listings and walked by the generic test.
     pub example: &'static str,
     pub body: Body,
@@ -455,6 +460,17 @@ impl Relation {
         }
     }
 
+    /// The formula of each form, without repeats (`K = k * rho * g0 / mu`), for listings.
+    pub fn formulas(&self) -> Vec<&'static str> {
+        let mut formulas: Vec<&'static str> = Vec::new();
+        for form in self.forms {
+            if !formulas.contains(&form.formula) {
+                formulas.push(form.formula);
+            }
+        }
+        formulas
+    }
+
     /// The parameter lists of the forms, without repeats: `(k, T[, p]) or (k, rho, mu)`.
     pub fn parameter_lists(&self) -> String {
         let mut lists: Vec<String> = Vec::new();
@@ -475,6 +491,28 @@ impl Function for Relation {
 
     fn summary(&self) -> &'static str {
         self.summary
+    }
+
+    fn formulas(&self) -> Vec<&'static str> {
+        Relation::formulas(self)
+    }
+
+    fn formula_for(&self, arguments: &[Quantity]) -> Option<FormulaUse> {
+        let form = self.form_for(arguments).ok()?;
+        Some(FormulaUse {
+            formula: form.formula,
+            parameters: form
+                .parameters
+                .iter()
+                .map(|parameter| {
+                    let default = parameter
+                        .default
+                        .map(|value| Quantity::new(value, parameter.dimension));
+                    (parameter.name, default)
+                })
+                .collect(),
+            formulations: form.formulations,
+        })
     }
 
     fn formulations(&self) -> Vec<&'static Formulation> {
@@ -549,6 +587,7 @@ impl Function for Relation {
                 form.parameter_list(),
                 form.result.phrase()
             ));
+            lines.push(format!("  {}", form.formula));
             for parameter in form.parameters {
                 lines.push(format!("  {}", parameter.describe()));
             }
@@ -935,6 +974,93 @@ mod tests {
             assert!(!domain.admits(outside), "{text}: {outside}");
             assert!(!domain.admits(f64::NAN), "{text}: NaN");
         }
+    }
+
+    /// Every form declares its formula as `symbol = right side`, and the right side names each
+    /// of the form's parameters (the working puts the call's values in place of those names).
+    #[test]
+    fn every_form_declares_a_formula_over_its_parameters() {
+        let is_name_character = |c: char| c.is_alphanumeric() || c == '_';
+        let mut forms = 0;
+        for relation in Builtins::standard().relations() {
+            for form in relation.forms {
+                let (symbol, right) = form
+                    .formula
+                    .split_once(" = ")
+                    .unwrap_or_else(|| panic!("{}: `{}`", relation.name, form.formula));
+                assert!(!symbol.trim().is_empty(), "{}", relation.name);
+                let words: Vec<&str> = right.split(|c| !is_name_character(c)).collect();
+                for parameter in form.parameters {
+                    assert!(
+                        words.contains(&parameter.name),
+                        "{}: `{}` does not name `{}`",
+                        relation.name,
+                        form.formula,
+                        parameter.name
+                    );
+                }
+                forms += 1;
+            }
+        }
+        assert!(forms >= 100, "{forms} forms");
+    }
+
+    /// A formula written in the sheet's own operators and functions is evaluated as a sheet,
+    /// with each parameter set to the SI value of the example's argument (or its default), and
+    /// must give the body's value: the formula shown in the working is the one computed.
+    /// Formulas over functions a sheet does not have (`W(u)`, `erfc`, `rho_w(T, p)`) or in
+    /// fixed units are left to the reference tests; most forms are plain algebra.
+    #[test]
+    fn formulas_in_sheet_operators_give_the_body_value() {
+        let library = Builtins::standard();
+        let mut checked = Vec::new();
+        for relation in library.relations() {
+            let function = library.function(relation.name).expect("registered");
+            for form in relation.forms {
+                let example = example_arguments(form);
+                let expected = function
+                    .call(&example, &mut Provenance::default())
+                    .expect("the example evaluates");
+                let mut sheet = String::new();
+                for (index, parameter) in form.parameters.iter().enumerate() {
+                    let quantity = match (example.get(index), parameter.default) {
+                        (Some(quantity), _) => *quantity,
+                        (None, Some(value)) => Quantity::new(value, parameter.dimension),
+                        (None, None) => unreachable!("the example gives every required argument"),
+                    };
+                    let unit = quantity.dimension.preferred_si_unit();
+                    let unit = if unit == "1" { String::new() } else { unit };
+                    sheet.push_str(&format!(
+                        "{} = {:e} {unit}\n",
+                        parameter.name, quantity.value
+                    ));
+                }
+                let (_, right) = form.formula.split_once(" = ").expect("symbol = right side");
+                sheet.push_str(&format!("formula_value = {right}\n"));
+                let evaluation = evaluate_sheet(&sheet, Builtins::standard());
+                let Some(LineResult::Value(Shown::Scalar(shown))) =
+                    evaluation.lines.last().map(|line| &line.result)
+                else {
+                    continue;
+                };
+                assert_eq!(shown.quantity.dimension, form.result, "{}", form.formula);
+                let difference = (shown.quantity.value - expected.value).abs();
+                assert!(
+                    difference <= 1e-9 * expected.value.abs().max(f64::MIN_POSITIVE),
+                    "{}: `{}` gives {} where the body gives {}",
+                    form.example,
+                    form.formula,
+                    shown.quantity.value,
+                    expected.value
+                );
+                checked.push(form.example);
+            }
+        }
+        assert!(
+            checked.len() >= 60,
+            "{} checked: {checked:?}",
+            checked.len()
+        );
     }
 
     /// Rows 1.. of a call over `columns` (`None`: a scalar, the first row's value) through

@@ -4,6 +4,7 @@
 pub mod csv;
 pub mod json;
 pub mod plot;
+pub mod print;
 pub mod report;
 pub mod snippet;
 pub mod spread;

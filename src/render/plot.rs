@@ -45,10 +45,31 @@ pub struct Chart<'a> {
     pub x: &'a [f64],
     /// One or more curves, each as long as `x`.
     pub series: Vec<Series<'a>>,
-    /// Draw the x axis on a base-10 logarithmic scale.
+    /// Draw the horizontal axis on a base-10 logarithmic scale.
     pub log_x: bool,
-    /// Draw the y axis on a base-10 logarithmic scale.
+    /// Draw the vertical axis on a base-10 logarithmic scale.
     pub log_y: bool,
+    /// A profile: the x values run down the vertical axis (depth grows downwards) and the
+    /// series across; `x_label` then titles the vertical axis.
+    pub down: bool,
+    /// A cross-plot: a marker at every point and no line joining them.
+    pub points: bool,
+}
+
+impl Chart<'_> {
+    /// Point `row` of `series` as drawn: (across, up or down).
+    fn drawn(&self, series: &Series, row: usize) -> (f64, f64) {
+        if self.down {
+            (series.values[row], self.x[row])
+        } else {
+            (self.x[row], series.values[row])
+        }
+    }
+
+    /// Every series value, for planning the axis they lie on.
+    fn all_series_values(&self) -> impl Iterator<Item = f64> + '_ {
+        self.series.iter().flat_map(|s| s.values.iter().copied())
+    }
 }
 
 /// Which axis of the chart a problem concerns.
@@ -190,9 +211,26 @@ impl<E: std::error::Error + Send + Sync> From<DrawingAreaErrorKind<E>> for PlotE
 /// Draws the chart and returns it as a standalone SVG document.
 pub fn render_svg(chart: &Chart) -> Result<String, PlotError> {
     validate(chart)?;
-    let x_axis = plan_axis(Axis::X, chart.x.iter().copied(), chart.log_x)?;
-    let all_y = chart.series.iter().flat_map(|s| s.values.iter().copied());
-    let y_axis = plan_axis(Axis::Y, all_y, chart.log_y)?;
+    // In a profile the vertical axis is the x column, from its first value to its last with
+    // no margin (a depth axis starts at the surface), growing downwards.
+    let (x_axis, mut y_axis) = if chart.down {
+        (
+            plan_axis(
+                Axis::X,
+                chart.all_series_values(),
+                chart.log_x,
+                chart.points,
+            )?,
+            plan_axis(Axis::Y, chart.x.iter().copied(), chart.log_y, false)?,
+        )
+    } else {
+        (
+            // A cross-plot's markers at the extremes stay clear of the frame.
+            plan_axis(Axis::X, chart.x.iter().copied(), chart.log_x, chart.points)?,
+            plan_axis(Axis::Y, chart.all_series_values(), chart.log_y, true)?,
+        )
+    };
+    y_axis.reversed = chart.down;
 
     let canvas = (CHART_WIDTH * SCALE, CHART_HEIGHT * SCALE);
     let mut svg = String::new();
@@ -261,10 +299,15 @@ fn validate(chart: &Chart) -> Result<(), PlotError> {
             });
         }
     }
-    check_values(chart.x, ValueSource::X, Axis::X, chart.log_x)?;
+    let ((x_axis, x_log), (series_axis, series_log)) = if chart.down {
+        ((Axis::Y, chart.log_y), (Axis::X, chart.log_x))
+    } else {
+        ((Axis::X, chart.log_x), (Axis::Y, chart.log_y))
+    };
+    check_values(chart.x, ValueSource::X, x_axis, x_log)?;
     for (position, series) in chart.series.iter().enumerate() {
         let source = ValueSource::Series(series_name(series, position));
-        check_values(series.values, source, Axis::Y, chart.log_y)?;
+        check_values(series.values, source, series_axis, series_log)?;
     }
     Ok(())
 }
@@ -342,6 +385,8 @@ struct AxisPlan {
     minor: Vec<f64>,
     /// Label text for each major tick, same order.
     labels: Vec<String>,
+    /// Drawn from its end to its start: a depth axis growing downwards.
+    reversed: bool,
 }
 
 impl AxisPlan {
@@ -364,8 +409,18 @@ impl AxisPlan {
             .unwrap_or(0)
     }
 
-    /// Position of a value along the axis, 0 at the start and 1 at the end.
+    /// Position of a value along the axis, 0 at the start and 1 at the end (as drawn: the
+    /// start of a reversed axis is at its far end).
     fn fraction(&self, value: f64) -> f64 {
+        let fraction = self.unreversed_fraction(value);
+        if self.reversed {
+            1.0 - fraction
+        } else {
+            fraction
+        }
+    }
+
+    fn unreversed_fraction(&self, value: f64) -> f64 {
         match self.scale {
             Scale::Linear => (value - self.start) / (self.end - self.start),
             Scale::Log => {
@@ -375,10 +430,13 @@ impl AxisPlan {
     }
 }
 
+/// The plan of one axis over `values`; `margin` keeps curves off the frame (the value axis
+/// of a line chart), while an axis of positions (x, or depth) spans its values exactly.
 fn plan_axis(
     axis: Axis,
     values: impl Iterator<Item = f64>,
     log_scale: bool,
+    margin: bool,
 ) -> Result<AxisPlan, PlotError> {
     let (min, max) = values.fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), v| {
         (lo.min(v), hi.max(v))
@@ -391,17 +449,17 @@ fn plan_axis(
         return Ok(plan_log_axis(min, max, max_labels));
     }
     match axis {
-        Axis::Y => plan_linear_axis(axis, min, max, MAX_LABELS),
+        Axis::Y => plan_linear_axis(axis, min, max, MAX_LABELS, margin),
         // X labels sit side by side: take the most ticks whose labels
         // still leave room between them.
         Axis::X => {
-            let mut plan = plan_linear_axis(axis, min, max, MAX_X_LABELS)?;
+            let mut plan = plan_linear_axis(axis, min, max, MAX_X_LABELS, margin)?;
             for max_labels in (2..MAX_X_LABELS).rev() {
                 let label_width = char_width(TICK_FONT) * (plan.longest_label_chars() as u32 + 2);
                 if label_width * plan.major.len() as u32 <= MIN_PLOT_WIDTH {
                     break;
                 }
-                plan = plan_linear_axis(axis, min, max, max_labels)?;
+                plan = plan_linear_axis(axis, min, max, max_labels, margin)?;
             }
             Ok(plan)
         }
@@ -413,6 +471,7 @@ fn plan_linear_axis(
     min: f64,
     max: f64,
     max_labels: usize,
+    margin: bool,
 ) -> Result<AxisPlan, PlotError> {
     let (mut start, mut end) = (min, max);
     if start == end {
@@ -420,7 +479,7 @@ fn plan_linear_axis(
         let half_width = if start == 0.0 { 1.0 } else { start.abs() * 0.1 };
         start -= half_width;
         end += half_width;
-    } else if axis == Axis::Y {
+    } else if margin {
         // Keep curves off the frame so their extremes stay visible.
         let margin = (end - start) * 0.05;
         start -= margin;
@@ -471,6 +530,7 @@ fn plan_linear_axis(
         major,
         minor,
         labels,
+        reversed: false,
     })
 }
 
@@ -596,6 +656,7 @@ fn plan_log_axis(min: f64, max: f64, max_labels: usize) -> AxisPlan {
         major,
         minor,
         labels,
+        reversed: false,
     }
 }
 
@@ -622,6 +683,8 @@ struct PlannedCoord<R> {
     inner: R,
     major: Vec<f64>,
     minor: Vec<f64>,
+    /// Maps the start to the far end of the pixels: a depth axis growing downwards.
+    reversed: bool,
 }
 
 impl<R: Ranged<ValueType = f64>> Ranged for PlannedCoord<R> {
@@ -629,7 +692,11 @@ impl<R: Ranged<ValueType = f64>> Ranged for PlannedCoord<R> {
     type ValueType = f64;
 
     fn map(&self, value: &f64, limit: (i32, i32)) -> i32 {
-        self.inner.map(value, limit)
+        if self.reversed {
+            self.inner.map(value, (limit.1, limit.0))
+        } else {
+            self.inner.map(value, limit)
+        }
     }
 
     fn key_points<Hint: KeyPointHint>(&self, hint: Hint) -> Vec<f64> {
@@ -654,6 +721,7 @@ fn linear_coord(plan: &AxisPlan) -> PlannedCoord<RangedCoordf64> {
         inner: (plan.start..plan.end).into(),
         major: plan.major.clone(),
         minor: plan.minor.clone(),
+        reversed: plan.reversed,
     }
 }
 
@@ -662,6 +730,7 @@ fn log_coord(plan: &AxisPlan) -> PlannedCoord<LogCoord<f64>> {
         inner: (plan.start..plan.end).log_scale().into(),
         major: plan.major.clone(),
         minor: plan.minor.clone(),
+        reversed: plan.reversed,
     }
 }
 
@@ -775,10 +844,15 @@ where
 
     let x_format = |value: &f64| x_plan.label_for(*value);
     let y_format = |value: &f64| y_plan.label_for(*value);
+    let (across, upright) = if chart.down {
+        (&chart.y_label, &chart.x_label)
+    } else {
+        (&chart.x_label, &chart.y_label)
+    };
     context
         .configure_mesh()
-        .x_desc(printable(&chart.x_label))
-        .y_desc(printable(&chart.y_label))
+        .x_desc(printable(across))
+        .y_desc(printable(upright))
         .x_label_formatter(&x_format)
         .y_label_formatter(&y_format)
         .label_style((FONT, font_px(TICK_FONT)))
@@ -789,26 +863,49 @@ where
         .axis_style(BLACK.stroke_width(px(1)))
         .draw()?;
 
-    let with_markers = chart.x.len() <= MAX_POINTS_WITH_MARKERS;
+    let with_markers = chart.points || chart.x.len() <= MAX_POINTS_WITH_MARKERS;
     let marker_radius = px(3);
     for (position, series) in chart.series.iter().enumerate() {
         let colour = series_colour(position);
-        let points = chart.x.iter().copied().zip(series.values.iter().copied());
+        let points = (0..chart.x.len()).map(|row| chart.drawn(series, row));
         let coordinates = context.as_coord_spec();
-        let path = if chart.x.len() > THIN_CURVES_ABOVE {
-            thinned_path(points.clone(), |point| coordinates.translate(point))
-        } else {
-            points.clone().collect()
+        let long = chart.x.len() > THIN_CURVES_ABOVE;
+        // A profile's curve runs down the pixel rows: thin along those.
+        let path: Vec<(f64, f64)> = match (chart.points, long, chart.down) {
+            (true, _, _) => Vec::new(),
+            (false, false, _) => points.clone().collect(),
+            (false, true, false) => {
+                thinned_path(points.clone(), |point| coordinates.translate(point))
+            }
+            (false, true, true) => thinned_path(points.clone(), |point| {
+                let (column, row) = coordinates.translate(point);
+                (row, column)
+            }),
         };
-        context.draw_series(std::iter::once(PathElement::new(
-            path,
-            colour.stroke_width(px(2)),
-        )))?;
-        if with_markers {
-            context.draw_series(
-                points.map(|point| Circle::new(point, marker_radius, colour.filled())),
-            )?;
+        // Of a long cross-plot, one marker per displayed pixel: the same picture, and an SVG
+        // of a million rows stays small.
+        let mut seen = std::collections::HashSet::new();
+        let markers: Vec<(f64, f64)> = if with_markers {
+            points
+                .filter(|point| {
+                    let (column, row) = coordinates.translate(point);
+                    !long || seen.insert((column / SCALE as i32, row / SCALE as i32))
+                })
+                .collect()
+        } else {
+            Vec::new()
+        };
+        if !chart.points {
+            context.draw_series(std::iter::once(PathElement::new(
+                path,
+                colour.stroke_width(px(2)),
+            )))?;
         }
+        context.draw_series(
+            markers
+                .into_iter()
+                .map(|point| Circle::new(point, marker_radius, colour.filled())),
+        )?;
     }
 
     if chart.series.len() >= 2 {
@@ -969,8 +1066,8 @@ fn emptiest_corner(chart: &Chart, x_plan: &AxisPlan, y_plan: &AxisPlan) -> Corne
     let fractions: Vec<(f64, f64)> = chart
         .series
         .iter()
-        .flat_map(|s| chart.x.iter().zip(s.values))
-        .map(|(&x, &y)| (x_plan.fraction(x), y_plan.fraction(y)))
+        .flat_map(|series| (0..chart.x.len()).map(move |row| chart.drawn(series, row)))
+        .map(|(x, y)| (x_plan.fraction(x), y_plan.fraction(y)))
         .collect();
     let hidden_points = |right: bool, top: bool| {
         fractions
@@ -991,8 +1088,18 @@ fn emptiest_corner(chart: &Chart, x_plan: &AxisPlan, y_plan: &AxisPlan) -> Corne
 
 /// The chart of a sheet's `plot` line.
 pub fn plot_svg(plot: &crate::eval::PlotOutcome) -> Result<String, PlotError> {
-    render_svg(&Chart {
-        title: plot.title.clone(),
+    render_svg(&chart_of(plot, plot.title.clone()))
+}
+
+/// The chart of a `plot` line without its title, for a page that sets the title once in
+/// the chart's caption.
+pub fn plot_svg_untitled(plot: &crate::eval::PlotOutcome) -> Result<String, PlotError> {
+    render_svg(&chart_of(plot, None))
+}
+
+fn chart_of(plot: &crate::eval::PlotOutcome, title: Option<String>) -> Chart<'_> {
+    Chart {
+        title,
         x_label: plot.x_label.clone(),
         y_label: plot.y_label.clone(),
         x: &plot.x,
@@ -1006,7 +1113,9 @@ pub fn plot_svg(plot: &crate::eval::PlotOutcome) -> Result<String, PlotError> {
             .collect(),
         log_x: plot.log_x,
         log_y: plot.log_y,
-    })
+        down: plot.down,
+        points: plot.points,
+    }
 }
 
 #[cfg(test)]

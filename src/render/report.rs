@@ -201,7 +201,8 @@ pub fn blocks(evaluation: &Evaluation, digits: u32) -> Vec<Block> {
                 .title
                 .clone()
                 .unwrap_or_else(|| line.expression.clone());
-            match super::plot::plot_svg(plot) {
+            // The caption carries the title; the drawing does not repeat it.
+            match super::plot::plot_svg_untitled(plot) {
                 // Inline SVG in HTML needs no namespace, and the report names no outside address.
                 Ok(svg) => blocks.push(Block::Figure(Figure {
                     caption,
@@ -441,21 +442,17 @@ pub fn write_markdown(out: &mut dyn Write, context: &ReportContext) -> io::Resul
             writeln!(out, "{indent}= {}", step.substituted)?;
             writeln!(out, "{indent}= {}\n```\n", step.result)?;
             for relation in &step.relations {
-                writeln!(out, "- {}", md_code(&relation.call))?;
-                if !relation.formula.is_empty() {
-                    writeln!(
-                        out,
-                        "  - formula {} with the values: {}",
-                        md_code(&relation.formula),
-                        md_code(&relation.substituted)
-                    )?;
-                }
-                for citation in &relation.citations {
-                    writeln!(out, "  - after {}", md_cell(citation))?;
-                }
-            }
-            if !step.relations.is_empty() {
-                writeln!(out)?;
+                let after: Vec<String> = relation
+                    .formulations
+                    .iter()
+                    .map(|title| md_cell(title))
+                    .collect();
+                let after = match after.is_empty() {
+                    true => String::new(),
+                    false => format!(", after {} (see Sources)", after.join("; ")),
+                };
+                writeln!(out, "{}{after}:\n", md_code(&relation.call))?;
+                writeln!(out, "```text\n{}\n```\n", relation.steps().join("\n"))?;
             }
         }
     }
@@ -567,20 +564,35 @@ span.passed { color: #116329; }
 figure.chart { margin: 1rem 0; }
 figure.chart svg { max-width: 100%; height: auto; }
 div.step pre { margin: 0.25rem 0 0.5rem; white-space: pre-wrap; }
+div.step p.relation, div.step pre.relation { margin-left: 1.5rem; }
+div.step p.relation { font-size: 0.92rem; margin-bottom: 0; }
 section.caution { background: #fff8e1; border-left: 4px solid #d29922; padding: 0.25rem 1rem; margin-top: 2rem; }
-@media print { main { max-width: none; } tr { break-inside: avoid; } }
 ";
 
 /// Writes the report as one HTML page with its style inline and no outside resources.
 pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()> {
     let evaluation = context.evaluation;
     let title = format!("Calculation report: {}", file_name(context.label));
+    // The running header names the project, or the sheet's title when it has no project.
+    let field = |name: &str| {
+        evaluation
+            .fields
+            .iter()
+            .rev()
+            .find(|field| field.name == name && !field.text.is_empty())
+            .map(|field| field.text.as_str())
+    };
+    let page_style = super::print::page_style(
+        field("project").or_else(|| field("title")),
+        file_name(context.label),
+        context.version,
+    );
     writeln!(
         out,
         "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n\
 <meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n\
-<meta name=\"generator\" content=\"fluxsheet {}\">\n<title>{}</title>\n<style>{STYLE}</style>\n\
-</head>\n<body>\n<main>",
+<meta name=\"generator\" content=\"fluxsheet {}\">\n<title>{}</title>\n\
+<style>{STYLE}{page_style}</style>\n</head>\n<body>\n<main>",
         escape(context.version),
         escape(&title)
     )?;
@@ -627,7 +639,11 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
                 escape(&figure.caption)
             )?,
             Block::Columns { header, rows } => {
-                writeln!(out, "<table class=\"columns\">\n<thead><tr>")?;
+                writeln!(
+                    out,
+                    "<table class=\"columns{}\">\n<thead><tr>",
+                    super::print::whole_class(rows.len())
+                )?;
                 for cell in &header {
                     write!(out, "<th>{}</th>", escape(cell))?;
                 }
@@ -664,19 +680,22 @@ pub fn write_html(out: &mut dyn Write, context: &ReportContext) -> io::Result<()
                 escape(&step.result)
             )?;
             for relation in &step.relations {
-                writeln!(out, "<p><code>{}</code>", escape(&relation.call))?;
-                if !relation.formula.is_empty() {
-                    writeln!(
-                        out,
-                        "<br>formula <code>{}</code> with the values: <code>{}</code>",
-                        escape(&relation.formula),
-                        escape(&relation.substituted)
-                    )?;
-                }
-                for citation in &relation.citations {
-                    writeln!(out, "<br>after {}", escape(citation))?;
-                }
-                writeln!(out, "</p>")?;
+                let after: Vec<String> = relation
+                    .formulations
+                    .iter()
+                    .map(|title| escape(title))
+                    .collect();
+                let after = match after.is_empty() {
+                    true => String::new(),
+                    false => format!(", after {} (see Sources)", after.join("; ")),
+                };
+                writeln!(
+                    out,
+                    "<p class=\"relation\"><code>{}</code>{after}:</p>\
+<pre class=\"relation\">{}</pre>",
+                    escape(&relation.call),
+                    escape(&relation.steps().join("\n"))
+                )?;
             }
             writeln!(out, "</div>")?;
         }
@@ -774,8 +793,9 @@ exact unit definitions and exact constants.</p>"
 fn write_html_rows(out: &mut dyn Write, rows: &[Row]) -> io::Result<()> {
     writeln!(
         out,
-        "<table class=\"lines\">\n<thead><tr><th>line</th><th>name</th><th>value</th><th>unit</th>\
-<th>expression</th><th>note</th></tr></thead>\n<tbody>"
+        "<table class=\"lines{}\">\n<thead><tr><th>line</th><th>name</th><th>value</th><th>unit</th>\
+<th>expression</th><th>note</th></tr></thead>\n<tbody>",
+        super::print::whole_class(rows.len())
     )?;
     for row in rows {
         let class = match row.kind {

@@ -25,7 +25,8 @@ pub fn exceedance_svg(line: &LineSpread) -> Result<String, PlotError> {
         format!(" [{}]", line.unit)
     };
     let chart = Chart {
-        title: Some(format!("Exceedance of {name}")),
+        // The report's caption titles the chart: no second title inside it.
+        title: None,
         x_label: format!("{name}{unit}"),
         y_label: "probability of exceeding [%]".to_string(),
         x: &line.quantiles,
@@ -35,6 +36,8 @@ pub fn exceedance_svg(line: &LineSpread) -> Result<String, PlotError> {
         }],
         log_x: low > 0.0 && high / low > 10.0,
         log_y: false,
+        down: false,
+        points: false,
     };
     render_svg(&chart)
 }
@@ -53,7 +56,8 @@ pub fn tornado_svg(result: &Sensitivity, noise: f64) -> String {
                 .map(|rank| (name.as_str(), rank))
         })
         .collect();
-    let (top, left, right) = (60.0, 200.0, 60.0);
+    // The report's caption titles the chart, so the drawing starts with its tick lines.
+    let (top, left, right) = (24.0, 200.0, 60.0);
     let height = top + TORNADO_ROW * bars.len().max(1) as f64 + 50.0;
     let plot_width = TORNADO_WIDTH - left - right;
     let x_of = |rank: f64| left + (rank + 1.0) / 2.0 * plot_width;
@@ -63,12 +67,6 @@ pub fn tornado_svg(result: &Sensitivity, noise: f64) -> String {
         r#"<svg width="{TORNADO_WIDTH}" height="{height}" viewBox="0 0 {TORNADO_WIDTH} {height}" font-family="sans-serif" font-size="14">"#
     );
     let _ = write!(svg, r#"<rect width="100%" height="100%" fill="white"/>"#);
-    let _ = write!(
-        svg,
-        r#"<text x="{}" y="28" text-anchor="middle" font-size="18">What drives {} (rank correlation with each input)</text>"#,
-        TORNADO_WIDTH / 2.0,
-        escape(&result.name)
-    );
     let bottom = top + TORNADO_ROW * bars.len().max(1) as f64;
     for tick in [-1.0, -0.5, 0.0, 0.5, 1.0] {
         let x = x_of(tick);
@@ -129,7 +127,7 @@ mod tests {
             line: 4,
             name: "Q<".to_string(),
             inputs: vec![
-                ("K".to_string(), Some(0.9)),
+                ("K<".to_string(), Some(0.9)),
                 ("n".to_string(), Some(-0.3)),
                 ("t".to_string(), Some(0.001)),
                 ("h".to_string(), None),
@@ -141,8 +139,9 @@ mod tests {
         assert!(parsed.is_ok(), "{svg}");
         // The background and two bars.
         assert_eq!(svg.matches("<rect").count(), 3, "{svg}");
-        let (k, n) = (svg.find(">K  +0.90<"), svg.find(">n  -0.30<"));
+        let (k, n) = (svg.find(">K&lt;  +0.90<"), svg.find(">n  -0.30<"));
         assert!(k.is_some() && n.is_some() && k < n, "{svg}");
-        assert!(!svg.contains(">t  ") && svg.contains("Q&lt;"), "{svg}");
+        // No title inside: the report's caption gives it.
+        assert!(!svg.contains(">t  ") && !svg.contains("Q&lt;"), "{svg}");
     }
 }

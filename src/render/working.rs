@@ -1,15 +1,23 @@
 //! The working of a sheet, as a checker reads a hand calculation: for each computed line, the
 //! expression, the same expression with every input's value and unit put in place of its name,
 //! and the result in the line's display unit. A built-in relation called on the line shows its
-//! formula with the argument values in it and cites its formulation. A column shows its first
-//! rows and its statistics, never every substitution.
+//! declared formula with the call's values in it, its result, and its formulations. A column
+//! shows its first rows and its statistics, never every substitution.
 //!
-//! The substitution works on the expression's text: names are replaced, units after numbers and
-//! inside `[ ]`, quoted text and function names are left as written.
+//! The substituted expression is built from the syntax tree: the line's expression is parsed
+//! again at its place in the sources (so its calls meet the evaluation's `CallRecord`s), each
+//! name becomes its value, and the tree is written back with the parentheses its precedence
+//! needs. Literals and units stay as written.
 
 use super::format_significant;
-use crate::eval::{Evaluation, Library, LineResult, Shown, Value};
-use crate::syntax::Span;
+use crate::eval::function::FormulaUse;
+use crate::eval::{
+    CallRecord, Evaluation, Library, LineResult, Provenance, Quantity, Shown, Value,
+};
+use crate::syntax::{
+    BinaryOperator, Expression, ExpressionKind, FunctionDefinition, LineKind, Spacing,
+};
+use rustc_hash::FxHashMap as HashMap;
 
 /// Rows of a column shown before its statistics.
 pub const FIRST_ROWS: usize = 3;
@@ -27,62 +35,78 @@ pub struct Working {
     pub relations: Vec<RelationWorking>,
 }
 
-/// A built-in relation called on a line: its formula, the formula with the call's values in
-/// it (SI, as the formula is written), and the formulations it follows.
+/// A built-in relation called on a line: the call with its values, its declared formula, the
+/// formula with the call's values in it (SI, as the formula is written), the call's result and
+/// the titles of the formulations it follows (cited in full in the sources of the report and
+/// the footer of `run`). A call over columns shows its first row.
 #[derive(Debug, Clone, PartialEq)]
 pub struct RelationWorking {
     pub call: String,
     pub formula: String,
     pub substituted: String,
-    pub citations: Vec<String>,
+    pub result: String,
+    pub formulations: Vec<&'static str>,
 }
 
 /// The working of every computed line of the main sheet (lines that name another value or
-/// call a function; plain inputs are in the table already).
+/// call a function; plain inputs are in the table already, and the note of a `solve` or `fit`
+/// line says how its value was found).
 pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> Vec<Working> {
-    let main_text = evaluation
-        .sources
-        .file(0)
-        .map_or("", |file| file.text.as_str());
-    let line_spans = line_spans(main_text);
+    let named: HashMap<&str, &Shown> = evaluation
+        .included_values
+        .iter()
+        .map(|(name, shown)| (name.as_str(), shown))
+        .chain(
+            evaluation
+                .lines
+                .iter()
+                .filter_map(|line| match &line.result {
+                    LineResult::Value(shown) => Some((line.name.as_deref()?, shown)),
+                    _ => None,
+                }),
+        )
+        .collect();
     let lookup = |name: &str| -> Option<String> {
-        let shown = evaluation
-            .lines
-            .iter()
-            .find_map(|line| match &line.result {
-                LineResult::Value(shown) if line.name.as_deref() == Some(name) => Some(shown),
-                _ => None,
-            })
-            .or_else(|| {
-                evaluation
-                    .included_values
-                    .iter()
-                    .find(|(included, _)| included == name)
-                    .map(|(_, shown)| shown)
-            });
-        match shown {
+        match named.get(name) {
             Some(shown) => first_value(shown, digits),
             None => library.constant(name).map(|constant| {
                 let quantity = constant.quantity;
-                let text =
-                    quantity_text(quantity.value, &quantity.dimension.si_unit_text(), digits);
-                if text.contains(' ') {
-                    format!("({text})")
-                } else {
-                    text
-                }
+                in_parentheses(quantity_text(
+                    quantity.value,
+                    &quantity.dimension.preferred_si_unit(),
+                    digits,
+                ))
             }),
         }
     };
+    let mut records: HashMap<(usize, usize), &CallRecord> = HashMap::default();
+    for record in &evaluation.calls {
+        records
+            .entry((record.span.start, record.span.end))
+            .or_insert(record);
+    }
+    let definitions = sheet_functions(evaluation);
+    let functions: HashMap<&str, &FunctionDefinition> = definitions
+        .iter()
+        .map(|definition| (definition.name.text.as_str(), definition))
+        .collect();
+    let writer = TreeWriter {
+        lookup: &lookup,
+        library,
+        records: &records,
+        functions: &functions,
+        digits,
+    };
     let mut all = Vec::new();
     for line in &evaluation.lines {
-        let LineResult::Value(shown) = &line.result else {
+        let (LineResult::Value(shown), Some(span)) = (&line.result, line.expression_span) else {
             continue;
         };
-        // A data-file column is an input: the Inputs table names its file and hash.
-        if line.expression.starts_with("column ") {
+        // A data-file column is an input (the Inputs table names its file and hash), and a
+        // `solve` or `fit` line is not an expression: neither parses as one.
+        let Ok(tree) = crate::syntax::parse_set_value(&line.expression, span.start) else {
             continue;
-        }
+        };
         // A sampled line shows the P50 of its samples, which no substitution of single values
         // gives: its spread is in the summary instead.
         let sampled = evaluation.samples.as_ref().is_some_and(|summary| {
@@ -94,11 +118,23 @@ pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> V
         if sampled {
             continue;
         }
-        let substituted = substitute(&line.expression, &lookup);
-        let span = line_spans.get(line.number.wrapping_sub(1)).copied();
-        let relations = span
-            .map(|span| relations_on(evaluation, library, span, digits))
-            .unwrap_or_default();
+        // An uncertain input (`normal mean a sd b`) is an input whatever its parameters name.
+        if matches!(tree.kind, ExpressionKind::Distribution(_)) {
+            continue;
+        }
+        // Literals alone (`6 m` given by `--set`, a list, a range of literals) are inputs.
+        let mut computed = false;
+        tree.for_each_subexpression(&mut |part| {
+            computed |= matches!(
+                part.kind,
+                ExpressionKind::Name(_) | ExpressionKind::Call { .. }
+            );
+        });
+        if !computed {
+            continue;
+        }
+        let mut relations = Vec::new();
+        let substituted = writer.whole(&tree, &mut relations);
         if substituted == line.expression && relations.is_empty() {
             continue;
         }
@@ -114,7 +150,349 @@ pub fn working(evaluation: &Evaluation, library: &dyn Library, digits: u32) -> V
     all
 }
 
-/// Writes the working as plain text, for `run --working`.
+/// Binding strength of a tree node as written: a child that binds more loosely than its
+/// parent operator needs parentheses.
+fn precedence(expression: &Expression) -> u8 {
+    match &expression.kind {
+        ExpressionKind::Binary { operator, .. } => operator_precedence(*operator),
+        ExpressionKind::Negate(_) => 3,
+        ExpressionKind::Range(_) => 0,
+        _ => 5,
+    }
+}
+
+fn operator_precedence(operator: BinaryOperator) -> u8 {
+    match operator {
+        BinaryOperator::Add | BinaryOperator::Subtract => 1,
+        BinaryOperator::Multiply | BinaryOperator::Divide => 2,
+        // Tighter than a sign: `-2^2` is -(2^2).
+        BinaryOperator::Power => 4,
+    }
+}
+
+fn operator_text(operator: BinaryOperator) -> &'static str {
+    match operator {
+        BinaryOperator::Add => " + ",
+        BinaryOperator::Subtract => " - ",
+        BinaryOperator::Multiply => " * ",
+        BinaryOperator::Divide => " / ",
+        BinaryOperator::Power => "^",
+    }
+}
+
+/// Writes a tree back as text with values in place of names, and collects the working of the
+/// relations it calls.
+struct TreeWriter<'a> {
+    lookup: &'a dyn Fn(&str) -> Option<String>,
+    library: &'a dyn Library,
+    records: &'a HashMap<(usize, usize), &'a CallRecord>,
+    /// The main sheet's functions, whose bodies are shown with a call's arguments in them.
+    functions: &'a HashMap<&'a str, &'a FunctionDefinition>,
+    digits: u32,
+}
+
+/// The function definitions of the main sheet, parsed again from its lines.
+fn sheet_functions(evaluation: &Evaluation) -> Vec<FunctionDefinition> {
+    let Some(file) = evaluation.sources.file(0) else {
+        return Vec::new();
+    };
+    let wanted: Vec<usize> = evaluation
+        .lines
+        .iter()
+        .filter(|line| matches!(line.result, LineResult::Function { .. }))
+        .map(|line| line.number)
+        .collect();
+    if wanted.is_empty() {
+        return Vec::new();
+    }
+    let text = file
+        .text
+        .strip_prefix(crate::syntax::BYTE_ORDER_MARK)
+        .unwrap_or(&file.text);
+    text.split('\n')
+        .enumerate()
+        .filter(|(index, _)| wanted.contains(&(index + 1)))
+        .filter_map(|(index, line)| {
+            let line = line.strip_suffix('\r').unwrap_or(line);
+            match crate::syntax::parse_line(line, index + 1, 0).ok()?.kind {
+                LineKind::Function(definition) => Some(definition),
+                _ => None,
+            }
+        })
+        .collect()
+}
+
+impl TreeWriter<'_> {
+    /// A whole expression, or a call's argument: a value standing alone needs no parentheses
+    /// of its own (unless it is negative).
+    fn whole(&self, expression: &Expression, relations: &mut Vec<RelationWorking>) -> String {
+        let text = self.write(expression, relations);
+        match &expression.kind {
+            ExpressionKind::Name(_) => text
+                .strip_prefix('(')
+                .and_then(|inner| inner.strip_suffix(')'))
+                .filter(|inner| !inner.starts_with('-'))
+                .map_or(text.clone(), str::to_string),
+            _ => text,
+        }
+    }
+
+    fn write(&self, expression: &Expression, relations: &mut Vec<RelationWorking>) -> String {
+        match &expression.kind {
+            ExpressionKind::Quantity { digits, unit } => match unit {
+                Some(unit) => format!("{digits} {}", unit.text),
+                None => digits.clone(),
+            },
+            ExpressionKind::Name(name) => (self.lookup)(name).unwrap_or_else(|| name.clone()),
+            ExpressionKind::List { items, unit } => {
+                let list = format!("{{{}}}", items.join(", "));
+                match unit {
+                    Some(unit) => format!("{list} {}", unit.text),
+                    None => list,
+                }
+            }
+            ExpressionKind::Range(range) => {
+                let from = self.write(&range.from, relations);
+                let to = self.write(&range.to, relations);
+                match &range.spacing {
+                    Spacing::Step(step) => {
+                        format!("{from} to {to} step {}", self.write(step, relations))
+                    }
+                    Spacing::Count { count, logarithmic } => format!(
+                        "{from} to {to} count {}{}",
+                        self.write(count, relations),
+                        if *logarithmic { " log" } else { "" }
+                    ),
+                }
+            }
+            // Not inside an expression a working is written for (a line of its own).
+            ExpressionKind::FileColumn { header, .. } => format!("column {}", header.text),
+            ExpressionKind::Solve(solve) => format!("solve {}", solve.line.text),
+            ExpressionKind::Fit(fit) => format!("fit {}", fit.model.text),
+            ExpressionKind::Distribution(distribution) => {
+                format!("{} distribution", distribution.family.keyword())
+            }
+            ExpressionKind::Call {
+                function,
+                arguments,
+            } => {
+                let written: Vec<String> = arguments
+                    .iter()
+                    .map(|argument| self.whole(argument, relations))
+                    .collect();
+                let relation = self
+                    .relation(&function.text, expression)
+                    .or_else(|| self.sheet_function(&function.text, &written));
+                if let Some(relation) = relation {
+                    if !relations.contains(&relation) {
+                        relations.push(relation);
+                    }
+                }
+                format!("{}({})", function.text, written.join(", "))
+            }
+            ExpressionKind::Negate(inner) => {
+                let text = self.write(inner, relations);
+                if precedence(inner) <= 3 {
+                    format!("-({text})")
+                } else {
+                    format!("-{text}")
+                }
+            }
+            ExpressionKind::Binary {
+                operator,
+                left,
+                right,
+            } => {
+                let own = operator_precedence(*operator);
+                let power = *operator == BinaryOperator::Power;
+                let mut left_text = self.write(left, relations);
+                // `(2 m)^2`: a literal with a unit is a power's base only in parentheses.
+                let unit_literal =
+                    matches!(&left.kind, ExpressionKind::Quantity { unit: Some(_), .. });
+                if precedence(left) < own || (power && (precedence(left) == own || unit_literal)) {
+                    left_text = format!("({left_text})");
+                }
+                let mut right_text = self.write(right, relations);
+                let same_needs =
+                    matches!(operator, BinaryOperator::Subtract | BinaryOperator::Divide);
+                if precedence(right) < own || (same_needs && precedence(right) == own) {
+                    right_text = format!("({right_text})");
+                }
+                format!("{left_text}{}{right_text}", operator_text(*operator))
+            }
+        }
+    }
+
+    /// The working of a call of one of the sheet's functions: its body with each parameter
+    /// replaced by the argument as written out (`arguments`). Calls inside the body are not
+    /// followed: their values belong to every call of the function at once.
+    fn sheet_function(&self, function: &str, arguments: &[String]) -> Option<RelationWorking> {
+        let definition = self.functions.get(function)?;
+        let parameters: Vec<&str> = definition
+            .parameters
+            .iter()
+            .map(|parameter| parameter.name.text.as_str())
+            .collect();
+        if parameters.len() != arguments.len() {
+            return None;
+        }
+        let lookup = |name: &str| match parameters.iter().position(|known| *known == name) {
+            Some(index) => Some(in_parentheses(arguments[index].clone())),
+            None => (self.lookup)(name),
+        };
+        let body_writer = TreeWriter {
+            lookup: &lookup,
+            library: self.library,
+            records: &HashMap::default(),
+            functions: &HashMap::default(),
+            digits: self.digits,
+        };
+        let symbol = format!("{function}({})", parameters.join(", "));
+        let body = body_writer.whole(&definition.body, &mut Vec::new());
+        let named: Vec<String> = parameters
+            .iter()
+            .zip(arguments)
+            .map(|(parameter, argument)| format!("{parameter} = {argument}"))
+            .collect();
+        Some(RelationWorking {
+            call: format!("{function}({})", named.join(", ")),
+            formula: format!("{symbol} = {}", text_of_tree(&definition.body)),
+            substituted: format!("{symbol} = {body}"),
+            result: String::new(),
+            formulations: Vec::new(),
+        })
+    }
+
+    /// The working of a call of a relation that declares a formula: its arguments' values
+    /// (the first row of a column), defaults of those left out, the formula with them in it,
+    /// and its result.
+    fn relation(&self, function: &str, call: &Expression) -> Option<RelationWorking> {
+        let builtin = self.library.function(function)?;
+        let record = self.records.get(&(call.span.start, call.span.end))?;
+        let mut rows: Option<usize> = None;
+        let mut arguments: Vec<Quantity> = Vec::new();
+        for (_, value) in &record.arguments {
+            arguments.push(match value {
+                Value::Scalar(quantity) => *quantity,
+                Value::Column(column) if !column.is_empty() => {
+                    rows = Some(column.len());
+                    column.quantity(0)
+                }
+                _ => return None,
+            });
+        }
+        let FormulaUse {
+            formula,
+            parameters,
+            formulations,
+        } = builtin.formula_for(&arguments)?;
+        let digits = self.digits;
+        let mut values: Vec<(&str, String)> = Vec::new();
+        let mut named: Vec<String> = Vec::new();
+        for (index, (parameter, default)) in parameters.iter().enumerate() {
+            let (quantity, left_out) = match (arguments.get(index), default) {
+                (Some(quantity), _) => (*quantity, false),
+                (None, Some(default)) => (*default, true),
+                (None, None) => continue,
+            };
+            let text = quantity_text(
+                quantity.value,
+                &quantity.dimension.preferred_si_unit(),
+                digits,
+            );
+            named.push(if left_out {
+                format!("{parameter} = {text} (left out)")
+            } else {
+                format!("{parameter} = {text}")
+            });
+            values.push((parameter, in_parentheses(text)));
+        }
+        let (symbol, right) = formula.split_once(" = ").unwrap_or(("", formula));
+        let lookup = |word: &str| {
+            values
+                .iter()
+                .find(|(parameter, _)| *parameter == word)
+                .map(|(_, value)| value.clone())
+        };
+        let substituted = match symbol {
+            "" => substitute_words(right, &lookup),
+            symbol => format!("{symbol} = {}", substitute_words(right, &lookup)),
+        };
+        let result = builtin
+            .call(&arguments, &mut Provenance::default())
+            .map(|quantity| {
+                quantity_text(
+                    quantity.value,
+                    &quantity.dimension.preferred_si_unit(),
+                    digits,
+                )
+            })
+            .unwrap_or_default();
+        let row = match rows {
+            Some(rows) => format!(" (row 1 of {rows})"),
+            None => String::new(),
+        };
+        Some(RelationWorking {
+            call: format!("{function}({}){row}", named.join(", ")),
+            formula: formula.to_string(),
+            substituted,
+            result,
+            formulations: formulations
+                .iter()
+                .map(|formulation| formulation.title)
+                .collect(),
+        })
+    }
+}
+
+impl RelationWorking {
+    /// The relation set out as a hand calculation: its formula, then `= ` the formula with the
+    /// values in it, then `= ` its result, each `=` under the formula's.
+    pub fn steps(&self) -> Vec<String> {
+        let (symbol, _) = self
+            .formula
+            .split_once(" = ")
+            .unwrap_or(("", &self.formula));
+        let under = format!("{}= ", " ".repeat(symbol.chars().count() + 1));
+        let values = self
+            .substituted
+            .split_once(" = ")
+            .map_or(self.substituted.as_str(), |(_, right)| right);
+        let mut steps = vec![self.formula.clone(), format!("{under}{values}")];
+        if !self.result.is_empty() {
+            steps.push(format!("{under}{}", self.result));
+        }
+        steps
+    }
+}
+
+/// A tree written back as it stands, names and all (a sheet function's body).
+fn text_of_tree(expression: &Expression) -> String {
+    let keep = |_: &str| None;
+    TreeWriter {
+        lookup: &keep,
+        library: crate::library::Builtins::standard(),
+        records: &HashMap::default(),
+        functions: &HashMap::default(),
+        digits: 4,
+    }
+    .whole(expression, &mut Vec::new())
+}
+
+/// `(text)` when it has a unit or a sign, so that it reads as one factor.
+fn in_parentheses(text: String) -> String {
+    if text.contains(' ') || text.starts_with('-') {
+        format!("({text})")
+    } else {
+        text
+    }
+}
+
+/// Width the plain-text working is wrapped to: a 100-column terminal.
+pub const TEXT_WIDTH: usize = 100;
+
+/// Writes the working as plain text, for `run --working`, as a hand calculation is set out:
+/// each `=` under the first, and each relation's formula with its values below the line.
 pub fn write_text(out: &mut dyn std::io::Write, all: &[Working]) -> std::io::Result<()> {
     writeln!(out, "\nWorking")?;
     for working in all {
@@ -123,22 +501,53 @@ pub fn write_text(out: &mut dyn std::io::Write, all: &[Working]) -> std::io::Res
             None => format!("line {}  ", working.line),
         };
         let indent = " ".repeat(head.chars().count().saturating_sub(2));
-        writeln!(out, "{head}{}", working.expression)?;
-        writeln!(out, "{indent}= {}", working.substituted)?;
-        writeln!(out, "{indent}= {}", working.result)?;
+        let steps = [
+            (head.clone(), &working.expression),
+            (format!("{indent}= "), &working.substituted),
+            (format!("{indent}= "), &working.result),
+        ];
+        for (prefix, text) in steps {
+            write_wrapped(out, &prefix, text)?;
+        }
         for relation in &working.relations {
-            if relation.formula.is_empty() {
-                writeln!(out, "{indent}  {}", relation.call)?;
-            } else {
-                writeln!(out, "{indent}  {}: {}", relation.call, relation.formula)?;
-                writeln!(out, "{indent}  {}", relation.substituted)?;
+            write_wrapped(out, "    ", &relation.call)?;
+            for step in relation.steps() {
+                // The step's own indent (under the `=`) becomes the wrapping prefix.
+                let text = step.trim_start();
+                let indent = format!("    {}", &step[..step.len() - text.len()]);
+                match text.strip_prefix("= ") {
+                    Some(rest) => write_wrapped(out, &format!("{indent}= "), rest)?,
+                    None => write_wrapped(out, &indent, text)?,
+                }
             }
-            for citation in &relation.citations {
-                writeln!(out, "{indent}  after {citation}")?;
+            for title in &relation.formulations {
+                write_wrapped(out, "    after ", title)?;
             }
         }
     }
     Ok(())
+}
+
+/// `prefix` and `text` wrapped at spaces to `TEXT_WIDTH` columns, each further line indented
+/// two spaces past the prefix. A word longer than the width stays whole.
+fn write_wrapped(out: &mut dyn std::io::Write, prefix: &str, text: &str) -> std::io::Result<()> {
+    let continuation = " ".repeat(prefix.chars().count().min(40) + 2);
+    let mut line = prefix.to_string();
+    let mut empty = true;
+    for word in text.split(' ') {
+        let width = line.chars().count();
+        if !empty && width + 1 + word.chars().count() > TEXT_WIDTH {
+            writeln!(out, "{line}")?;
+            line = format!("{continuation}{word}");
+        } else {
+            if !empty {
+                line.push(' ');
+            }
+            line.push_str(word);
+        }
+        empty = false;
+    }
+    writeln!(out, "{line}")
 }
 
 /// `value unit`, or the bare number for a plain number.
@@ -217,148 +626,6 @@ pub fn result_text(shown: &Shown, digits: u32) -> String {
     }
 }
 
-/// The byte span of each line of a text (without its line ending).
-fn line_spans(text: &str) -> Vec<Span> {
-    let mut spans = Vec::new();
-    let mut start = 0;
-    for line in text.split('\n') {
-        spans.push(Span::new(start, start + line.len()));
-        start += line.len() + 1;
-    }
-    spans
-}
-
-/// The relations called on the line at `span` (of the main sheet), once per call.
-fn relations_on(
-    evaluation: &Evaluation,
-    library: &dyn Library,
-    span: Span,
-    digits: u32,
-) -> Vec<RelationWorking> {
-    let mut relations: Vec<RelationWorking> = Vec::new();
-    let mut seen: Vec<Span> = Vec::new();
-    for call in &evaluation.calls {
-        if call.span.start < span.start || call.span.end > span.end || seen.contains(&call.span) {
-            continue;
-        }
-        seen.push(call.span);
-        let Some(function) = library.function(&call.function) else {
-            continue;
-        };
-        let formulations = function.formulations();
-        if formulations.is_empty() {
-            continue;
-        }
-        let parameters = parameter_names(&function.signature(), call.arguments.len());
-        let values: Vec<(String, String)> = call
-            .arguments
-            .iter()
-            .enumerate()
-            .filter_map(|(index, (_, value))| {
-                let parameter = parameters.get(index).cloned().unwrap_or_default();
-                let text = match value {
-                    Value::Scalar(quantity) => {
-                        quantity_text(quantity.value, &quantity.dimension.si_unit_text(), digits)
-                    }
-                    Value::Column(column) if !column.is_empty() => {
-                        quantity_text(column.values[0], &column.dimension.si_unit_text(), digits)
-                    }
-                    _ => return None,
-                };
-                let text = if text.contains(' ') || text.starts_with('-') {
-                    format!("({text})")
-                } else {
-                    text
-                };
-                Some((parameter, text))
-            })
-            .collect();
-        let named = values
-            .iter()
-            .map(|(name, value)| match name.is_empty() {
-                true => value.clone(),
-                false => format!("{name} = {value}"),
-            })
-            .collect::<Vec<_>>()
-            .join(", ");
-        let formula = formula_of(function.summary());
-        let substituted = match &formula {
-            Some(formula) => {
-                let lookup = |name: &str| {
-                    values
-                        .iter()
-                        .find(|(parameter, _)| parameter == name)
-                        .map(|(_, value)| value.clone())
-                };
-                substitute_words(formula, &lookup)
-            }
-            None => format!("{}({named})", call.function),
-        };
-        relations.push(RelationWorking {
-            call: format!("{}({named})", call.function),
-            formula: formula.unwrap_or_default(),
-            substituted,
-            citations: formulations
-                .iter()
-                .map(|formulation| format!("{}: {}", formulation.title, formulation.citation))
-                .collect(),
-        });
-    }
-    relations
-}
-
-/// The parameter names of the form with `count` arguments, read from a signature such as
-/// `hydraulic_conductivity(k, T[, p]) or (k, rho, mu)`.
-fn parameter_names(signature: &str, count: usize) -> Vec<String> {
-    // Each form: its names and how many are required (those before the first `[`).
-    let forms: Vec<(Vec<String>, usize)> = signature
-        .split(" or ")
-        .filter_map(|form| {
-            let open = form.find('(')?;
-            let close = form.rfind(')')?;
-            let inside = &form[open + 1..close];
-            let names_in = |text: &str| -> Vec<String> {
-                text.split(',')
-                    .map(|name| name.trim_matches(|c: char| c == '[' || c == ']' || c == ' '))
-                    .filter(|name| !name.is_empty())
-                    .map(str::to_string)
-                    .collect()
-            };
-            let required = names_in(inside.split('[').next().unwrap_or_default()).len();
-            Some((names_in(inside), required))
-        })
-        .collect();
-    // Two forms that take this many arguments (`(k, T, p)` or `(k, rho, mu)`) cannot be told
-    // apart here: no names then, rather than wrong ones.
-    let fitting: Vec<&Vec<String>> = forms
-        .iter()
-        .filter(|(names, required)| *required <= count && count <= names.len())
-        .map(|(names, _)| names)
-        .collect();
-    match fitting.as_slice() {
-        [only] => only.to_vec(),
-        _ => Vec::new(),
-    }
-}
-
-/// The formula of a relation's summary: `q = K i` from "Darcy flux q = K i (m/s); …", the
-/// first clause's `symbol = right side` without the unit in parentheses that ends it.
-fn formula_of(summary: &str) -> Option<String> {
-    let clause = summary.split([';', ':']).next()?;
-    let equals = clause.find(" = ")?;
-    let symbol = clause[..equals].split_whitespace().last()?;
-    let mut right = clause[equals + 3..].trim();
-    if let Some(open) = right.rfind(" (") {
-        if right.ends_with(')') {
-            right = right[..open].trim();
-        }
-    }
-    if right.is_empty() {
-        return None;
-    }
-    Some(format!("{symbol} = {right}"))
-}
-
 fn is_name_start(character: char) -> bool {
     character.is_alphabetic() || character == '_'
 }
@@ -378,7 +645,18 @@ fn substitute_words(text: &str, lookup: &dyn Fn(&str) -> Option<String>) -> Stri
                 .unwrap_or(rest.len());
             let word = &rest[..end];
             match lookup(word) {
-                Some(value) => out.push_str(&value),
+                Some(value) => {
+                    // Alone as an argument (`rho_w(T, p)`), a value needs no parentheses.
+                    let previous = out.trim_end().chars().last();
+                    let next = rest[end..].trim_start().chars().next();
+                    let alone =
+                        matches!(previous, Some('(' | ',')) && matches!(next, Some(')' | ','));
+                    let bare = value
+                        .strip_prefix('(')
+                        .and_then(|inner| inner.strip_suffix(')'))
+                        .filter(|inner| alone && !inner.starts_with('-'));
+                    out.push_str(bare.unwrap_or(&value));
+                }
                 None => out.push_str(word),
             }
             rest = &rest[end..];
@@ -390,154 +668,107 @@ fn substitute_words(text: &str, lookup: &dyn Fn(&str) -> Option<String>) -> Stri
     out
 }
 
-/// Replaces the sheet names of an expression with their values. A number's unit (`2 m`,
-/// `3 gal/(d*ft^2)`), a unit in `[ ]`, quoted text, a function name (a word before `(`) and
-/// the words of ranges stay as written.
-pub fn substitute(expression: &str, lookup: &dyn Fn(&str) -> Option<String>) -> String {
-    let characters: Vec<char> = expression.chars().collect();
-    let mut out = String::with_capacity(expression.len());
-    let mut index = 0;
-    let mut after_number = false;
-    while index < characters.len() {
-        let character = characters[index];
-        if character == '"' {
-            let end = characters[index + 1..]
-                .iter()
-                .position(|c| *c == '"')
-                .map_or(characters.len(), |position| index + 2 + position);
-            out.extend(&characters[index..end]);
-            index = end;
-            after_number = false;
-        } else if character == '[' {
-            let end = characters[index..]
-                .iter()
-                .position(|c| *c == ']')
-                .map_or(characters.len(), |position| index + position + 1);
-            out.extend(&characters[index..end]);
-            index = end;
-            after_number = false;
-        } else if character.is_ascii_digit()
-            || (character == '.'
-                && characters
-                    .get(index + 1)
-                    .is_some_and(|next| next.is_ascii_digit()))
-        {
-            let start = index;
-            while index < characters.len() {
-                let current = characters[index];
-                let exponent_sign = matches!(current, '+' | '-')
-                    && index > start
-                    && matches!(characters[index - 1], 'e' | 'E');
-                let exponent = matches!(current, 'e' | 'E')
-                    && characters
-                        .get(index + 1)
-                        .is_some_and(|next| next.is_ascii_digit() || matches!(next, '+' | '-'));
-                if current.is_ascii_digit() || current == '.' || exponent || exponent_sign {
-                    index += 1;
-                } else {
-                    break;
-                }
-            }
-            out.extend(&characters[start..index]);
-            after_number = true;
-        } else if is_name_start(character) {
-            let start = index;
-            while index < characters.len() && is_name_character(characters[index]) {
-                index += 1;
-            }
-            let word: String = characters[start..index].iter().collect();
-            let keyword = matches!(
-                word.as_str(),
-                "to" | "step" | "count" | "log" | "from" | "for" | "between" | "and" | "against"
-            );
-            if after_number && !keyword {
-                // A unit: up to the next space, comma or unbalanced `)`.
-                let mut depth = 0_i32;
-                while index < characters.len() {
-                    match characters[index] {
-                        '(' => depth += 1,
-                        ')' if depth == 0 => break,
-                        ')' => depth -= 1,
-                        ' ' | '\t' | ',' if depth == 0 => break,
-                        _ => {}
-                    }
-                    index += 1;
-                }
-                out.extend(&characters[start..index]);
-            } else {
-                let next = characters[index..].iter().find(|c| !c.is_whitespace());
-                match (next == Some(&'('), lookup(&word)) {
-                    (false, Some(value)) => {
-                        // Alone between delimiters (`f(x, y)`, a whole expression) a value
-                        // needs no parentheses of its own.
-                        let previous = out.trim_end().chars().last();
-                        let alone = matches!(previous, None | Some('(' | ','))
-                            && matches!(next, None | Some(')' | ','));
-                        let bare = value
-                            .strip_prefix('(')
-                            .and_then(|inner| inner.strip_suffix(')'))
-                            .filter(|inner| alone && !inner.starts_with('-'));
-                        out.push_str(bare.unwrap_or(&value));
-                    }
-                    _ => out.push_str(&word),
-                }
-            }
-            after_number = false;
-        } else {
-            out.push(character);
-            if !character.is_whitespace() {
-                after_number = false;
-            }
-            index += 1;
-        }
-    }
-    out
-}
-
 #[cfg(test)]
 mod tests {
-    use super::{formula_of, parameter_names, substitute};
+    use super::*;
+    use crate::library::Builtins;
 
     fn values(name: &str) -> Option<String> {
         match name {
             "K" => Some("(2e-5 m/s)".to_string()),
             "i" => Some("0.02".to_string()),
             "m" => Some("(99 kg)".to_string()),
+            "neg" => Some("(-3 m)".to_string()),
             _ => None,
         }
     }
 
+    /// The expression written back from its tree with `values` in place of names.
+    fn substituted(expression: &str) -> String {
+        let tree = crate::syntax::parse_set_value(expression, 0).expect("parses");
+        let records = HashMap::default();
+        let writer = TreeWriter {
+            lookup: &values,
+            library: Builtins::standard(),
+            records: &records,
+            functions: &HashMap::default(),
+            digits: 4,
+        };
+        writer.whole(&tree, &mut Vec::new())
+    }
+
     #[test]
-    fn names_are_replaced_and_units_and_calls_are_not() {
+    fn names_are_replaced_and_literals_units_and_calls_are_not() {
         let check = |expression: &str, expected: &str| {
-            assert_eq!(substitute(expression, &values), expected, "{expression}");
+            assert_eq!(substituted(expression), expected, "{expression}");
         };
         check("K * i", "(2e-5 m/s) * 0.02");
         check("K^2 / 3 m", "(2e-5 m/s)^2 / 3 m");
         check("2 m + m", "2 m + (99 kg)");
         check("3 gal/(d*ft^2) * i", "3 gal/(d*ft^2) * 0.02");
-        check("sqrt(K) [m/s]", "sqrt(2e-5 m/s) [m/s]");
+        check("sqrt(K)", "sqrt(2e-5 m/s)");
         check("K", "2e-5 m/s");
-        check("K(i)", "K(0.02)");
+        check("neg", "(-3 m)");
         check("1.5e-3 m * i", "1.5e-3 m * 0.02");
         check("0 m to K step i", "0 m to (2e-5 m/s) step 0.02");
+        check("{1, 2, 3} mD", "{1, 2, 3} mD");
+    }
+
+    /// The tree loses the parentheses as written: they come back exactly where precedence and
+    /// the order of `-`, `/` and `^` need them, and nowhere else.
+    #[test]
+    fn parentheses_follow_precedence() {
+        let check = |expression: &str, expected: &str| {
+            assert_eq!(substituted(expression), expected, "{expression}");
+        };
+        check("(a + b) * c", "(a + b) * c");
+        check("a + (b * c)", "a + b * c");
+        check("a - (b - c)", "a - (b - c)");
+        check("(a - b) - c", "a - b - c");
+        check("a / (b * c)", "a / (b * c)");
+        check("a / b / c", "a / b / c");
+        check("(a^b)^c", "(a^b)^c");
+        check("a^b^c", "a^b^c");
+        check("-a^2", "-a^2");
+        check("(-a)^2", "(-a)^2");
+        check("-(a + b)", "-(a + b)");
+        check("(2 m)^2", "(2 m)^2");
+        check("2 m^2", "2 m^2");
+        check("i * -K", "0.02 * -(2e-5 m/s)");
     }
 
     #[test]
-    fn formulas_and_parameters_come_from_the_listing() {
-        assert_eq!(
-            formula_of("Darcy flux q = K i (m/s); K hydraulic conductivity"),
-            Some("q = K i".to_string())
+    fn text_wraps_at_the_width_under_its_prefix() {
+        let mut out = Vec::new();
+        let words = vec!["word"; 40].join(" ");
+        write_wrapped(&mut out, "    after ", &words).unwrap();
+        let text = String::from_utf8(out).unwrap();
+        let lines: Vec<&str> = text.lines().collect();
+        assert!(lines.len() >= 2, "{text}");
+        assert!(
+            lines.iter().all(|line| line.chars().count() <= TEXT_WIDTH),
+            "{text}"
         );
-        assert_eq!(formula_of("absolute value, any dimension"), None);
+        assert!(lines[0].starts_with("    after word"));
+        assert!(lines[1].starts_with("            word"), "{text}");
+        assert_eq!(text.matches("word").count(), 40);
+    }
+
+    #[test]
+    fn a_formula_takes_values_by_whole_parameter_names() {
+        let lookup = |word: &str| match word {
+            "T" => Some("(285.15 K)".to_string()),
+            "p" => Some("(101325 Pa)".to_string()),
+            "k" => Some("(2e-13 m^2)".to_string()),
+            _ => None,
+        };
         assert_eq!(
-            parameter_names("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", 3),
-            Vec::<String>::new()
+            substitute_words("k * rho_w(T, p) * g0 / mu_w(T, p)", &lookup),
+            "(2e-13 m^2) * rho_w(285.15 K, 101325 Pa) * g0 / mu_w(285.15 K, 101325 Pa)"
         );
         assert_eq!(
-            parameter_names("hydraulic_conductivity(k, T[, p]) or (k, rho, mu)", 2),
-            ["k", "T", "p"]
+            substitute_words("T_0 + (T - p)", &lookup),
+            "T_0 + ((285.15 K) - (101325 Pa))"
         );
-        assert_eq!(parameter_names("darcy_flux(K, i)", 2), ["K", "i"]);
     }
 }

@@ -80,13 +80,18 @@ pub struct Include {
     pub path_span: Span,
 }
 
-/// `plot K_cold, K_warm against T log y "title"`: a line chart of columns.
+/// `plot K_cold, K_warm against T log y "title"`: a chart of columns.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Plot {
     pub series: Vec<Name>,
     pub against: Name,
+    /// `log x`, `log y`: the axes as drawn, x across and y up (or down).
     pub log_x: bool,
     pub log_y: bool,
+    /// `down`: `against` on the vertical axis, growing downwards (a depth profile).
+    pub down: bool,
+    /// `points`: markers only (a cross-plot), no line joining the rows.
+    pub points: bool,
     pub title: Option<String>,
 }
 

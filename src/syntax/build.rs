@@ -680,6 +680,7 @@ impl Builder {
         let span = self.span(&pair);
         let mut names = Vec::new();
         let (mut log_x, mut log_y) = (false, false);
+        let (mut down, mut points) = (false, false);
         let mut title = None;
         let mut comment = None;
         for inner in pair.into_inner() {
@@ -695,6 +696,8 @@ impl Builder {
                         log_y = true;
                     }
                 }
+                Rule::down_keyword => down = true,
+                Rule::points_keyword => points = true,
                 Rule::message => title = inner_text(inner),
                 Rule::comment => comment = inner_text(inner).map(|text| text.trim().to_string()),
                 _ => {}
@@ -706,6 +709,8 @@ impl Builder {
             against,
             log_x,
             log_y,
+            down,
+            points,
             title,
         };
         Ok((plot, comment))
@@ -1091,6 +1096,8 @@ fn describe(rule: Rule) -> Option<&'static str> {
         Rule::between_keyword => "`between`",
         Rule::and_keyword => "`and`",
         Rule::against_keyword => "`against`",
+        Rule::down_keyword => "`down`",
+        Rule::points_keyword => "`points`",
         Rule::axis => "`x` or `y`",
         Rule::mean_keyword => "`mean`",
         Rule::sd_keyword => "`sd`",

@@ -117,6 +117,8 @@ impl<'l> Calculator<'l> {
             series,
             log_x: plot.log_x,
             log_y: plot.log_y,
+            down: plot.down,
+            points: plot.points,
         })
     }
 }

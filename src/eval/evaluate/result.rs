@@ -67,6 +67,9 @@ pub struct LineOutcome {
     pub name: Option<String>,
     /// The expression's source text (empty for headings and comments).
     pub expression: String,
+    /// Where that text lies in the sources, for a named or shown line: parsed again at this
+    /// offset, its calls meet the `CallRecord`s of the evaluation.
+    pub expression_span: Option<Span>,
     pub comment: Option<String>,
     pub result: LineResult,
     /// How the value was found, where that is worth saying (a solve's iterations).
@@ -110,8 +113,13 @@ pub struct PlotOutcome {
     pub x: Vec<f64>,
     /// Each series' name and values, all in the first series' unit.
     pub series: Vec<(String, Vec<f64>)>,
+    /// Logarithmic axes, as drawn: x across, y up (or down).
     pub log_x: bool,
     pub log_y: bool,
+    /// The x column down the vertical axis (a depth profile).
+    pub down: bool,
+    /// Markers only, no line (a cross-plot).
+    pub points: bool,
 }
 
 /// A line's value with the unit it is shown in.

@@ -733,19 +733,25 @@ impl<'a> Evaluator<'a> {
             .take(main_lines)
             .enumerate()
             .map(|(index, (line, result))| {
-                let (name, expression) = match &line.kind {
-                    LineKind::Definition(definition) if overridden.contains_key(&index) => {
-                        let given = overrides
+                // The expression evaluated (a `--set` value in place of the sheet's), whose
+                // text the outcome keeps and whose span the working re-parses it at.
+                let evaluated: Option<&Expression> = match &line.kind {
+                    LineKind::Definition(definition) => Some(
+                        overrides
                             .iter()
+                            .filter(|_| overridden.contains_key(&index))
                             .find(|(name, _)| *name == definition.name.text)
-                            .map_or(String::new(), |(_, expression)| {
-                                text_of(sources, expression.span)
-                            });
-                        (Some(definition.name.text.clone()), given)
-                    }
+                            .map_or(&definition.expression, |(_, expression)| expression),
+                    ),
+                    LineKind::Display(display) => Some(&display.expression),
+                    _ => None,
+                };
+                let (name, expression) = match &line.kind {
                     LineKind::Definition(definition) => (
                         Some(definition.name.text.clone()),
-                        text_of(sources, definition.expression.span),
+                        evaluated.map_or(String::new(), |expression| {
+                            text_of(sources, expression.span)
+                        }),
                     ),
                     LineKind::Display(display) => (None, text_of(sources, display.expression.span)),
                     LineKind::Function(function) => (
@@ -762,6 +768,7 @@ impl<'a> Evaluator<'a> {
                     number: line.number,
                     name,
                     expression,
+                    expression_span: evaluated.map(|expression| expression.span),
                     comment: line.comment.clone(),
                     result: result.unwrap_or(LineResult::Error),
                     note: match &line.kind {
