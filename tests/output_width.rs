@@ -51,6 +51,22 @@ fn run_fits_80_and_100_columns_on_every_demo_sheet() {
     }
 }
 
+/// A sampled run adds its spread, checks and ranking: they fit too, and its checks count
+/// samples, not rows.
+#[test]
+fn a_sampled_run_fits_80_and_100_columns() {
+    let sheet = worksheet("liner_leakage_uncertainty.fxs");
+    let sheet = sheet.to_str().unwrap();
+    for width in [80, 100] {
+        let (code, stdout) = at_width(width, &["run", sheet, "--samples", "2000", "--seed", "3"]);
+        assert!(code == 0 || code == 1, "exit {code}");
+        assert_fits(width, "run --samples", &stdout);
+        assert!(stdout.contains("What drives each result"), "{stdout}");
+        assert!(stdout.contains(" of 2000 samples fail"), "{stdout}");
+        assert!(!stdout.contains(" of 2000 rows"), "{stdout}");
+    }
+}
+
 #[test]
 fn functions_and_units_fit_80_and_100_columns() {
     for width in [80, 100] {

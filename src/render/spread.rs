@@ -9,6 +9,19 @@ use crate::eval::uncertainty::{percentile_label, CheckSpread, SampleSummary};
 use serde::Serialize;
 use std::io::{self, Write};
 
+/// A sentence above a table, wrapped to the terminal's width like the tables.
+fn write_paragraph(out: &mut dyn Write, options: RenderOptions, text: &str) -> io::Result<()> {
+    match options.width {
+        Some(width) => {
+            for line in super::text_table::wrap(text, width) {
+                writeln!(out, "{line}")?;
+            }
+            Ok(())
+        }
+        None => writeln!(out, "{text}"),
+    }
+}
+
 /// The three tables, after the sheet's own.
 pub fn write_summary(
     out: &mut dyn Write,
@@ -17,10 +30,13 @@ pub fn write_summary(
 ) -> io::Result<()> {
     let digits = options.digits;
     writeln!(out)?;
-    writeln!(
+    write_paragraph(
         out,
-        "Sampled {} times, seed {}.\nGenerator: {}.",
-        summary.samples, summary.seed, summary.generator
+        options,
+        &format!(
+            "Sampled {} times, seed {}. Generator: {}.",
+            summary.samples, summary.seed, summary.generator
+        ),
     )?;
     let mut header = vec![
         "line".to_string(),
@@ -77,11 +93,14 @@ pub fn write_summary(
     if !summary.sensitivity.is_empty() {
         writeln!(out)?;
         let noise = noise_level(summary.samples);
-        writeln!(
+        write_paragraph(
             out,
-            "What drives each result (Spearman rank correlation with each input, largest first; \
-             inputs below {}, within the sampling noise of zero, left out):",
-            format_significant(noise, 2)
+            options,
+            &format!(
+                "What drives each result (Spearman rank correlation with each input, largest \
+                 first; inputs below {}, within the sampling noise of zero, left out):",
+                format_significant(noise, 2)
+            ),
         )?;
         let header = ["line", "result", "inputs by rank correlation"];
         let rows: Vec<Vec<String>> = summary

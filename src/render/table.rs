@@ -67,14 +67,19 @@ pub fn check_text(check: &CheckOutcome, digits: u32) -> String {
         text.push_str(&format!(" within {tolerance}"));
     }
     if let Some(rows) = &check.rows {
+        let (plural, singular) = if rows.sampled {
+            ("samples", "sample")
+        } else {
+            ("rows", "row")
+        };
         if rows.failed == 0 {
             text.push_str(&format!(
-                " (all {} rows pass; closest is row {})",
+                " (all {} {plural} pass; closest is {singular} {})",
                 rows.total, rows.shown_row
             ));
         } else {
             text.push_str(&format!(
-                " ({} of {} rows fail; first is row {})",
+                " ({} of {} {plural} fail; first is {singular} {})",
                 rows.failed, rows.total, rows.shown_row
             ));
         }

@@ -109,6 +109,7 @@ impl<'l> Calculator<'l> {
                     total,
                     failed,
                     shown_row: shown_row + 1,
+                    sampled: false,
                 };
                 (shown_row, Some(summary))
             }

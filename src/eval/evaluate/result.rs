@@ -242,4 +242,6 @@ pub struct CheckRows {
     pub failed: usize,
     /// 1-based.
     pub shown_row: usize,
+    /// The rows are the samples of `run --samples`, not a column of the sheet.
+    pub sampled: bool,
 }

@@ -559,6 +559,7 @@ fn join_checks(
             total: samples,
             failed,
             shown_row,
+            sampled: true,
         });
         **median_outcome = joined_outcome;
         spreads.push(CheckSpread {
