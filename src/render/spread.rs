@@ -22,6 +22,41 @@ fn write_paragraph(out: &mut dyn Write, options: RenderOptions, text: &str) -> i
     }
 }
 
+/// The spread table's header: line, name, mean, sd, the chosen percentiles, unit.
+fn spread_header(summary: &SampleSummary) -> Vec<String> {
+    let mut header: Vec<String> = ["line", "name", "mean", "sd"].map(String::from).to_vec();
+    header.extend(summary.percentiles.iter().map(|p| percentile_label(*p)));
+    header.push("unit".to_string());
+    header
+}
+
+/// One row per uncertain line; a plain number shows no unit, as in the sheet's table.
+fn spread_rows(summary: &SampleSummary, digits: u32) -> Vec<Vec<String>> {
+    summary
+        .lines
+        .iter()
+        .map(|line| {
+            let mut row = vec![
+                line.line.to_string(),
+                line.name.clone().unwrap_or_default(),
+                format_significant(line.mean, digits),
+                format_significant(line.sd, digits),
+            ];
+            row.extend(
+                line.percentiles
+                    .iter()
+                    .map(|value| format_significant(*value, digits)),
+            );
+            row.push(if line.unit == "1" {
+                String::new()
+            } else {
+                line.unit.clone()
+            });
+            row
+        })
+        .collect()
+}
+
 /// The three tables, after the sheet's own.
 pub fn write_summary(
     out: &mut dyn Write,
@@ -38,38 +73,8 @@ pub fn write_summary(
             summary.samples, summary.seed, summary.generator
         ),
     )?;
-    let mut header = vec![
-        "line".to_string(),
-        "name".to_string(),
-        "mean".to_string(),
-        "sd".to_string(),
-    ];
-    header.extend(summary.percentiles.iter().map(|p| percentile_label(*p)));
-    header.push("unit".to_string());
-    let rows: Vec<Vec<String>> = summary
-        .lines
-        .iter()
-        .map(|line| {
-            let mut row = vec![
-                line.line.to_string(),
-                line.name.clone().unwrap_or_default(),
-                format_significant(line.mean, digits),
-                format_significant(line.sd, digits),
-            ];
-            row.extend(
-                line.percentiles
-                    .iter()
-                    .map(|value| format_significant(*value, digits)),
-            );
-            // A plain number shows no unit, as in the sheet's table.
-            row.push(if line.unit == "1" {
-                String::new()
-            } else {
-                line.unit.clone()
-            });
-            row
-        })
-        .collect();
+    let header = spread_header(summary);
+    let rows = spread_rows(summary, digits);
     let numbers = 2..header.len() - 1;
     write_block(out, options, &header, &rows, numbers)?;
     if !summary.checks.is_empty() {
@@ -243,39 +248,10 @@ pub fn report_blocks(
             summary.samples, summary.generator
         )),
     ];
-    let mut header = vec![
-        "line".to_string(),
-        "name".to_string(),
-        "mean".to_string(),
-        "sd".to_string(),
-    ];
-    header.extend(summary.percentiles.iter().map(|p| percentile_label(*p)));
-    header.push("unit".to_string());
+    let header = spread_header(summary);
     blocks.push(Block::Columns {
         header,
-        rows: summary
-            .lines
-            .iter()
-            .map(|line| {
-                let mut row = vec![
-                    line.line.to_string(),
-                    line.name.clone().unwrap_or_default(),
-                    format_significant(line.mean, digits),
-                    format_significant(line.sd, digits),
-                ];
-                row.extend(
-                    line.percentiles
-                        .iter()
-                        .map(|value| format_significant(*value, digits)),
-                );
-                row.push(if line.unit == "1" {
-                    String::new()
-                } else {
-                    line.unit.clone()
-                });
-                row
-            })
-            .collect(),
+        rows: spread_rows(summary, digits),
     });
     if !summary.checks.is_empty() {
         blocks.push(Block::Columns {
