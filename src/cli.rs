@@ -1,6 +1,9 @@
-//! The command-line front door: argument definitions (clap), and the commands `run`, `eval`,
-//! `units` and `functions`. This, `repl` (the interactive session) and `main.rs` are the only
-//! code that reads files or writes to the terminal; everything else is handed writers.
+//! The command-line front door: argument definitions (clap), and the commands `run`, `eval`
+//! and `units` (the others in `cli/`). With `repl`, `lsp` and `front`, the only code that reads
+//! files or writes to the terminal; everything else is handed writers.
+//!
+//! Over 800 lines: the clap definitions of every command with their help texts, beside the
+//! commands that share their loading and output settings.
 
 use crate::eval::warnings::deny_warnings;
 use crate::eval::{

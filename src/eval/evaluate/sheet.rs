@@ -1,5 +1,8 @@
 //! The sheet evaluator: definitions in dependency order, then shown expressions, checks and
 //! plots, with every independent error collected.
+//!
+//! Just over 800 lines: ordering, evaluating each line and collecting errors are one pass
+//! over one sheet, kept together.
 
 use super::load::Loaded;
 use super::*;
