@@ -179,10 +179,10 @@ K [m/s] = hydraulic_conductivity(100 mD, T)\n",
         "{stdout}"
     );
     assert!(
-        stdout.contains("p = 101300 Pa (left out)) (row 1 of 2)"),
+        stdout.contains("p = 101325 Pa (left out)) (row 1 of 2)"),
         "{stdout}"
     );
-    assert!(stdout.contains("rho_w(283.2 K, 101300 Pa)"), "{stdout}");
+    assert!(stdout.contains("rho_w(283.2 K, 101325 Pa)"), "{stdout}");
     assert!(
         stdout.contains("    leak(K, head, t) = K * (head + t) / t\n                     = (1e-9 m/s) * ((6 m) + (2 m)) / (2 m)\n"),
         "{stdout}"

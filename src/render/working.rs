@@ -395,10 +395,13 @@ impl TreeWriter<'_> {
                 (None, Some(default)) => (*default, true),
                 (None, None) => continue,
             };
+            // A default is a constant of the relation: shown to six figures so that
+            // 101325 Pa does not read as a rounded 101300 Pa.
+            let shown_digits = if left_out { digits.max(6) } else { digits };
             let text = quantity_text(
                 quantity.value,
                 &quantity.dimension.preferred_si_unit(),
-                digits,
+                shown_digits,
             );
             named.push(if left_out {
                 format!("{parameter} = {text} (left out)")
