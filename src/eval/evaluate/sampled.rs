@@ -19,7 +19,6 @@ use crate::eval::uncertainty::{
 };
 use crate::syntax::{LineKind, Span};
 use crate::units::Unit;
-use std::sync::atomic::{AtomicUsize, Ordering};
 use std::sync::Arc;
 
 /// The code of the diagnostic for `--samples` on a sheet without distributions (a
@@ -228,7 +227,6 @@ fn evaluate_blocks(
     mixing: &Mixing,
     blocks: usize,
 ) -> Vec<BlockOutcome> {
-    let next = AtomicUsize::new(0);
     let evaluate_block = |block: usize| {
         let first_sample = block * BLOCK;
         let len = BLOCK.min(sampling.samples - first_sample);
@@ -266,34 +264,12 @@ fn evaluate_blocks(
             errors,
         }
     };
-    let threads = sampling.threads.clamp(1, blocks.max(1));
-    let mut done: Vec<(usize, BlockOutcome)> = std::thread::scope(|scope| {
-        let workers: Vec<_> = (0..threads)
-            .map(|_| {
-                scope.spawn(|| {
-                    let mut mine = Vec::new();
-                    loop {
-                        let block = next.fetch_add(1, Ordering::Relaxed);
-                        if block >= blocks {
-                            return mine;
-                        }
-                        mine.push((block, evaluate_block(block)));
-                    }
-                })
-            })
-            .collect();
-        workers
-            .into_iter()
-            .flat_map(|worker| {
-                // A panic in a block is a bug: passed on, never a summary of fewer samples.
-                worker
-                    .join()
-                    .unwrap_or_else(|panic| std::panic::resume_unwind(panic))
-            })
-            .collect()
-    });
-    done.sort_by_key(|(block, _)| *block);
-    done.into_iter().map(|(_, outcome)| outcome).collect()
+    // Blocks are of equal size, so an even share per thread balances; results come back in
+    // block order whatever the thread count.
+    let block_numbers: Vec<usize> = (0..blocks).collect();
+    in_parallel(sampling.threads, &block_numbers, |block| {
+        evaluate_block(*block)
+    })
 }
 
 /// The samples of one line, joined over the blocks.
